@@ -1,0 +1,318 @@
+"""Property lookups with everything an answer must state beside its numbers.
+
+Each function here is what one HTTP lookup calls: it computes the states and
+gathers the formulations used, their stated uncertainties for the quantities
+returned, advisories and modelling assumptions. It knows nothing of HTTP.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Final, Generic, Literal, TypeVar
+
+import numpy as np
+
+from service.core import constants, sources
+from service.core.advisories import Advisory, advise_where, near_critical_point
+from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.melting import MeltingStates, melting_by_pressure, melting_by_temperature
+from service.core.phase import FloatArray
+from service.core.saturation import (
+    SaturationStates,
+    saturation_by_pressure,
+    saturation_by_temperature,
+)
+from service.core.state import PointStates, state_at
+from service.core.sublimation import (
+    SublimationStates,
+    sublimation_by_pressure,
+    sublimation_by_temperature,
+)
+from service.core.uncertainty import stated_uncertainty
+
+__all__ = [
+    "ConstantValues",
+    "Lookup",
+    "ReportedUncertainty",
+    "constants_lookup",
+    "melting_lookup",
+    "saturation_lookup",
+    "state_lookup",
+    "sublimation_lookup",
+]
+
+Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
+StatesT = TypeVar("StatesT")
+
+EXTRAPOLATED_VAPOR_TEMPERATURE: Final = 130.0
+"""K. Below this the ideal-gas heat capacity behind IAPWS-95's ideal-gas part is
+extrapolated (from memory: the release states the ideal-gas part's range, see
+IAPWS R6-95(2018) Sec. 7)."""
+
+_PURE_WATER: Final = "Pure water substance (no dissolved air or solutes)."
+_ABSOLUTE: Final = "All pressures are absolute."
+_FLAT: Final = "Phases in equilibrium across a flat interface (no curvature or surface effects)."
+
+
+@dataclass(frozen=True)
+class ReportedUncertainty:
+    """A formulation's stated uncertainty for one returned quantity over a request.
+
+    ``relative`` is the largest stated relative uncertainty over the request's states,
+    or ``None`` where no statement covers them.
+    """
+
+    quantity: str
+    relative: float | None
+    coverage: str
+    statement: str
+    source: str
+    basis: str
+
+
+@dataclass(frozen=True)
+class Lookup(Generic[StatesT]):
+    """States plus what the answer must state beside them."""
+
+    states: StatesT
+    sources: tuple[sources.PropertySource, ...]
+    uncertainties: list[ReportedUncertainty]
+    advisories: list[Advisory]
+    assumptions: list[str]
+
+
+@dataclass(frozen=True)
+class ConstantValues:
+    """Fixed points (SI) and the latent heats at the triple point (J/kg)."""
+
+    triple_point_temperature: float
+    triple_point_pressure: float
+    critical_temperature: float
+    critical_pressure: float
+    critical_density: float
+    specific_gas_constant: float
+    molar_mass: float
+    latent_heat_of_vaporization: float
+    latent_heat_of_sublimation: float
+    latent_heat_of_fusion: float
+
+
+LineLookup = Lookup[SaturationStates] | Lookup[SublimationStates] | Lookup[MeltingStates]
+
+
+def _report(
+    formulation: str,
+    quantity: str,
+    temperature: FloatArray,
+    pressure: FloatArray | None = None,
+    *,
+    label: str | None = None,
+) -> ReportedUncertainty:
+    name = label or quantity
+    try:
+        lookup = stated_uncertainty(formulation, quantity, temperature, pressure)
+    except OutOfRangeError as error:
+        return ReportedUncertainty(
+            quantity=name,
+            relative=None,
+            coverage="not stated",
+            statement=(
+                f"No uncertainty statement of {formulation} covers every state asked: {error}"
+            ),
+            source="",
+            basis="",
+        )
+    worst = lookup.statements[
+        int(lookup.statement_index.ravel()[np.argmax(lookup.relative_uncertainty)])
+    ]
+    return ReportedUncertainty(
+        quantity=name,
+        relative=float(np.max(lookup.relative_uncertainty)),
+        coverage=worst.coverage,
+        statement=worst.statement,
+        source=worst.section,
+        basis=worst.basis,
+    )
+
+
+def _given(pressure: FloatArray | None) -> FloatArray:
+    if pressure is None:
+        raise InvalidInputError(
+            "temperature, pressure", "give exactly one of temperature or pressure"
+        )
+    return pressure
+
+
+def _batch(*arrays: FloatArray | None) -> bool:
+    return any(array is not None and np.ndim(array) > 0 and np.size(array) > 1 for array in arrays)
+
+
+def saturation_lookup(
+    *,
+    temperature: FloatArray | None = None,
+    pressure: FloatArray | None = None,
+    formulation: Formulation = "IAPWS-95",
+) -> Lookup[SaturationStates]:
+    """Saturation states by temperature (K) or pressure (Pa), with sources and uncertainty."""
+    if temperature is not None:
+        states = saturation_by_temperature(temperature, formulation=formulation)
+    else:
+        states = saturation_by_pressure(_given(pressure), formulation=formulation)
+    t = states.temperature
+    uncertainties = [
+        _report(formulation, "saturation_pressure", t, label="pressure"),
+        _report(formulation, "saturated_liquid_density", t, label="liquid.density"),
+        _report(formulation, "saturated_vapor_density", t, label="vapor.density"),
+        _report(formulation, "enthalpy_of_vaporization", t, label="latent_heat_of_vaporization"),
+    ]
+    advisories = advise_where(
+        np.isposinf(states.liquid.specific_isobaric_heat_capacity)
+        | np.isposinf(states.vapor.specific_isobaric_heat_capacity),
+        "diverges",
+        "At the critical point the isobaric heat capacity is infinite; it is reported as null.",
+        batch=_batch(temperature, pressure),
+    )
+    advisories += advise_where(
+        near_critical_point(t),
+        "near-critical-point",
+        "Within 1 K of the critical point: liquid and vapor properties converge, heat "
+        "capacities grow without bound and uncertainties are larger.",
+        batch=_batch(temperature, pressure),
+    )
+    return Lookup(
+        states=states,
+        sources=(sources.source_for(formulation),),
+        uncertainties=uncertainties,
+        advisories=advisories,
+        assumptions=[_PURE_WATER, _FLAT, _ABSOLUTE],
+    )
+
+
+def sublimation_lookup(
+    *, temperature: FloatArray | None = None, pressure: FloatArray | None = None
+) -> Lookup[SublimationStates]:
+    """Ice Ih-vapor equilibrium by temperature (K) or pressure (Pa)."""
+    if temperature is not None:
+        states = sublimation_by_temperature(temperature)
+    else:
+        states = sublimation_by_pressure(_given(pressure))
+    t = states.temperature
+    line = sources.MELTING_AND_SUBLIMATION.formulation
+    ice = sources.ICE_IH.formulation
+    uncertainties = [
+        _report(line, "sublimation_pressure", t, label="pressure"),
+        _report(ice, "ice_density", t, label="ice.density"),
+        _report(ice, "ice_enthalpy", t, label="ice.specific_enthalpy"),
+        _report(ice, "enthalpy_of_sublimation", t, label="latent_heat_of_sublimation"),
+    ]
+    advisories = advise_where(
+        t < EXTRAPOLATED_VAPOR_TEMPERATURE,
+        "extrapolated",
+        f"Below {EXTRAPOLATED_VAPOR_TEMPERATURE:g} K the vapor properties extrapolate "
+        "IAPWS-95's ideal-gas part beyond the range it was fitted on.",
+        batch=_batch(temperature, pressure),
+    )
+    return Lookup(
+        states=states,
+        sources=(sources.MELTING_AND_SUBLIMATION, sources.ICE_IH, sources.IAPWS_95),
+        uncertainties=uncertainties,
+        advisories=advisories,
+        assumptions=[_PURE_WATER, _FLAT, _ABSOLUTE, "Ice is hexagonal ice Ih."],
+    )
+
+
+def melting_lookup(
+    *, temperature: FloatArray | None = None, pressure: FloatArray | None = None
+) -> Lookup[MeltingStates]:
+    """Ice Ih-liquid equilibrium by temperature (K) or pressure (Pa)."""
+    if temperature is not None:
+        states = melting_by_temperature(temperature)
+    else:
+        states = melting_by_pressure(_given(pressure))
+    t = states.temperature
+    line = sources.MELTING_AND_SUBLIMATION.formulation
+    ice = sources.ICE_IH.formulation
+    uncertainties = [
+        _report(line, "melting_pressure", t, label="pressure"),
+        _report(ice, "ice_density", t, label="ice.density"),
+        _report(ice, "ice_enthalpy", t, label="ice.specific_enthalpy"),
+    ]
+    return Lookup(
+        states=states,
+        sources=(sources.MELTING_AND_SUBLIMATION, sources.ICE_IH, sources.IAPWS_95),
+        uncertainties=uncertainties,
+        advisories=[],
+        assumptions=[_PURE_WATER, _FLAT, _ABSOLUTE, "Ice is hexagonal ice Ih."],
+    )
+
+
+def state_lookup(
+    *,
+    temperature: FloatArray,
+    pressure: FloatArray,
+    phase: Literal["liquid", "vapor", "ice"] | None = None,
+    formulation: Formulation = "IAPWS-95",
+) -> Lookup[PointStates]:
+    """Phase and properties at (temperature K, pressure Pa); see :func:`state_at`."""
+    states = state_at(temperature, pressure, phase=phase, formulation=formulation)
+    properties = states.properties
+    uncertainties: list[ReportedUncertainty] = []
+    liquid = states.phase == "liquid"
+    if liquid.any():
+        uncertainties.append(
+            _report(
+                formulation,
+                "liquid_density",
+                properties.temperature[liquid],
+                properties.pressure[liquid],
+                label="properties.density (liquid)",
+            )
+        )
+    ice = states.phase == "ice"
+    if ice.any():
+        uncertainties.append(
+            _report(
+                sources.ICE_IH.formulation,
+                "ice_density",
+                properties.temperature[ice],
+                label="properties.density (ice)",
+            )
+        )
+    return Lookup(
+        states=states,
+        sources=states.sources,
+        uncertainties=uncertainties,
+        advisories=states.advisories,
+        assumptions=[_PURE_WATER, _ABSOLUTE, "Single phase at the given temperature and pressure."],
+    )
+
+
+def constants_lookup() -> Lookup[ConstantValues]:
+    """Fixed points and latent heats at the triple point (from the core's formulations)."""
+    triple = np.array([constants.TRIPLE_POINT_TEMPERATURE])
+    vaporization = saturation_by_temperature(triple).latent_heat_of_vaporization
+    sublimation = sublimation_by_temperature(triple).latent_heat_of_sublimation
+    fusion = melting_by_temperature(triple).latent_heat_of_fusion
+    values = ConstantValues(
+        triple_point_temperature=constants.TRIPLE_POINT_TEMPERATURE,
+        triple_point_pressure=constants.TRIPLE_POINT_PRESSURE,
+        critical_temperature=constants.CRITICAL_TEMPERATURE,
+        critical_pressure=constants.CRITICAL_PRESSURE,
+        critical_density=constants.CRITICAL_DENSITY,
+        specific_gas_constant=constants.SPECIFIC_GAS_CONSTANT,
+        molar_mass=constants.MOLAR_MASS,
+        latent_heat_of_vaporization=float(vaporization[0]),
+        latent_heat_of_sublimation=float(sublimation[0]),
+        latent_heat_of_fusion=float(fusion[0]),
+    )
+    return Lookup(
+        states=values,
+        sources=(
+            sources.IAPWS_95,
+            sources.ICE_IH,
+            sources.MELTING_AND_SUBLIMATION,
+        ),
+        uncertainties=[],
+        advisories=[],
+        assumptions=[_PURE_WATER],
+    )
