@@ -1,0 +1,548 @@
+"""Vacuum (evaporative) cooling of a moist product by its own evaporation.
+
+A product at an initial temperature is cooled to a final temperature (above its
+freezing point) by evaporating part of its water under vacuum. The water is
+liquid water with IAPWS-95 properties on its vapor-pressure curve; the rest of the
+product is either
+
+- a lumped specific heat ``c`` per kilogram of current product mass (the product's
+  sensible heat is M c dT; each kilogram evaporated takes h_vapor - h_liquid), or
+- a composition: water plus protein, fat, carbohydrate, fiber and ash with the
+  Choi and Okos (1986) specific heats (:mod:`service.core.balances.food_composition`).
+
+Equations
+---------
+Lumped:       (M c + C) dT = (h_v - kappa - h_l) dM
+Composition:  (m_w (dh_l/dT - v_l dp/dT) + M_s c_s(T) + C) dT = (h_v - kappa - h_l) dm_w
+Both are linear in the evaporating mass and are solved on Chebyshev-Lobatto nodes
+as in :mod:`service.core.balances.stages`. C is the companions' heat capacity and
+kappa the heat gained per kilogram evaporated (:mod:`service.core.balances.heat_gain`).
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass
+from typing import Final
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from service.core.advisories import Advisory
+from service.core.balances.companions import Companion, heat_capacity
+from service.core.balances.equilibrium_paths import ice_vapor_states, liquid_vapor_states
+from service.core.balances.food_composition import (
+    CHOI_OKOS_REFERENCE,
+    Composition,
+    solids_specific_heat,
+)
+from service.core.balances.heat_gain import (
+    HEAT_GAIN_ASSUMPTION,
+    HeatGain,
+    solve_heat_per_evaporated_mass,
+)
+from service.core.balances.stages import DEGREE, interval_of
+from service.core.balances.sweeps import expand_case
+from service.core.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
+from service.core.phase import FloatArray
+from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, PropertySource
+
+__all__ = [
+    "EVAPORATIVE_COOLING_LIMITS",
+    "EvaporativeCoolingCase",
+    "EvaporativeCoolingResult",
+    "evaporative_cooling",
+]
+
+EVAPORATIVE_COOLING_LIMITS: Final = {
+    "initial_temperature_max": 373.15,
+    "freezing_point_min": 243.15,
+    "trap_temperature_min": 173.15,
+}
+"""K. The initial temperature is at most the normal boiling point; a product freezing
+point below 243.15 K is outside the supercooled-liquid range used for its water."""
+
+_KAPPA_UPPER_BOUND: Final = 3.0e6
+_SUM_WARNING: Final = 1e-9
+
+
+@dataclass(frozen=True)
+class EvaporativeCoolingCase:
+    """Input of :func:`evaporative_cooling`. Any numeric field may be an array (a sweep).
+
+    Attributes
+    ----------
+    product_mass : array_like
+        kg, > 0.
+    initial_temperature, final_temperature : array_like
+        K; final < initial <= 373.15 K, final >= the product's freezing point.
+    specific_heat : array_like or None
+        Lumped product specific heat, J/(kg K), > 0; exclusive with ``composition``.
+    composition : Composition or None
+        Mass fractions; exclusive with ``specific_heat``.
+    companions : tuple of Companion
+    heat_gain : HeatGain or None
+    freezing_point : array_like or None
+        Product's initial freezing point, K (243.15 K to 273.16 K). If None, pure
+        water's 273.16 K is used, with a warning.
+    trap_temperature : array_like or None
+        Condenser / cold-trap temperature, K (173.15 K to 273.16 K).
+    cooling_time : array_like or None
+        s, > 0; gives mean vapor mass and volume flows.
+    """
+
+    product_mass: ArrayLike
+    initial_temperature: ArrayLike
+    final_temperature: ArrayLike
+    specific_heat: ArrayLike | None = None
+    composition: Composition | None = None
+    companions: tuple[Companion, ...] = ()
+    heat_gain: HeatGain | None = None
+    freezing_point: ArrayLike | None = None
+    trap_temperature: ArrayLike | None = None
+    cooling_time: ArrayLike | None = None
+
+
+@dataclass(frozen=True)
+class EvaporativeCoolingResult:
+    """Output of :func:`evaporative_cooling`; arrays of the sweep shape.
+
+    Attributes
+    ----------
+    evaporated_mass : ndarray
+        kg (integrated method).
+    evaporated_fraction : ndarray
+        evaporated_mass / initial product mass.
+    mean_vapor_enthalpy_evaporated_mass : ndarray
+        kg, hand method (one vapor enthalpy at the mean temperature).
+    relative_difference : ndarray
+        (hand - integrated) / integrated.
+    prewetting_water_mass : ndarray
+        kg of water to add beforehand so that the product ends at its initial mass.
+    start_pressure : ndarray
+        Pa, saturation pressure of water at the initial temperature: flashing starts
+        when the chamber reaches it.
+    final_pressure : ndarray
+        Pa, saturation pressure at the final temperature: the set point.
+    heat_removed : ndarray
+        J, latent heat carried off, integral of (h_vapor - h_liquid) dm.
+    sensible_heat_released : ndarray
+        J, sensible heat given up by product and companions.
+    heat_gained : ndarray
+        J.
+    vapor_enthalpy : ndarray
+        J, integral of h_vapor dm (IAPWS reference).
+    vapor_volume : ndarray
+        m3, integral of dm / rho_vapor at the saturation states.
+    condenser_load : ndarray or None
+        J, vapor enthalpy minus the enthalpy of the same mass of ice at the trap
+        temperature and its sublimation pressure.
+    mean_vapor_mass_flow : ndarray or None
+        kg/s, evaporated_mass / cooling_time.
+    mean_vapor_volume_flow : ndarray or None
+        m3/s, vapor_volume / cooling_time.
+    energy_residual : ndarray
+        J, sensible_heat_released + heat_gained - latent heat carried, the latter computed
+        with the evaporation rate from differentiating the solution (integration error).
+    relative_energy_residual : ndarray
+        energy_residual / heat_removed.
+    freezing_point : ndarray
+        K, the one used for the range check.
+    assumptions, warnings, property_sources
+    """
+
+    evaporated_mass: FloatArray
+    evaporated_fraction: FloatArray
+    mean_vapor_enthalpy_evaporated_mass: FloatArray
+    relative_difference: FloatArray
+    prewetting_water_mass: FloatArray
+    start_pressure: FloatArray
+    final_pressure: FloatArray
+    heat_removed: FloatArray
+    sensible_heat_released: FloatArray
+    heat_gained: FloatArray
+    vapor_enthalpy: FloatArray
+    vapor_volume: FloatArray
+    condenser_load: FloatArray | None
+    mean_vapor_mass_flow: FloatArray | None
+    mean_vapor_volume_flow: FloatArray | None
+    energy_residual: FloatArray
+    relative_energy_residual: FloatArray
+    freezing_point: FloatArray
+    assumptions: tuple[str, ...]
+    warnings: tuple[Advisory, ...]
+    property_sources: tuple[PropertySource, ...]
+
+
+@dataclass
+class _Numbers:
+    evaporated: float
+    hand_evaporated: float
+    prewetting: float
+    start_pressure: float
+    final_pressure: float
+    heat_removed: float
+    sensible: float
+    heat_gained: float
+    vapor_enthalpy: float
+    vapor_volume: float
+    condenser_load: float | None
+    mass_flow: float | None
+    volume_flow: float | None
+    freezing_point: float
+    residual: float
+    freezing_point_given: bool
+    composition_rescaled: bool
+
+
+def _value(value: ArrayLike | None, name: str) -> float | None:
+    if value is None:
+        return None
+    number = float(np.asarray(value))
+    if not np.isfinite(number):
+        raise InvalidInputError(name, f"must be finite, got {number!r}", number)
+    return number
+
+
+def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
+    limits = EVAPORATIVE_COOLING_LIMITS
+    mass = _value(case.product_mass, "product_mass")
+    initial = _value(case.initial_temperature, "initial_temperature")
+    final = _value(case.final_temperature, "final_temperature")
+    assert mass is not None and initial is not None and final is not None
+    if mass <= 0.0:
+        raise OutOfRangeError("product_mass", mass, 0.0, None, "kg", "must be positive", index)
+    freezing = _value(case.freezing_point, "freezing_point")
+    given = freezing is not None
+    if freezing is None:
+        freezing = TRIPLE_POINT_TEMPERATURE
+    elif not limits["freezing_point_min"] <= freezing <= TRIPLE_POINT_TEMPERATURE:
+        raise OutOfRangeError(
+            "freezing_point",
+            freezing,
+            limits["freezing_point_min"],
+            TRIPLE_POINT_TEMPERATURE,
+            "K",
+            "a product's initial freezing point lies at or below pure water's",
+            index,
+        )
+    if not freezing <= initial <= limits["initial_temperature_max"]:
+        raise OutOfRangeError(
+            "initial_temperature",
+            initial,
+            freezing,
+            limits["initial_temperature_max"],
+            "K",
+            "the product starts unfrozen and at most at the normal boiling point",
+            index,
+        )
+    if final >= initial:
+        raise OutOfRangeError(
+            "final_temperature",
+            final,
+            freezing,
+            initial,
+            "K",
+            "evaporative cooling needs a final temperature below the initial temperature",
+            index,
+        )
+    if final < freezing:
+        raise UnsupportedStateError(
+            "final_temperature",
+            f"{final:.6g} K is below the product's initial freezing point {freezing:.6g} K: "
+            "the product would start to freeze; use the flash-freeze calculation for cooling "
+            "into freezing",
+            final,
+            {"freezing_point": freezing, "index": index},
+        )
+    if (case.specific_heat is None) == (case.composition is None):
+        raise InvalidInputError("specific_heat", "give exactly one of specific_heat or composition")
+    companions = heat_capacity(case.companions)
+    for position, companion in enumerate(case.companions):
+        for attribute in ("mass", "specific_heat"):
+            number = _value(getattr(companion, attribute), f"companions[{position}].{attribute}")
+            if number is None or number < 0.0:
+                raise OutOfRangeError(
+                    f"companions[{position}].{attribute}",
+                    float(number or 0.0),
+                    0.0,
+                    None,
+                    "SI",
+                    "must be >= 0",
+                    index,
+                )
+    gain = case.heat_gain.total() if case.heat_gain is not None else 0.0
+
+    lower, upper = final, initial
+    interval = interval_of(lower, upper)
+    temperatures = np.append(interval.nodes, 0.5 * (lower + upper))
+    states = liquid_vapor_states(temperatures)
+    nodes = slice(0, DEGREE + 1)
+    h_l = states.condensed.specific_enthalpy[nodes]
+    h_v = states.vapor.specific_enthalpy[nodes]
+    v_l = 1.0 / states.condensed.density[nodes]
+    pressure = states.pressure[nodes]
+    water_along = interval.derivative(h_l) - v_l * interval.derivative(pressure)
+    rescaled = False
+    if case.composition is not None:
+        fractions = case.composition.fractions()
+        raw_total = sum(float(np.asarray(getattr(case.composition, k))) for k in fractions)
+        rescaled = abs(raw_total - 1.0) > _SUM_WARNING
+        start_mass = fractions["water"] * mass
+        per_mass = water_along
+        extra = companions + mass * solids_specific_heat(fractions, interval.nodes)
+        hand_released_per_mass = float(h_l[-1] - h_l[0])
+        hand_extra = float(interval.integral(extra))
+    else:
+        specific = _value(case.specific_heat, "specific_heat")
+        assert specific is not None
+        if not 0.0 < specific <= 1e4:
+            raise OutOfRangeError(
+                "specific_heat", specific, 0.0, 1e4, "J/(kg K)", "must be positive", index
+            )
+        start_mass = mass
+        per_mass = np.full_like(h_l, specific)
+        extra = np.full_like(h_l, companions)
+        hand_released_per_mass = specific * (upper - lower)
+        hand_extra = companions * (upper - lower)
+
+    def integrate(kappa: float) -> tuple[FloatArray, FloatArray]:
+        denominator = h_v - kappa - h_l
+        if np.any(denominator <= 0.0):
+            raise UnsupportedStateError(
+                "heat_gain", "the heat gained per kilogram evaporated reaches the latent heat"
+            )
+        a = per_mass / denominator
+        b = extra / denominator
+        exponent = interval.integral_from_lower(a)
+        exponent = exponent - exponent[-1]
+        source = interval.integral_from_lower(b * np.exp(-exponent))
+        source = source - source[-1]
+        current = np.exp(exponent) * (start_mass + source)
+        if np.any(current <= 0.0):
+            raise UnsupportedStateError(
+                "product_mass", "all the product's water would evaporate before the end"
+            )
+        return current, a * current + b
+
+    kappa = solve_heat_per_evaporated_mass(
+        gain, lambda k: start_mass - float(integrate(k)[0][0]), _KAPPA_UPPER_BOUND, start_mass
+    )
+    current, rate = integrate(kappa)
+    evaporated = start_mass - float(current[0])
+    heat_removed = float(interval.integral((h_v - h_l) * rate))
+    sensible = float(interval.integral(current * per_mass + extra))
+    # independent check: latent heat with the rate from differentiating the solution
+    residual = (
+        sensible
+        + kappa * evaporated
+        - float(interval.integral((h_v - h_l) * interval.derivative(current)))
+    )
+    vapor_enthalpy = float(interval.integral(h_v * rate))
+    vapor_volume = float(interval.integral(rate / states.vapor.density[nodes]))
+
+    mean_vapor = float(states.vapor.specific_enthalpy[-1])
+    hand_kappa = solve_heat_per_evaporated_mass(
+        gain,
+        lambda k: (
+            (start_mass * hand_released_per_mass + hand_extra) / (mean_vapor - k - float(h_l[0]))
+        ),
+        float(mean_vapor - h_l[0]) * 0.999,
+        start_mass,
+    )
+    hand = (start_mass * hand_released_per_mass + hand_extra) / (
+        mean_vapor - hand_kappa - float(h_l[0])
+    )
+
+    # free water cooled over the same interval: fraction f of itself evaporates
+    free_exponent = interval.integral(water_along / (h_v - kappa - h_l))
+    free_fraction = -float(np.expm1(-free_exponent))
+    prewetting = evaporated / (1.0 - free_fraction)
+
+    condenser_load = None
+    trap = _value(case.trap_temperature, "trap_temperature")
+    if trap is not None:
+        if not limits["trap_temperature_min"] <= trap <= TRIPLE_POINT_TEMPERATURE:
+            raise OutOfRangeError(
+                "trap_temperature",
+                trap,
+                limits["trap_temperature_min"],
+                TRIPLE_POINT_TEMPERATURE,
+                "K",
+                "the trap collects the vapor as ice",
+                index,
+            )
+        trap_ice = ice_vapor_states(np.array([trap])).condensed.specific_enthalpy[0]
+        condenser_load = vapor_enthalpy - evaporated * float(trap_ice)
+    time = _value(case.cooling_time, "cooling_time")
+    if time is not None and time <= 0.0:
+        raise OutOfRangeError("cooling_time", time, 0.0, None, "s", "must be positive", index)
+    return _Numbers(
+        evaporated=evaporated,
+        hand_evaporated=hand,
+        prewetting=prewetting,
+        start_pressure=float(pressure[-1]),
+        final_pressure=float(pressure[0]),
+        heat_removed=heat_removed,
+        sensible=sensible,
+        heat_gained=kappa * evaporated,
+        vapor_enthalpy=vapor_enthalpy,
+        vapor_volume=vapor_volume,
+        condenser_load=condenser_load,
+        mass_flow=None if time is None else evaporated / time,
+        volume_flow=None if time is None else vapor_volume / time,
+        freezing_point=freezing,
+        residual=residual,
+        freezing_point_given=given,
+        composition_rescaled=rescaled,
+    )
+
+
+def _assumptions(case: EvaporativeCoolingCase) -> tuple[str, ...]:
+    items = [
+        "Vapor is removed as it forms; the product and its water are in equilibrium with the "
+        "vapor at every instant, at one uniform temperature.",
+        HEAT_GAIN_ASSUMPTION
+        if case.heat_gain is not None
+        else "Adiabatic: no heat exchange with the surroundings.",
+        "The evaporating water is liquid water with IAPWS-95 properties at its saturation "
+        "pressure (water activity 1 for the vapor pressure and the pressures reported).",
+        "Flashing starts when the chamber reaches the saturation pressure at the initial "
+        "temperature; the final set point is the saturation pressure at the final temperature.",
+        "evaporated_fraction = evaporated mass / initial product mass.",
+        "Pre-wetting water: free water added at the initial temperature that stays on the "
+        "product, cools with it and evaporates; each kilogram evaporates a fraction f of "
+        "itself to cool itself, so the water to add is m_evaporated / (1 - f), heat gain per "
+        "kilogram evaporated unchanged.",
+        "Vapor volume: integral of dm / rho_vapor at the saturation states.",
+        "Hand method: one vapor enthalpy at the mean temperature, product heat capacity at its "
+        "initial mass.",
+        f"Integration: Chebyshev-Lobatto collocation on {DEGREE + 1} nodes.",
+    ]
+    if case.composition is not None:
+        items.append(
+            "Composition model: water as IAPWS-95 liquid; the other components with the "
+            f"specific heats of {CHOI_OKOS_REFERENCE}, mass-weighted."
+        )
+    else:
+        items.append(
+            "Lumped model: the product's sensible heat is its current mass times the given "
+            "specific heat; each kilogram evaporated takes h_vapor - h_liquid (IAPWS-95)."
+        )
+    if case.companions:
+        items.append("Companion masses have constant specific heats and follow the product.")
+    if case.trap_temperature is not None:
+        items.append(
+            "Condenser load: enthalpy removed to take the vapor to ice at the trap temperature; "
+            "transit heat and trap losses excluded."
+        )
+    return tuple(items)
+
+
+def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResult:
+    """Evaporative (vacuum) cooling of a moist product from one temperature to another.
+
+    Parameters
+    ----------
+    case : EvaporativeCoolingCase
+        Any numeric field may be an array (a sweep).
+
+    Returns
+    -------
+    EvaporativeCoolingResult
+        Arrays of the sweep shape.
+
+    Raises
+    ------
+    InvalidInputError
+        Malformed input, or both / neither of specific_heat and composition.
+    OutOfRangeError
+        A final temperature at or above the initial one, or another input out of range.
+    UnsupportedStateError
+        A final temperature below the product's freezing point (use the flash-freeze
+        calculation), or a heat gain that would evaporate all the water.
+
+    Notes
+    -----
+    Lumped: (M c + C) dT = (h_v - h_l) dM; composition: (m_w T ds_l/dT + M_s c_s + C) dT =
+    (h_v - h_l) dm_w; see the module docstring.
+
+    References
+    ----------
+    IAPWS R6-95(2018); Choi and Okos (1986) for the component specific heats.
+
+    Examples
+    --------
+    >>> result = evaporative_cooling(EvaporativeCoolingCase(
+    ...     product_mass=1.0, initial_temperature=298.15, final_temperature=275.15,
+    ...     specific_heat=4000.0))
+    >>> round(float(result.evaporated_fraction), 4)
+    0.0366
+    """
+    shape, cases = expand_case(case)
+    batch = len(shape) > 0
+    numbers = [_solve_scalar(c, i if batch else None) for i, c in enumerate(cases)]
+
+    def stack(function: Callable[[_Numbers], float]) -> FloatArray:
+        return np.asarray([function(n) for n in numbers], dtype=np.float64).reshape(shape)
+
+    masses = np.asarray(
+        [float(np.asarray(c.product_mass)) for c in cases], dtype=np.float64
+    ).reshape(shape)
+    evaporated = stack(lambda n: n.evaporated)
+    hand = stack(lambda n: n.hand_evaporated)
+    residual = stack(lambda n: n.residual)
+    heat_removed = stack(lambda n: n.heat_removed)
+    warnings: list[Advisory] = []
+
+    def flag(mask: list[bool], code: str, message: str) -> None:
+        flags = np.asarray(mask)
+        if flags.any():
+            indices = (
+                tuple(int(i) for i in np.flatnonzero(flags)) if batch and not flags.all() else None
+            )
+            warnings.append(Advisory(code, message, indices))
+
+    flag(
+        [not n.freezing_point_given for n in numbers],
+        "freezing-point-assumed",
+        "No product freezing point given: pure water's 273.16 K was used for the range check; "
+        "real products freeze lower (often -0.5 to -2 degC).",
+    )
+    flag(
+        [n.composition_rescaled for n in numbers],
+        "composition-rescaled",
+        "The composition's mass fractions did not sum to 1 and were rescaled.",
+    )
+    return EvaporativeCoolingResult(
+        evaporated_mass=evaporated,
+        evaporated_fraction=evaporated / masses,
+        mean_vapor_enthalpy_evaporated_mass=hand,
+        relative_difference=(hand - evaporated) / evaporated,
+        prewetting_water_mass=stack(lambda n: n.prewetting),
+        start_pressure=stack(lambda n: n.start_pressure),
+        final_pressure=stack(lambda n: n.final_pressure),
+        heat_removed=heat_removed,
+        sensible_heat_released=stack(lambda n: n.sensible),
+        heat_gained=stack(lambda n: n.heat_gained),
+        vapor_enthalpy=stack(lambda n: n.vapor_enthalpy),
+        vapor_volume=stack(lambda n: n.vapor_volume),
+        condenser_load=(
+            stack(lambda n: float(n.condenser_load or 0.0))
+            if case.trap_temperature is not None
+            else None
+        ),
+        mean_vapor_mass_flow=(
+            stack(lambda n: float(n.mass_flow or 0.0)) if case.cooling_time is not None else None
+        ),
+        mean_vapor_volume_flow=(
+            stack(lambda n: float(n.volume_flow or 0.0)) if case.cooling_time is not None else None
+        ),
+        energy_residual=residual,
+        relative_energy_residual=residual / heat_removed,
+        freezing_point=stack(lambda n: n.freezing_point),
+        assumptions=_assumptions(case),
+        warnings=tuple(warnings),
+        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
+    )

@@ -1,0 +1,130 @@
+"""Dissolved solute: ideal (Raoult) solution with an effective molar mass.
+
+The water activity of a solution of ``m_w`` kg water and ``m_s`` kg solute is
+its water mole fraction, counting each dissolved formula unit as ``i`` particles
+(van 't Hoff factor):
+
+    a_w = n_w / (n_w + i n_s),   n_w = m_w / M_w,   n_s = m_s / M_s.
+
+With ice present the activity is fixed by temperature (see
+:mod:`service.core.balances.equilibrium_paths`), so the unfrozen water is
+
+    m_w,liquid(T) = m_s (M_w / M_s) i a_w(T) / (1 - a_w(T)),
+
+and the solution freezes progressively, its ice fraction rising as the solute
+concentrates. For foods, M_s is the "effective molar mass" of the soluble solids
+fitted to the measured initial freezing point (Heldman's approach).
+
+The solution is ideal: no heat of mixing, water in solution has the properties of
+pure liquid water, the solute adds only its sensible heat m_s c_s dT. The model
+is reliable for dilute solutions (a_w above about 0.9); the balances warn beyond.
+
+References
+----------
+Raoult's law and the ideal-solution chemical potential: Atkins, P. and de Paula,
+J., *Physical Chemistry*, 9th ed., Oxford (2010), Secs. 5.3-5.5 (from memory).
+Heldman, D. R. (1974), "Predicting the relationship between unfrozen water
+fraction and temperature during food freezing using freezing point depression",
+Transactions of the ASAE 17(1), 63-66 (from memory).
+Molar masses from the IUPAC standard atomic weights (CIAAW 2021).
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, replace
+from typing import Final
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from service.core.constants import MOLAR_MASS
+from service.core.errors import InvalidInputError
+
+__all__ = [
+    "NAMED_SOLUTES",
+    "SOLUTE_MODEL_REFERENCE",
+    "Solute",
+    "liquid_water_mass_at_activity",
+    "named_solute",
+    "water_activity",
+]
+
+SOLUTE_MODEL_REFERENCE: Final = (
+    "Ideal (Raoult) solution with an effective molar mass and van 't Hoff factor "
+    "(Heldman 1974, Trans. ASAE 17(1):63-66); ice-solution equilibrium from IAPWS-95 and "
+    "R10-06 Gibbs energies"
+)
+
+
+@dataclass(frozen=True)
+class Solute:
+    """A dissolved solute in the load's water.
+
+    Attributes
+    ----------
+    mass_fraction : array_like
+        Solute mass / (water + solute mass) of the initial load, 0 < w <= 0.5.
+    molar_mass : array_like
+        Effective molar mass, kg/mol, > 0.
+    van_t_hoff_factor : array_like
+        Particles per dissolved formula unit, >= 1 (1 for sugars, about 2 for NaCl).
+    specific_heat : array_like
+        J/(kg K), >= 0, constant; the solute's sensible-heat contribution.
+    name : str
+        Label for reports.
+    """
+
+    mass_fraction: ArrayLike
+    molar_mass: ArrayLike
+    van_t_hoff_factor: ArrayLike = 1.0
+    specific_heat: ArrayLike = 1250.0
+    name: str = "solute"
+
+
+NAMED_SOLUTES: Final[dict[str, Solute]] = {
+    # specific heats of the crystalline solids near 25 degC, from memory (CRC Handbook of
+    # Chemistry and Physics); molar masses from IUPAC atomic weights.
+    "sucrose": Solute(0.0, 0.342297, 1.0, 1244.0, "sucrose"),
+    "glucose": Solute(0.0, 0.180156, 1.0, 1219.0, "glucose"),
+    "sodium chloride": Solute(0.0, 0.058443, 2.0, 864.0, "sodium chloride"),
+}
+"""Named solutes; NaCl with i = 2 ignores its osmotic coefficient (about 0.93), an ideal-solution
+simplification."""
+
+
+def named_solute(name: str, mass_fraction: ArrayLike) -> Solute:
+    """A solute from :data:`NAMED_SOLUTES` at the given mass fraction.
+
+    Raises
+    ------
+    InvalidInputError
+        If the name is unknown.
+    """
+    try:
+        entry = NAMED_SOLUTES[name]
+    except KeyError as error:
+        known = ", ".join(sorted(NAMED_SOLUTES))
+        raise InvalidInputError(
+            "solute", f"unknown solute {name!r}; known: {known}", name
+        ) from error
+    return replace(entry, mass_fraction=mass_fraction)
+
+
+def water_activity(
+    water_mass: ArrayLike, solute_mass: float, molar_mass: float, van_t_hoff_factor: float
+) -> np.ndarray:
+    """Raoult water activity a_w = n_w / (n_w + i n_s), dimensionless."""
+    water_moles = np.asarray(water_mass, dtype=np.float64) / MOLAR_MASS
+    solute_particles = van_t_hoff_factor * solute_mass / molar_mass
+    return np.asarray(water_moles / (water_moles + solute_particles), dtype=np.float64)
+
+
+def liquid_water_mass_at_activity(
+    log_activity: ArrayLike, solute_mass: float, molar_mass: float, van_t_hoff_factor: float
+) -> np.ndarray:
+    """Water mass, kg, of the solution whose activity is exp(log_activity) < 1."""
+    log_a = np.asarray(log_activity, dtype=np.float64)
+    ratio = np.exp(log_a) / -np.expm1(log_a)
+    return np.asarray(
+        solute_mass * van_t_hoff_factor * MOLAR_MASS / molar_mass * ratio, dtype=np.float64
+    )
