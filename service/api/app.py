@@ -1,0 +1,194 @@
+"""Application factory: ``create_app(settings)`` wires routers, errors, limits and operations."""
+
+from __future__ import annotations
+
+import asyncio
+import contextlib
+import logging
+from collections.abc import AsyncIterator, Sequence
+from typing import Any
+
+import anyio.to_thread
+from fastapi import FastAPI
+from fastapi.openapi.utils import get_openapi
+from starlette.middleware.cors import CORSMiddleware
+
+from service import __version__
+from service.api.csv_io import CsvAdapter, CsvRoute, document_csv
+from service.api.docs_assets import install_offline_docs
+from service.api.examples import add_examples_to_openapi, default_examples_folder, load_examples
+from service.api.limits import BodySizeLimit, ComputationTimeLimit, document_time_limit
+from service.api.observability import Metrics, RequestObservation
+from service.api.problems import install_problem_handlers
+from service.api.recording import RecordKeeper
+from service.api.responses import FastJSONResponse
+from service.api.routers import (
+    balances,
+    calculations,
+    health,
+    operations,
+    properties,
+    simulations,
+)
+from service.api.security import ApiKeyGuard, document_security
+from service.records import RecordStore, StoreUnavailableError
+from service.settings import Settings, get_settings
+
+__all__ = ["CSV_ROUTES", "create_app"]
+
+_log = logging.getLogger("tripoint.app")
+
+CSV_ROUTES = (
+    CsvRoute("/v1/properties/"),
+    CsvRoute("/v1/balances/", one_call_per_row=True),
+    CsvRoute("/v1/simulations/", one_call_per_row=True),
+)
+"""Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
+
+_DESCRIPTION = """
+Water, ice and vapor phase-change energy calculations for vacuum cooling,
+flash-freezing and sublimation, on IAPWS formulations.
+
+Every dimensional input takes a number in its default SI unit (K, Pa, kg, J, s), a
+string with a unit (`"25 degC"`, `"2 kPa"`), `{"value": x, "unit": "..."}` or, for a
+batch, `{"values": [...], "unit": "..."}`. All pressures are absolute. Results come as
+`{"value"|"values": ..., "unit": ...}` in the unit set chosen by `output_units`.
+Errors are RFC 9457 `application/problem+json` documents naming the field, the
+value and the valid range.
+
+Property lookups also take `text/csv` bodies (one case per row, units in the header:
+`temperature[degC]`) and answer in CSV for `Accept: text/csv`. When the service has API
+keys, every `/v1` route needs `Authorization: Bearer <key>`.
+"""
+
+
+@contextlib.asynccontextmanager
+async def _lifespan(app: FastAPI) -> AsyncIterator[None]:
+    settings: Settings = app.state.settings
+    keeper: RecordKeeper = app.state.records
+    if settings.api_keys:
+        _log.info(
+            "API keys on: /v1 routes need 'Authorization: Bearer <key>'",
+            extra={"fields": {"keys": len(settings.api_keys)}},
+        )
+    else:
+        _log.warning(
+            "API keys off: every /v1 route is open (set TRIPOINT_API_KEYS to require keys)"
+        )
+    _log.info(
+        "calculation records",
+        extra={
+            "fields": {
+                "database": keeper.store.display_url,
+                "retention_days": settings.retention_days,
+                "store_failure_policy": settings.store_failure_policy,
+            }
+        },
+    )
+    try:
+        await anyio.to_thread.run_sync(keeper.store.ensure_schema)
+    except StoreUnavailableError as error:
+        # Keep serving: /ready answers 503 and each answer says it was not stored.
+        _log.error("record store not ready at startup", extra={"fields": {"reason": str(error)}})
+    else:
+        await keeper.prune_logged()  # expired records are gone before the first request
+    pruning = asyncio.create_task(keeper.keep_pruning())
+    try:
+        yield
+    finally:
+        pruning.cancel()
+        with contextlib.suppress(asyncio.CancelledError):
+            await pruning
+        pending: set[asyncio.Task[Any]] = app.state.pending_computations
+        if pending:
+            await asyncio.wait(set(pending), timeout=30)
+        keeper.store.close()
+
+
+def create_app(
+    settings: Settings | None = None,
+    *,
+    store: RecordStore | None = None,
+    csv_routes: Sequence[CsvRoute] = CSV_ROUTES,
+) -> FastAPI:
+    """Build the ASGI application.
+
+    Parameters
+    ----------
+    settings
+        Settings to run with; ``None`` reads ``TRIPOINT_*`` environment variables.
+    store
+        Calculation-record store; ``None`` opens ``settings.database_url``.
+    csv_routes
+        Routes that speak CSV (tests add their own).
+    """
+    settings = settings or get_settings()
+    app = FastAPI(
+        title="tripoint",
+        version=__version__,
+        description=_DESCRIPTION,
+        default_response_class=FastJSONResponse,
+        docs_url=None,
+        redoc_url=None,
+        lifespan=_lifespan,
+    )
+    metrics = Metrics()
+    app.state.settings = settings
+    app.state.metrics = metrics
+    app.state.pending_computations = set()
+    app.state.records = RecordKeeper(
+        store or RecordStore(settings.database_url),
+        policy=settings.store_failure_policy,
+        retention_days=settings.retention_days,
+        metrics=metrics,
+    )
+    install_problem_handlers(app)
+    install_offline_docs(app)
+    app.include_router(health.router)
+    app.include_router(operations.router)
+    app.include_router(properties.router)
+    app.include_router(balances.router)
+    app.include_router(simulations.router)
+    app.include_router(calculations.router)
+
+    # Added inner to outer: the last one added sees the request first.
+    app.add_middleware(CsvAdapter, routes=csv_routes, max_rows=settings.max_batch_points)
+    app.add_middleware(
+        ComputationTimeLimit,
+        seconds=settings.max_request_seconds,
+        pending=app.state.pending_computations,
+    )
+    app.add_middleware(BodySizeLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(ApiKeyGuard, keys=[key.get_secret_value() for key in settings.api_keys])
+    if settings.cors_origins:
+        app.add_middleware(
+            CORSMiddleware,
+            allow_origins=settings.cors_origins,
+            allow_methods=["GET", "POST"],
+            allow_headers=["Authorization", "Content-Type", "Accept", "X-Request-ID"],
+            expose_headers=["X-Request-ID"],
+            allow_credentials=False,
+            max_age=600,
+        )
+    app.add_middleware(RequestObservation, metrics=metrics)
+
+    examples = load_examples(default_examples_folder())
+
+    def openapi() -> dict[str, Any]:
+        if app.openapi_schema is None:
+            schema = get_openapi(
+                title=app.title,
+                version=app.version,
+                description=app.description,
+                routes=app.routes,
+            )
+            add_examples_to_openapi(schema, examples)
+            document_csv(schema, csv_routes)
+            document_time_limit(schema, settings.max_request_seconds)
+            if settings.api_keys:
+                document_security(schema)
+            app.openapi_schema = schema
+        return app.openapi_schema
+
+    app.openapi = openapi  # type: ignore[method-assign]
+    return app

@@ -1,0 +1,183 @@
+"""Request limits enforced around the routes: body size (413) and computation time (503).
+
+The batch-point limit (413) lives with the routes that count points.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import logging
+from typing import Any
+
+from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+from service.api.problem_asgi import send_problem
+from service.api.problems import FieldError
+from service.api.security import is_protected
+
+__all__ = ["BodySizeLimit", "ComputationTimeLimit", "document_time_limit"]
+
+_log = logging.getLogger("tripoint.limits")
+
+
+class BodySizeLimit:
+    """Answer 413 (problem+json) when a request body exceeds ``max_bytes``.
+
+    A declared ``Content-Length`` above the limit is refused before reading; the server
+    holds a client to the length it declared. A body without one (chunked) is read here,
+    up to the limit, before the route sees it, so it cannot slip past.
+    """
+
+    def __init__(self, app: ASGIApp, max_bytes: int) -> None:
+        self.app = app
+        self.max_bytes = max_bytes
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http":
+            await self.app(scope, receive, send)
+            return
+        declared: int | None = None
+        for name, value in scope.get("headers", []):
+            if name == b"content-length" and value.isdigit():
+                declared = int(value)
+        if declared is not None:
+            if declared > self.max_bytes:
+                await self._refuse(scope, send, declared)
+                return
+            await self.app(scope, receive, send)
+            return
+        if scope.get("method") in ("GET", "HEAD", "OPTIONS", "DELETE"):
+            await self.app(scope, receive, send)
+            return
+        body = bytearray()
+        while True:
+            message = await receive()
+            if message["type"] == "http.disconnect":
+                return
+            body += message.get("body", b"")
+            if len(body) > self.max_bytes:
+                await self._refuse(scope, send, len(body))
+                return
+            if not message.get("more_body", False):
+                break
+        replayed = False
+
+        async def replay() -> Message:
+            nonlocal replayed
+            if replayed:
+                return await receive()
+            replayed = True
+            return {"type": "http.request", "body": bytes(body), "more_body": False}
+
+        await self.app(scope, replay, send)
+
+    async def _refuse(self, scope: Scope, send: Send, size: int) -> None:
+        await send_problem(
+            scope,
+            send,
+            status=413,
+            slug="body-too-large",
+            title="Request body too large",
+            detail=(
+                f"The request body ({size} bytes or more) exceeds the limit of "
+                f"{self.max_bytes} bytes (setting TRIPOINT_MAX_BODY_BYTES)."
+            ),
+            errors=[
+                FieldError(
+                    field="body",
+                    message="too large",
+                    value=size,
+                    unit="byte",
+                    maximum=self.max_bytes,
+                )
+            ],
+        )
+
+
+class ComputationTimeLimit:
+    """Answer 503 (problem+json) when a ``/v1`` request runs longer than ``seconds``.
+
+    The route runs as its own task; when the time is up before the response has started,
+    the client gets the 503 at once and whatever the route sends later is dropped. A
+    computation already running in a worker thread cannot be stopped from outside: it runs
+    to its end and its result is discarded. ``pending`` holds such abandoned tasks so that
+    shutdown can wait for them.
+    """
+
+    def __init__(self, app: ASGIApp, seconds: float, pending: set[asyncio.Task[Any]]) -> None:
+        self.app = app
+        self.seconds = seconds
+        self.pending = pending
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http" or not is_protected(scope["path"]):
+            await self.app(scope, receive, send)
+            return
+        response_started = False
+        abandoned = False
+
+        async def guarded_send(message: Message) -> None:
+            nonlocal response_started
+            if abandoned:
+                return
+            if message["type"] == "http.response.start":
+                response_started = True
+            await send(message)
+
+        task = asyncio.ensure_future(self.app(scope, receive, guarded_send))
+        done, _ = await asyncio.wait({task}, timeout=self.seconds)
+        if done or response_started:
+            # Finished, or already streaming its answer: let it complete.
+            await task
+            return
+        abandoned = True
+        self.pending.add(task)
+        task.add_done_callback(self._forget)
+        _log.warning(
+            "computation time limit reached",
+            extra={"fields": {"path": scope["path"], "limit_seconds": self.seconds}},
+        )
+        await send_problem(
+            scope,
+            send,
+            status=503,
+            slug="time-limit",
+            title="Computation took too long",
+            detail=(
+                f"The computation did not finish within {self.seconds:g} s (setting "
+                "TRIPOINT_MAX_REQUEST_SECONDS). Ask for fewer points, or retry later."
+            ),
+            headers={"Retry-After": "1"},
+        )
+
+    def _forget(self, task: asyncio.Task[Any]) -> None:
+        self.pending.discard(task)
+        if not task.cancelled() and task.exception() is not None:
+            _log.error(
+                "abandoned computation failed",
+                exc_info=task.exception(),
+            )
+
+
+def document_time_limit(schema: dict[str, Any], seconds: float) -> None:
+    """Declare the 503 answer on every ``/v1`` operation."""
+    for path, operations in schema.get("paths", {}).items():
+        if not is_protected(path):
+            continue
+        for operation in operations.values():
+            responses = operation.setdefault("responses", {})
+            responses.setdefault(
+                "503",
+                {
+                    "description": (
+                        f"Computation longer than {seconds:g} s (TRIPOINT_MAX_REQUEST_SECONDS), "
+                        "or the calculation record could not be stored "
+                        "(TRIPOINT_STORE_FAILURE_POLICY=fail)."
+                    ),
+                    "content": {
+                        "application/problem+json": {
+                            "schema": {"$ref": "#/components/schemas/Problem"}
+                        }
+                    },
+                },
+            )

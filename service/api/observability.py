@@ -1,0 +1,242 @@
+"""Request ids, one JSON log line per request, and Prometheus metrics.
+
+- ``X-Request-ID``: a sane incoming value is kept, otherwise one is made; either way it is
+  echoed on the response and put on every log line written while the request runs.
+- Logs: one JSON object per line. The access line has the request id, method, route
+  template, path, status, duration and API key id; never a header (so never a key), a
+  query string or a body.
+- Metrics (prometheus-client): requests and errors by route template, method and status; a
+  latency histogram per route; calculations by kind and outcome. With several worker
+  processes, set ``PROMETHEUS_MULTIPROC_DIR`` (``python -m service`` does it for you) and
+  ``/metrics`` adds up every worker's numbers.
+"""
+
+from __future__ import annotations
+
+import contextvars
+import logging
+import os
+import re
+import time
+import traceback
+import uuid
+from datetime import UTC, datetime
+from typing import Any
+
+import orjson
+from prometheus_client import (
+    CONTENT_TYPE_LATEST,
+    CollectorRegistry,
+    Counter,
+    Histogram,
+    disable_created_metrics,
+)
+from prometheus_client import generate_latest as _generate_latest
+from prometheus_client.multiprocess import MultiProcessCollector
+from starlette.datastructures import MutableHeaders
+from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+__all__ = [
+    "MULTIPROCESS_ENVIRONMENT_VARIABLE",
+    "JsonFormatter",
+    "Metrics",
+    "RequestObservation",
+    "current_request_id",
+    "logging_config",
+    "route_template",
+]
+
+MULTIPROCESS_ENVIRONMENT_VARIABLE = "PROMETHEUS_MULTIPROC_DIR"
+_REQUEST_ID_HEADER = b"x-request-id"
+_SANE_REQUEST_ID = re.compile(r"^[A-Za-z0-9._:+/=-]{1,128}$")
+_UNMATCHED = "unrouted"
+_LATENCY_BUCKETS = (0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1.0, 2.5, 5.0, 10.0, 30.0, 60.0)
+
+_request_id: contextvars.ContextVar[str | None] = contextvars.ContextVar(
+    "tripoint_request_id", default=None
+)
+_access_log = logging.getLogger("tripoint.access")
+
+
+def current_request_id() -> str | None:
+    """The id of the request being served in this context, if any."""
+    return _request_id.get()
+
+
+class JsonFormatter(logging.Formatter):
+    """One JSON object per line: time, level, logger, message, request id, extra fields.
+
+    Extra fields come from ``extra={"fields": {...}}``.
+    """
+
+    def format(self, record: logging.LogRecord) -> str:
+        entry: dict[str, Any] = {
+            "time": datetime.fromtimestamp(record.created, UTC)
+            .isoformat(timespec="milliseconds")
+            .replace("+00:00", "Z"),
+            "level": record.levelname.lower(),
+            "logger": record.name,
+            "process": record.process,
+            "message": record.getMessage(),
+        }
+        request_id = _request_id.get()
+        if request_id is not None:
+            entry["request_id"] = request_id
+        fields = getattr(record, "fields", None)
+        if isinstance(fields, dict):
+            entry.update(fields)
+        if record.exc_info and record.exc_info[0] is not None:
+            entry["exception"] = "".join(traceback.format_exception(*record.exc_info)).strip()
+        return orjson.dumps(entry, default=str).decode()
+
+
+def logging_config(level: str) -> dict[str, Any]:
+    """A ``logging.config.dictConfig`` document: everything as JSON lines on stderr.
+
+    uvicorn's own access log is switched off; :class:`RequestObservation` writes one line
+    per request instead.
+    """
+    upper = level.upper()
+    return {
+        "version": 1,
+        "disable_existing_loggers": False,
+        "formatters": {"json": {"()": f"{__name__}.JsonFormatter"}},
+        "handlers": {
+            "stderr": {
+                "class": "logging.StreamHandler",
+                "formatter": "json",
+                "stream": "ext://sys.stderr",
+            }
+        },
+        "loggers": {
+            "tripoint": {"handlers": ["stderr"], "level": upper, "propagate": False},
+            "uvicorn": {"handlers": ["stderr"], "level": upper, "propagate": False},
+            "uvicorn.error": {"level": upper},
+            "uvicorn.access": {"handlers": [], "level": "WARNING", "propagate": False},
+        },
+        "root": {"handlers": ["stderr"], "level": "WARNING"},
+    }
+
+
+def route_template(scope: Scope) -> str:
+    """The path template of the route that served the request (``/v1/calculations/{...}``).
+
+    Requests answered before routing (no such path, a 401 for a missing key, a 413 for a
+    body too large) share the label ``unrouted``, so scanning for URLs cannot blow up the
+    metrics.
+    """
+    route = scope.get("route")
+    path = getattr(route, "path", None)
+    return path if isinstance(path, str) and path else _UNMATCHED
+
+
+class Metrics:
+    """The service's Prometheus metrics, in a registry of their own (one per app)."""
+
+    def __init__(self) -> None:
+        disable_created_metrics()  # type: ignore[no-untyped-call]  # no *_created series
+        self.registry = CollectorRegistry()
+        self.requests = Counter(
+            "tripoint_http_requests",
+            "HTTP requests answered, by route template, method and status.",
+            ["route", "method", "status"],
+            registry=self.registry,
+        )
+        self.errors = Counter(
+            "tripoint_http_errors",
+            "HTTP answers with a 4xx or 5xx status, by route template, method and status.",
+            ["route", "method", "status"],
+            registry=self.registry,
+        )
+        self.latency = Histogram(
+            "tripoint_http_request_duration_seconds",
+            "Time from request to the end of the answer, by route template and method.",
+            ["route", "method"],
+            buckets=_LATENCY_BUCKETS,
+            registry=self.registry,
+        )
+        self.calculations = Counter(
+            "tripoint_calculations",
+            "Calculations answered, by kind and whether their record was stored.",
+            ["kind", "outcome"],
+            registry=self.registry,
+        )
+
+    def observe_request(self, route: str, method: str, status: int, seconds: float) -> None:
+        """Count one answered request."""
+        self.requests.labels(route, method, str(status)).inc()
+        self.latency.labels(route, method).observe(seconds)
+        if status >= 400:
+            self.errors.labels(route, method, str(status)).inc()
+
+    def count_calculation(self, kind: str, *, stored: bool) -> None:
+        """Count one calculation and whether its record went into the store."""
+        self.calculations.labels(kind, "stored" if stored else "not_stored").inc()
+
+    def exposition(self) -> tuple[bytes, str]:
+        """The Prometheus text and its media type; every worker's numbers when multiprocess."""
+        directory = os.environ.get(MULTIPROCESS_ENVIRONMENT_VARIABLE)
+        if directory:
+            registry = CollectorRegistry()
+            MultiProcessCollector(registry, path=directory)  # type: ignore[no-untyped-call]
+            return _generate_latest(registry), CONTENT_TYPE_LATEST
+        return _generate_latest(self.registry), CONTENT_TYPE_LATEST
+
+
+def _incoming_request_id(scope: Scope) -> str | None:
+    for name, value in scope.get("headers", []):
+        if name == _REQUEST_ID_HEADER:
+            text = value.decode("latin-1").strip()
+            return text if _SANE_REQUEST_ID.match(text) else None
+    return None
+
+
+class RequestObservation:
+    """Outermost middleware: request id, access log line, request metrics."""
+
+    def __init__(self, app: ASGIApp, metrics: Metrics) -> None:
+        self.app = app
+        self.metrics = metrics
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        if scope["type"] != "http":
+            await self.app(scope, receive, send)
+            return
+        request_id = _incoming_request_id(scope) or uuid.uuid4().hex
+        scope.setdefault("state", {})["request_id"] = request_id
+        token = _request_id.set(request_id)
+        started = time.perf_counter()
+        status = 500
+
+        async def send_with_id(message: Message) -> None:
+            nonlocal status
+            if message["type"] == "http.response.start":
+                status = int(message["status"])
+                MutableHeaders(scope=message)["X-Request-ID"] = request_id
+            await send(message)
+
+        try:
+            await self.app(scope, receive, send_with_id)
+        except BaseException:
+            status = 500
+            raise
+        finally:
+            seconds = time.perf_counter() - started
+            route = route_template(scope)
+            method = str(scope.get("method", ""))
+            self.metrics.observe_request(route, method, status, seconds)
+            _access_log.info(
+                "request",
+                extra={
+                    "fields": {
+                        "request_id": request_id,
+                        "method": method,
+                        "route": route,
+                        "path": scope.get("path"),
+                        "status": status,
+                        "duration_ms": round(seconds * 1000.0, 3),
+                        "key_id": scope.get("state", {}).get("api_key_id"),
+                    }
+                },
+            )
+            _request_id.reset(token)

@@ -1,0 +1,44 @@
+"""Send a problem document straight from ASGI middleware (before routing)."""
+
+from __future__ import annotations
+
+import orjson
+from starlette.types import Scope, Send
+
+from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError, Problem
+
+__all__ = ["send_problem"]
+
+_TYPE_PREFIX = "urn:tripoint:problem:"
+
+
+async def send_problem(
+    scope: Scope,
+    send: Send,
+    *,
+    status: int,
+    slug: str,
+    title: str,
+    detail: str,
+    errors: list[FieldError] | None = None,
+    headers: dict[str, str] | None = None,
+) -> None:
+    """Answer with an RFC 9457 document shaped like the exception handlers' ones."""
+    problem = Problem(
+        type=_TYPE_PREFIX + slug,
+        title=title,
+        status=status,
+        detail=detail,
+        instance=scope.get("path"),
+        errors=errors or [],
+    )
+    body = orjson.dumps(problem.model_dump())
+    raw_headers = [
+        (b"content-type", PROBLEM_MEDIA_TYPE.encode()),
+        (b"content-length", str(len(body)).encode()),
+    ]
+    raw_headers += [
+        (name.lower().encode(), value.encode()) for name, value in (headers or {}).items()
+    ]
+    await send({"type": "http.response.start", "status": status, "headers": raw_headers})
+    await send({"type": "http.response.body", "body": body})

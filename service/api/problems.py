@@ -1,0 +1,224 @@
+"""RFC 9457 problem documents and the one place errors become HTTP responses."""
+
+from __future__ import annotations
+
+import logging
+import math
+from typing import Any
+
+from fastapi import FastAPI, Request
+from fastapi.exceptions import RequestValidationError
+from pydantic import BaseModel, Field
+from starlette.exceptions import HTTPException as StarletteHTTPException
+
+from service.api.responses import FastJSONResponse
+from service.core.errors import (
+    InvalidInputError,
+    NotConvergedError,
+    OutOfRangeError,
+    UnsupportedStateError,
+)
+
+__all__ = [
+    "PROBLEM_MEDIA_TYPE",
+    "FieldError",
+    "Problem",
+    "ProblemError",
+    "install_problem_handlers",
+    "problem_responses",
+]
+
+PROBLEM_MEDIA_TYPE = "application/problem+json"
+_TYPE_PREFIX = "urn:tripoint:problem:"
+_log = logging.getLogger("tripoint.problems")
+
+
+class FieldError(BaseModel):
+    """One offending input."""
+
+    field: str = Field(description="Input that is wrong, as a dotted path (e.g. `temperature`).")
+    message: str = Field(description="What is wrong with it.")
+    value: Any = Field(None, description="The value received (as sent, or in `unit`).")
+    unit: str | None = Field(None, description="Unit of `value`, `minimum` and `maximum`.")
+    minimum: float | None = Field(None, description="Lowest valid value, in `unit`.")
+    maximum: float | None = Field(None, description="Highest valid value, in `unit`.")
+    index: int | None = Field(None, description="Position in a batch array, where relevant.")
+
+
+class Problem(BaseModel):
+    """An RFC 9457 problem document (`application/problem+json`)."""
+
+    type: str = Field(description="URI naming the kind of problem.")
+    title: str = Field(description="Short summary of the kind of problem.")
+    status: int = Field(description="HTTP status code.")
+    detail: str = Field(description="What went wrong in this request.")
+    instance: str | None = Field(None, description="Path of the request.")
+    errors: list[FieldError] = Field(default_factory=list, description="Offending inputs.")
+
+
+class ProblemError(Exception):
+    """Raised by the HTTP layer to answer with a problem document."""
+
+    def __init__(
+        self,
+        status: int,
+        slug: str,
+        title: str,
+        detail: str,
+        errors: list[FieldError] | None = None,
+        headers: dict[str, str] | None = None,
+    ) -> None:
+        super().__init__(detail)
+        self.status = status
+        self.slug = slug
+        self.title = title
+        self.detail = detail
+        self.errors = errors or []
+        self.headers = headers
+
+
+def problem_responses(*statuses: int) -> dict[int | str, dict[str, Any]]:
+    """OpenAPI ``responses=`` entries declaring the problem schema for ``statuses``."""
+    descriptions = {
+        400: "Malformed request.",
+        401: "Missing or wrong API key.",
+        404: "Not found.",
+        413: "Request too large (body or batch points).",
+        415: "Unsupported media type.",
+        422: "Invalid or out-of-range input; the problem names the field and the valid range.",
+        503: "Temporarily unavailable.",
+    }
+    return {
+        status: {
+            "model": Problem,
+            "description": descriptions.get(status, "Problem"),
+            "content": {PROBLEM_MEDIA_TYPE: {"schema": {"$ref": "#/components/schemas/Problem"}}},
+        }
+        for status in statuses
+    }
+
+
+def _finite_or_none(value: object) -> object:
+    if isinstance(value, float) and not math.isfinite(value):
+        return str(value)
+    return value
+
+
+def _render(
+    request: Request, problem: Problem, headers: dict[str, str] | None = None
+) -> FastJSONResponse:
+    problem.instance = request.url.path
+    body = problem.model_dump()
+    for error in body["errors"]:
+        error["value"] = _finite_or_none(error["value"])
+    return FastJSONResponse(
+        body, status_code=problem.status, media_type=PROBLEM_MEDIA_TYPE, headers=headers
+    )
+
+
+def _from_core(error: Exception) -> Problem:
+    if isinstance(error, OutOfRangeError):
+        return Problem(
+            type=_TYPE_PREFIX + "out-of-range",
+            title="Input outside the valid range",
+            status=422,
+            detail=str(error),
+            errors=[
+                FieldError(
+                    field=error.variable,
+                    message=str(error),
+                    value=error.value,
+                    unit=error.unit,
+                    minimum=error.minimum,
+                    maximum=error.maximum,
+                    index=error.index,
+                )
+            ],
+        )
+    if isinstance(error, InvalidInputError | UnsupportedStateError):
+        slug = "invalid-input" if isinstance(error, InvalidInputError) else "unsupported-state"
+        title = (
+            "Invalid input"
+            if isinstance(error, InvalidInputError)
+            else "State outside what tripoint models"
+        )
+        value = (
+            error.value if isinstance(error.value, str | int | float | None) else str(error.value)
+        )
+        return Problem(
+            type=_TYPE_PREFIX + slug,
+            title=title,
+            status=422,
+            detail=str(error),
+            errors=[FieldError(field=error.variable, message=error.detail, value=value)],
+        )
+    assert isinstance(error, NotConvergedError)
+    return Problem(
+        type=_TYPE_PREFIX + "not-converged",
+        title="Calculation did not converge",
+        status=422,
+        detail=f"{error}. The inputs are likely at the edge of the formulation's range.",
+    )
+
+
+def _location(loc: tuple[int | str, ...]) -> str:
+    parts = [str(part) for part in loc if part not in ("body", "query", "path")]
+    return ".".join(parts) or "body"
+
+
+def install_problem_handlers(app: FastAPI) -> None:
+    """Map every error the service raises on purpose to a problem document."""
+
+    async def on_problem(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, ProblemError)
+        problem = Problem(
+            type=_TYPE_PREFIX + error.slug,
+            title=error.title,
+            status=error.status,
+            detail=error.detail,
+            errors=error.errors,
+        )
+        return _render(request, problem, error.headers)
+
+    async def on_core(request: Request, error: Exception) -> FastJSONResponse:
+        return _render(request, _from_core(error))
+
+    async def on_validation(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, RequestValidationError)
+        errors = []
+        for item in error.errors():
+            value = item.get("input")
+            if not isinstance(value, str | int | float | bool | None):
+                value = None
+            errors.append(
+                FieldError(
+                    field=_location(tuple(item.get("loc", ()))),
+                    message=str(item.get("msg", "invalid")),
+                    value=value,
+                )
+            )
+        fields = ", ".join(sorted({entry.field for entry in errors}))
+        problem = Problem(
+            type=_TYPE_PREFIX + "invalid-request",
+            title="Request does not match the schema",
+            status=422,
+            detail=f"Invalid or missing field(s): {fields}.",
+            errors=errors,
+        )
+        return _render(request, problem)
+
+    async def on_http(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, StarletteHTTPException)
+        problem = Problem(
+            type="about:blank",
+            title=str(error.detail),
+            status=error.status_code,
+            detail=str(error.detail),
+        )
+        return _render(request, problem, dict(error.headers) if error.headers else None)
+
+    app.add_exception_handler(ProblemError, on_problem)
+    for kind in (OutOfRangeError, InvalidInputError, UnsupportedStateError, NotConvergedError):
+        app.add_exception_handler(kind, on_core)
+    app.add_exception_handler(RequestValidationError, on_validation)
+    app.add_exception_handler(StarletteHTTPException, on_http)

@@ -1,0 +1,118 @@
+"""Read quantity inputs (any accepted shape) into SI arrays; shape SI results for output."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Any
+
+import numpy as np
+
+from service.api.schemas.common import QuantityValue, QuantityValues
+from service.api.units import (
+    Dimension,
+    UnitSet,
+    convert_from_si,
+    convert_to_si,
+    output_unit,
+    parse_quantity_text,
+)
+from service.core.errors import InvalidInputError
+from service.core.phase import FloatArray
+
+__all__ = ["ParsedQuantity", "quantity_output", "read_quantity"]
+
+_DIFFERENCE_OF = {Dimension.TEMPERATURE: Dimension.TEMPERATURE_DIFFERENCE}
+
+
+@dataclass(frozen=True)
+class ParsedQuantity:
+    """An input in SI: always a 1-D array; ``is_array`` says how it was sent."""
+
+    si: FloatArray
+    is_array: bool
+    standard_uncertainty: FloatArray | None = None
+
+    @property
+    def size(self) -> int:
+        """Number of points."""
+        return int(self.si.size)
+
+
+def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuantity:
+    """Convert one input field to SI.
+
+    Parameters
+    ----------
+    raw
+        A number (default SI unit), a string ``"25 degC"``, a :class:`QuantityValue`,
+        a :class:`QuantityValues` or a list of numbers.
+    field
+        Name of the input, used in error messages.
+    dimension
+        What kind of quantity the field holds.
+
+    Raises
+    ------
+    InvalidInputError
+        Unknown unit, wrong dimension, non-finite number, unreadable text.
+    """
+    unit: str | None
+    uncertainty: float | None = None
+    if isinstance(raw, bool):
+        raise InvalidInputError(field, "expected a number, not a boolean", raw)
+    if isinstance(raw, int | float):
+        values: Any = float(raw)
+        unit, is_array = None, False
+    elif isinstance(raw, str):
+        values, unit = parse_quantity_text(raw, field=field)
+        is_array = False
+    elif isinstance(raw, QuantityValue):
+        values, unit, uncertainty, is_array = raw.value, raw.unit, raw.uncertainty, False
+    elif isinstance(raw, QuantityValues):
+        values, unit, uncertainty, is_array = raw.values, raw.unit, raw.uncertainty, True
+    elif isinstance(raw, list):
+        values, unit, is_array = raw, None, True
+    else:
+        raise InvalidInputError(field, f"unsupported input of type {type(raw).__name__}", None)
+    array = np.atleast_1d(np.asarray(values, dtype=np.float64))
+    if array.ndim != 1:
+        raise InvalidInputError(field, "arrays must be flat lists of numbers", None)
+    if array.size == 0:
+        raise InvalidInputError(field, "an array needs at least one value", [])
+    if not np.isfinite(array).all():
+        raise InvalidInputError(field, "values must be finite numbers", None)
+    si = convert_to_si(array, unit, dimension, field=field)
+    standard_uncertainty = None
+    if uncertainty is not None:
+        difference = _DIFFERENCE_OF.get(dimension, dimension)
+        scale = convert_to_si(np.array([1.0]), unit, difference, field=field)[0]
+        if difference is not dimension:
+            scale -= convert_to_si(np.array([0.0]), unit, difference, field=field)[0]
+        standard_uncertainty = np.full(si.shape, abs(uncertainty * scale))
+    return ParsedQuantity(si=si, is_array=is_array, standard_uncertainty=standard_uncertainty)
+
+
+def quantity_output(
+    si_values: FloatArray,
+    dimension: Dimension,
+    unit_set: UnitSet,
+    *,
+    as_array: bool,
+    divergent_as_null: bool = False,
+) -> dict[str, Any]:
+    """Shape SI results as ``{"value"|"values": ..., "unit": ...}`` in ``unit_set``.
+
+    ``divergent_as_null`` is for quantities that physically diverge (isobaric heat
+    capacity at the critical point): +infinity is reported as ``null``. Any other
+    non-finite value is left for the response renderer to refuse as a defect.
+    """
+    converted = convert_from_si(np.asarray(si_values, dtype=np.float64), dimension, unit_set)
+    unit = output_unit(dimension, unit_set)
+    values: Any = converted
+    if divergent_as_null and np.isposinf(converted).any():
+        values = [None if np.isposinf(item) else float(item) for item in converted.ravel()]
+        if not as_array:
+            return {"value": values[0], "unit": unit}
+    if as_array:
+        return {"values": values, "unit": unit}
+    return {"value": float(converted.reshape(-1)[0]), "unit": unit}

@@ -1,0 +1,383 @@
+"""Property lookups: saturation, sublimation, melting, state, constants.
+
+Each lookup answers GET (query parameters, one point) and POST (JSON body, any input
+may be a batch). Handlers read inputs to SI, call one core function and shape the answer.
+"""
+
+from __future__ import annotations
+
+from typing import Annotated, Any
+
+from fastapi import APIRouter, Query, Request
+
+from service.api.problems import FieldError, ProblemError, problem_responses
+from service.api.quantities import ParsedQuantity, quantity_output, read_quantity
+from service.api.responses import FastJSONResponse
+from service.api.schemas.properties import (
+    ConstantsPublic,
+    Formulation,
+    MeltingCreate,
+    MeltingPublic,
+    RequestedPhase,
+    SaturationCreate,
+    SaturationPublic,
+    StateCreate,
+    StatePublic,
+    SublimationCreate,
+    SublimationPublic,
+)
+from service.api.shaping import envelope, phase_output
+from service.api.units import Dimension, UnitSet
+from service.core import lookups
+from service.core.errors import InvalidInputError
+from service.settings import Settings
+
+router = APIRouter(prefix="/v1/properties", tags=["properties"])
+
+_ERRORS = problem_responses(413, 422)
+_TEMPERATURE_QUERY = (
+    "Temperature: a number in K, or a number with a unit, e.g. `25 degC`, `77 degF`, `298.15 K`."
+)
+_PRESSURE_QUERY = "Absolute pressure: a number in Pa, or with a unit, e.g. `2 kPa`, `0.3 psi`."
+_UNITS_QUERY = "Unit set of the results: `SI`, `engineering` or `US`."
+_FORMULATION_QUERY = "`IAPWS-95` (default) or `IAPWS-IF97`."
+
+TemperatureQuery = Annotated[str | None, Query(description=_TEMPERATURE_QUERY)]
+PressureQuery = Annotated[str | None, Query(description=_PRESSURE_QUERY)]
+UnitsQuery = Annotated[UnitSet, Query(description=_UNITS_QUERY)]
+FormulationQuery = Annotated[Formulation, Query(description=_FORMULATION_QUERY)]
+
+
+def _settings(request: Request) -> Settings:
+    settings: Settings = request.app.state.settings
+    return settings
+
+
+def _check_points(request: Request, *parsed: ParsedQuantity) -> None:
+    limit = _settings(request).max_batch_points
+    points = max(item.size for item in parsed)
+    if points > limit:
+        raise ProblemError(
+            413,
+            "too-many-points",
+            "Batch too large",
+            f"The request asks for {points} points; the limit is {limit} "
+            "(setting TRIPOINT_MAX_BATCH_POINTS).",
+            [FieldError(field="values", message="too many points", value=points, maximum=limit)],
+        )
+
+
+def _one_of(
+    request: Request, temperature: Any, pressure: Any
+) -> tuple[ParsedQuantity | None, ParsedQuantity | None]:
+    if (temperature is None) == (pressure is None):
+        given = "both" if temperature is not None else "neither"
+        raise InvalidInputError(
+            "temperature, pressure", f"give exactly one of temperature or pressure ({given} given)"
+        )
+    if temperature is not None:
+        parsed = read_quantity(temperature, field="temperature", dimension=Dimension.TEMPERATURE)
+        _check_points(request, parsed)
+        return parsed, None
+    parsed = read_quantity(pressure, field="pressure", dimension=Dimension.PRESSURE)
+    _check_points(request, parsed)
+    return None, parsed
+
+
+def _line_answer(
+    result: lookups.LineLookup,
+    unit_set: UnitSet,
+    as_array: bool,
+    phases: tuple[str, str],
+    latent_name: str,
+) -> dict[str, Any]:
+    states = result.states
+    return {
+        "temperature": quantity_output(
+            states.temperature, Dimension.TEMPERATURE, unit_set, as_array=as_array
+        ),
+        "pressure": quantity_output(
+            states.pressure, Dimension.PRESSURE, unit_set, as_array=as_array
+        ),
+        phases[0]: phase_output(getattr(states, phases[0]), unit_set, as_array=as_array),
+        phases[1]: phase_output(getattr(states, phases[1]), unit_set, as_array=as_array),
+        latent_name: quantity_output(
+            getattr(states, latent_name), Dimension.SPECIFIC_ENERGY, unit_set, as_array=as_array
+        ),
+        **envelope(
+            unit_set=unit_set,
+            assumptions=result.assumptions,
+            sources=result.sources,
+            uncertainties=result.uncertainties,
+            advisories=result.advisories,
+        ),
+    }
+
+
+def _saturation(
+    request: Request, temperature: Any, pressure: Any, formulation: Formulation, unit_set: UnitSet
+) -> dict[str, Any]:
+    t, p = _one_of(request, temperature, pressure)
+    result = lookups.saturation_lookup(
+        temperature=None if t is None else t.si,
+        pressure=None if p is None else p.si,
+        formulation=formulation,
+    )
+    as_array = (t or p).is_array  # type: ignore[union-attr]
+    return _line_answer(
+        result, unit_set, as_array, ("liquid", "vapor"), "latent_heat_of_vaporization"
+    )
+
+
+def _sublimation(
+    request: Request, temperature: Any, pressure: Any, unit_set: UnitSet
+) -> dict[str, Any]:
+    t, p = _one_of(request, temperature, pressure)
+    result = lookups.sublimation_lookup(
+        temperature=None if t is None else t.si, pressure=None if p is None else p.si
+    )
+    as_array = (t or p).is_array  # type: ignore[union-attr]
+    return _line_answer(result, unit_set, as_array, ("ice", "vapor"), "latent_heat_of_sublimation")
+
+
+def _melting(
+    request: Request, temperature: Any, pressure: Any, unit_set: UnitSet
+) -> dict[str, Any]:
+    t, p = _one_of(request, temperature, pressure)
+    result = lookups.melting_lookup(
+        temperature=None if t is None else t.si, pressure=None if p is None else p.si
+    )
+    as_array = (t or p).is_array  # type: ignore[union-attr]
+    return _line_answer(result, unit_set, as_array, ("ice", "liquid"), "latent_heat_of_fusion")
+
+
+def _state(
+    request: Request,
+    temperature: Any,
+    pressure: Any,
+    phase: RequestedPhase | None,
+    formulation: Formulation,
+    unit_set: UnitSet,
+) -> dict[str, Any]:
+    t = read_quantity(temperature, field="temperature", dimension=Dimension.TEMPERATURE)
+    p = read_quantity(pressure, field="pressure", dimension=Dimension.PRESSURE)
+    _check_points(request, t, p)
+    if t.size != p.size and 1 not in (t.size, p.size):
+        raise InvalidInputError(
+            "pressure",
+            f"has {p.size} values but temperature has {t.size}; give equal lengths or one value",
+        )
+    result = lookups.state_lookup(
+        temperature=t.si, pressure=p.si, phase=phase, formulation=formulation
+    )
+    as_array = t.is_array or p.is_array
+    states = result.states
+    properties = states.properties
+    return {
+        "temperature": quantity_output(
+            properties.temperature, Dimension.TEMPERATURE, unit_set, as_array=as_array
+        ),
+        "pressure": quantity_output(
+            properties.pressure, Dimension.PRESSURE, unit_set, as_array=as_array
+        ),
+        "phase": list(states.phase) if as_array else str(states.phase[0]),
+        "properties": phase_output(properties, unit_set, as_array=as_array),
+        **envelope(
+            unit_set=unit_set,
+            assumptions=result.assumptions,
+            sources=result.sources,
+            uncertainties=result.uncertainties,
+            advisories=result.advisories,
+        ),
+    }
+
+
+@router.get(
+    "/saturation",
+    operation_id="get_saturation",
+    response_model=SaturationPublic,
+    responses=_ERRORS,
+    summary="Liquid-vapor saturation at a temperature or a pressure",
+)
+def get_saturation(
+    request: Request,
+    temperature: TemperatureQuery = None,
+    pressure: PressureQuery = None,
+    formulation: FormulationQuery = "IAPWS-95",
+    output_units: UnitsQuery = UnitSet.SI,
+) -> Any:
+    """Saturated liquid and vapor (triple point to critical point): pressure or temperature,
+    density, enthalpy, internal energy, entropy, isobaric heat capacity, latent heat."""
+    return FastJSONResponse(_saturation(request, temperature, pressure, formulation, output_units))
+
+
+@router.post(
+    "/saturation",
+    operation_id="post_saturation",
+    response_model=SaturationPublic,
+    responses=_ERRORS,
+    summary="Liquid-vapor saturation, batch",
+)
+def post_saturation(request: Request, body: SaturationCreate) -> Any:
+    """As the GET, with any input as a batch (`{"values": [...], "unit": ...}` or a list)."""
+    return FastJSONResponse(
+        _saturation(request, body.temperature, body.pressure, body.formulation, body.output_units)
+    )
+
+
+@router.get(
+    "/sublimation",
+    operation_id="get_sublimation",
+    response_model=SublimationPublic,
+    responses=_ERRORS,
+    summary="Ice Ih-vapor sublimation at a temperature or a pressure",
+)
+def get_sublimation(
+    request: Request,
+    temperature: TemperatureQuery = None,
+    pressure: PressureQuery = None,
+    output_units: UnitsQuery = UnitSet.SI,
+) -> Any:
+    """Ice Ih and vapor in equilibrium (50 K to 273.16 K): pressure, ice and vapor properties,
+    latent heat of sublimation."""
+    return FastJSONResponse(_sublimation(request, temperature, pressure, output_units))
+
+
+@router.post(
+    "/sublimation",
+    operation_id="post_sublimation",
+    response_model=SublimationPublic,
+    responses=_ERRORS,
+    summary="Ice Ih-vapor sublimation, batch",
+)
+def post_sublimation(request: Request, body: SublimationCreate) -> Any:
+    """As the GET, with any input as a batch."""
+    return FastJSONResponse(
+        _sublimation(request, body.temperature, body.pressure, body.output_units)
+    )
+
+
+@router.get(
+    "/melting",
+    operation_id="get_melting",
+    response_model=MeltingPublic,
+    responses=_ERRORS,
+    summary="Ice Ih-liquid melting at a temperature or a pressure",
+)
+def get_melting(
+    request: Request,
+    temperature: TemperatureQuery = None,
+    pressure: PressureQuery = None,
+    output_units: UnitsQuery = UnitSet.SI,
+) -> Any:
+    """Ice Ih and liquid in equilibrium (251.165 K to 273.16 K): pressure, ice and liquid
+    properties, latent heat of fusion."""
+    return FastJSONResponse(_melting(request, temperature, pressure, output_units))
+
+
+@router.post(
+    "/melting",
+    operation_id="post_melting",
+    response_model=MeltingPublic,
+    responses=_ERRORS,
+    summary="Ice Ih-liquid melting, batch",
+)
+def post_melting(request: Request, body: MeltingCreate) -> Any:
+    """As the GET, with any input as a batch."""
+    return FastJSONResponse(_melting(request, body.temperature, body.pressure, body.output_units))
+
+
+@router.get(
+    "/state",
+    operation_id="get_state",
+    response_model=StatePublic,
+    responses=_ERRORS,
+    summary="Phase and properties at a temperature and pressure",
+)
+def get_state(
+    request: Request,
+    temperature: Annotated[str, Query(description=_TEMPERATURE_QUERY)],
+    pressure: Annotated[str, Query(description=_PRESSURE_QUERY)],
+    phase: Annotated[
+        RequestedPhase | None,
+        Query(
+            description="Omit for the stable phase; `liquid`/`vapor`/`ice` for a metastable one."
+        ),
+    ] = None,
+    formulation: FormulationQuery = "IAPWS-95",
+    output_units: UnitsQuery = UnitSet.SI,
+) -> Any:
+    """Stable phase (liquid, vapor, ice Ih, supercritical) and its properties; or a requested
+    metastable phase, with a warning."""
+    return FastJSONResponse(
+        _state(request, temperature, pressure, phase, formulation, output_units)
+    )
+
+
+@router.post(
+    "/state",
+    operation_id="post_state",
+    response_model=StatePublic,
+    responses=_ERRORS,
+    summary="Phase and properties, batch",
+)
+def post_state(request: Request, body: StateCreate) -> Any:
+    """As the GET, with temperature and/or pressure as batches (equal lengths, or one value)."""
+    return FastJSONResponse(
+        _state(
+            request,
+            body.temperature,
+            body.pressure,
+            body.phase,
+            body.formulation,
+            body.output_units,
+        )
+    )
+
+
+@router.get(
+    "/constants",
+    operation_id="get_constants",
+    response_model=ConstantsPublic,
+    responses=problem_responses(422),
+    summary="Triple point, critical point and constants",
+)
+def get_constants(output_units: UnitsQuery = UnitSet.SI) -> Any:
+    """Fixed points of water substance and the latent heats at the triple point."""
+    result = lookups.constants_lookup()
+    values = result.states
+
+    def scalar(value: float, dimension: Dimension) -> dict[str, Any]:
+        return quantity_output(value, dimension, output_units, as_array=False)  # type: ignore[arg-type]
+
+    content = {
+        "triple_point": {
+            "temperature": scalar(values.triple_point_temperature, Dimension.TEMPERATURE),
+            "pressure": scalar(values.triple_point_pressure, Dimension.PRESSURE),
+            "density": None,
+        },
+        "critical_point": {
+            "temperature": scalar(values.critical_temperature, Dimension.TEMPERATURE),
+            "pressure": scalar(values.critical_pressure, Dimension.PRESSURE),
+            "density": scalar(values.critical_density, Dimension.DENSITY),
+        },
+        "specific_gas_constant": scalar(values.specific_gas_constant, Dimension.SPECIFIC_ENTROPY),
+        "molar_mass": {"value": values.molar_mass, "unit": "kg/mol"},
+        "latent_heat_of_vaporization_at_triple_point": scalar(
+            values.latent_heat_of_vaporization, Dimension.SPECIFIC_ENERGY
+        ),
+        "latent_heat_of_sublimation_at_triple_point": scalar(
+            values.latent_heat_of_sublimation, Dimension.SPECIFIC_ENERGY
+        ),
+        "latent_heat_of_fusion_at_triple_point": scalar(
+            values.latent_heat_of_fusion, Dimension.SPECIFIC_ENERGY
+        ),
+        **envelope(
+            unit_set=output_units,
+            assumptions=result.assumptions,
+            sources=result.sources,
+            uncertainties=result.uncertainties,
+            advisories=result.advisories,
+        ),
+    }
+    return FastJSONResponse(content)

@@ -1,0 +1,1 @@
+"""Request and response models, in pairs per operation, on one shared base."""

@@ -1,0 +1,96 @@
+"""Turn core results into response dictionaries (units, envelope)."""
+
+from __future__ import annotations
+
+import uuid
+from collections.abc import Iterable, Sequence
+from datetime import UTC, datetime
+from typing import Any
+
+from service import __version__
+from service.api.quantities import quantity_output
+from service.api.units import Dimension, UnitSet
+from service.core.advisories import Advisory
+from service.core.lookups import ReportedUncertainty
+from service.core.phase import PhaseProperties
+from service.core.reference_state import REFERENCE_STATE
+from service.core.sources import PropertySource
+
+__all__ = ["envelope", "phase_output"]
+
+_PHASE_FIELDS: tuple[tuple[str, Dimension, bool], ...] = (
+    # name, dimension, diverges at the critical point (reported as null there)
+    ("density", Dimension.DENSITY, False),
+    ("specific_enthalpy", Dimension.SPECIFIC_ENERGY, False),
+    ("specific_internal_energy", Dimension.SPECIFIC_ENERGY, False),
+    ("specific_entropy", Dimension.SPECIFIC_ENTROPY, False),
+    ("specific_isobaric_heat_capacity", Dimension.SPECIFIC_ENTROPY, True),
+)
+
+
+def phase_output(
+    properties: PhaseProperties, unit_set: UnitSet, *, as_array: bool
+) -> dict[str, Any]:
+    """The five phase properties of the API, in ``unit_set``."""
+    return {
+        name: quantity_output(
+            getattr(properties, name),
+            dimension,
+            unit_set,
+            as_array=as_array,
+            divergent_as_null=divergent,
+        )
+        for name, dimension, divergent in _PHASE_FIELDS
+    }
+
+
+def _uncertainty_output(item: ReportedUncertainty) -> dict[str, Any]:
+    return {
+        "quantity": item.quantity,
+        "relative": item.relative,
+        "absolute": None,
+        "coverage": item.coverage,
+        "statement": item.statement,
+        "source": item.source,
+        "basis": item.basis,
+    }
+
+
+def envelope(
+    *,
+    unit_set: UnitSet,
+    assumptions: Iterable[str],
+    sources: Sequence[PropertySource],
+    uncertainties: Iterable[ReportedUncertainty],
+    advisories: Iterable[Advisory],
+) -> dict[str, Any]:
+    """The envelope every calculation response carries."""
+    return {
+        "reference_state": REFERENCE_STATE,
+        "assumptions": list(assumptions),
+        "property_sources": [
+            {
+                "formulation": source.formulation,
+                "release": source.release,
+                "year": source.year,
+                "title": source.title,
+                "scope": source.scope,
+            }
+            for source in sources
+        ],
+        "uncertainty": [_uncertainty_output(item) for item in uncertainties],
+        "warnings": [
+            {
+                "code": advisory.code,
+                "message": advisory.message,
+                "indices": list(advisory.indices) if advisory.indices is not None else None,
+            }
+            for advisory in advisories
+        ],
+        "meta": {
+            "service_version": __version__,
+            "calculation_id": str(uuid.uuid4()),
+            "time": datetime.now(UTC).isoformat(timespec="milliseconds").replace("+00:00", "Z"),
+            "output_units": unit_set.value,
+        },
+    }

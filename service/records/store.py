@@ -1,0 +1,425 @@
+"""Store, read, list and prune calculation records through SQLAlchemy 2.
+
+SQLite (a file, zero setup) by default; PostgreSQL when the URL points at one, so that
+several replicas share one store. Every public method is synchronous and thread-safe:
+call it from a worker thread, not from an event loop.
+"""
+
+from __future__ import annotations
+
+import base64
+import binascii
+import threading
+import time
+from collections.abc import Callable
+from dataclasses import dataclass
+from datetime import UTC, datetime
+from pathlib import Path
+from typing import Any
+
+import orjson
+from sqlalchemy import (
+    Connection,
+    Engine,
+    and_,
+    create_engine,
+    delete,
+    event,
+    insert,
+    or_,
+    select,
+    text,
+)
+from sqlalchemy.engine import make_url
+from sqlalchemy.exc import SQLAlchemyError
+from sqlalchemy.sql.elements import ColumnElement
+
+from service.records.tables import SCHEMA_VERSION, calculations, metadata, schema_version
+
+__all__ = [
+    "CalculationRecord",
+    "InvalidCursorError",
+    "RecordPage",
+    "RecordStore",
+    "RecordSummary",
+    "SchemaVersionError",
+    "StoreUnavailableError",
+]
+
+JsonObject = dict[str, Any]
+
+_POSTGRESQL_SCHEMA_LOCK = 7_311_502_170
+"""Advisory-lock number held while one replica creates or migrates the tables."""
+
+_MIGRATIONS: dict[int, Callable[[Connection], None]] = {}
+"""Step ``n`` takes a database from version ``n - 1`` to ``n``; none yet (version 1)."""
+
+_SUMMARY_COLUMNS = (
+    calculations.c.calculation_id,
+    calculations.c.kind,
+    calculations.c.created_at,
+    calculations.c.service_version,
+    calculations.c.key_id,
+)
+
+
+class StoreUnavailableError(RuntimeError):
+    """The record store could not be reached or refused the operation."""
+
+
+class SchemaVersionError(StoreUnavailableError):
+    """The database holds tables of a newer schema than this code knows."""
+
+
+class InvalidCursorError(ValueError):
+    """A pagination cursor that this store did not hand out."""
+
+
+@dataclass(frozen=True)
+class RecordSummary:
+    """What a listing shows of one record."""
+
+    calculation_id: str
+    kind: str
+    created_at: datetime
+    service_version: str
+    key_id: str | None
+
+
+@dataclass(frozen=True)
+class CalculationRecord:
+    """One calculation: inputs as sent, the result, model versions, time and key id.
+
+    ``formulations`` lists the property formulations used, each as
+    ``{"formulation": ..., "release": ...}``. ``key_id`` is a digest of the API key (never the
+    key), or None when keys are off.
+    """
+
+    calculation_id: str
+    kind: str
+    created_at: datetime
+    inputs: JsonObject
+    result: JsonObject
+    service_version: str
+    formulations: list[JsonObject]
+    key_id: str | None
+
+    def summary(self) -> RecordSummary:
+        """The listing view of this record."""
+        return RecordSummary(
+            self.calculation_id, self.kind, self.created_at, self.service_version, self.key_id
+        )
+
+
+@dataclass(frozen=True)
+class RecordPage:
+    """One page of a listing, newest first; ``next_cursor`` is None on the last page."""
+
+    items: list[RecordSummary]
+    next_cursor: str | None
+
+
+def _json_text(value: Any) -> str:
+    return orjson.dumps(value, option=orjson.OPT_SERIALIZE_NUMPY).decode()
+
+
+def _encode_cursor(created_at: datetime, calculation_id: str) -> str:
+    raw = f"{created_at.astimezone(UTC).isoformat()}|{calculation_id}".encode()
+    return base64.urlsafe_b64encode(raw).decode().rstrip("=")
+
+
+def _decode_cursor(cursor: str) -> tuple[datetime, str]:
+    try:
+        raw = base64.urlsafe_b64decode(cursor + "=" * (-len(cursor) % 4)).decode()
+        moment, separator, calculation_id = raw.partition("|")
+        created_at = datetime.fromisoformat(moment)
+    except (binascii.Error, UnicodeDecodeError, ValueError):
+        raise InvalidCursorError("the cursor is not one this service handed out") from None
+    if not separator or not calculation_id or created_at.tzinfo is None:
+        raise InvalidCursorError("the cursor is not one this service handed out")
+    return created_at, calculation_id
+
+
+class RecordStore:
+    """Calculation records in an SQL database.
+
+    Parameters
+    ----------
+    url
+        ``sqlite:///path/to/file.sqlite3`` or ``postgresql://user@host:5432/database``
+        (``postgresql://`` is read as ``postgresql+psycopg://``).
+    schema
+        Database schema the tables live in (PostgreSQL only); None uses the default search
+        path. Tests use it to keep each run apart.
+    """
+
+    def __init__(self, url: str, *, schema: str | None = None) -> None:
+        parsed = make_url(url)
+        if parsed.drivername == "postgresql":
+            parsed = parsed.set(drivername="postgresql+psycopg")
+        self.backend = parsed.get_backend_name()
+        self.display_url = parsed.render_as_string(hide_password=True)
+        options: dict[str, Any] = {"json_serializer": _json_text, "pool_pre_ping": True}
+        if self.backend == "sqlite":
+            if parsed.database:
+                Path(parsed.database).expanduser().parent.mkdir(parents=True, exist_ok=True)
+            options["connect_args"] = {"timeout": 15}
+        else:
+            options["connect_args"] = {"connect_timeout": 5}
+        engine = create_engine(parsed, **options)
+        if self.backend == "sqlite":
+            event.listen(engine, "connect", _sqlite_pragmas)
+        self._base_engine = engine
+        self._engine: Engine = (
+            engine.execution_options(schema_translate_map={None: schema}) if schema else engine
+        )
+        self._schema_lock = threading.Lock()
+        self._schema_ready = False
+
+    # -- schema -----------------------------------------------------------------------
+
+    def ensure_schema(self) -> None:
+        """Create the tables if missing and bring them to :data:`SCHEMA_VERSION`.
+
+        Idempotent and safe when several processes start at once (PostgreSQL: an advisory
+        lock; SQLite: a retry when another process won the race).
+
+        Raises
+        ------
+        SchemaVersionError
+            The database is at a newer schema version than this code.
+        StoreUnavailableError
+            The database cannot be reached.
+        """
+        if self._schema_ready:
+            return
+        with self._schema_lock:
+            if self._schema_ready:
+                return
+            # Two processes starting together on one SQLite file can both find a table
+            # missing; the loser's CREATE fails and its retry finds the table.
+            for attempt in range(3):
+                try:
+                    self._create_or_migrate()
+                    break
+                except SQLAlchemyError as error:
+                    if attempt == 2:
+                        raise StoreUnavailableError(_describe(error)) from None
+                    time.sleep(0.2)
+            self._schema_ready = True
+
+    def _create_or_migrate(self) -> None:
+        with self._engine.begin() as connection:
+            if self.backend == "postgresql":
+                connection.execute(
+                    text("SELECT pg_advisory_xact_lock(:lock)"), {"lock": _POSTGRESQL_SCHEMA_LOCK}
+                )
+            metadata.create_all(connection, checkfirst=True)
+            found = connection.execute(select(schema_version.c.version)).scalars().all()
+            version = max(found) if found else 0
+            if version > SCHEMA_VERSION:
+                raise SchemaVersionError(
+                    f"the record tables are at schema version {version}, newer than this "
+                    f"service's {SCHEMA_VERSION}; upgrade the service"
+                )
+            for step in range(version + 1, SCHEMA_VERSION + 1):
+                migrate = _MIGRATIONS.get(step)
+                if migrate is not None:
+                    migrate(connection)
+            if version != SCHEMA_VERSION:
+                connection.execute(delete(schema_version))
+                connection.execute(insert(schema_version).values(version=SCHEMA_VERSION))
+
+    def schema_version(self) -> int:
+        """The schema version the database is at (0 when no tables exist yet)."""
+        try:
+            with self._engine.connect() as connection:
+                found = connection.execute(select(schema_version.c.version)).scalars().all()
+        except SQLAlchemyError:
+            return 0
+        return max(found) if found else 0
+
+    # -- operations ---------------------------------------------------------------------
+
+    def ping(self) -> None:
+        """Check that the database answers and the tables are in place.
+
+        Raises
+        ------
+        StoreUnavailableError
+            When it does not.
+        """
+        self.ensure_schema()
+        try:
+            with self._engine.connect() as connection:
+                connection.execute(select(calculations.c.calculation_id).limit(1)).all()
+        except SQLAlchemyError as error:
+            raise StoreUnavailableError(_describe(error)) from None
+
+    def add(self, record: CalculationRecord) -> None:
+        """Store one record.
+
+        Raises
+        ------
+        StoreUnavailableError
+            The write failed; nothing was stored.
+        """
+        self.ensure_schema()
+        row = {
+            "calculation_id": record.calculation_id,
+            "kind": record.kind,
+            "created_at": record.created_at,
+            "inputs": record.inputs,
+            "result": record.result,
+            "service_version": record.service_version,
+            "formulations": record.formulations,
+            "key_id": record.key_id,
+        }
+        try:
+            with self._engine.begin() as connection:
+                connection.execute(insert(calculations).values(**row))
+        except SQLAlchemyError as error:
+            raise StoreUnavailableError(_describe(error)) from None
+
+    def get(self, calculation_id: str) -> CalculationRecord | None:
+        """The record with this id, or None."""
+        self.ensure_schema()
+        try:
+            with self._engine.connect() as connection:
+                row = (
+                    connection.execute(
+                        select(calculations).where(calculations.c.calculation_id == calculation_id)
+                    )
+                    .mappings()
+                    .first()
+                )
+        except SQLAlchemyError as error:
+            raise StoreUnavailableError(_describe(error)) from None
+        if row is None:
+            return None
+        return CalculationRecord(
+            calculation_id=row["calculation_id"],
+            kind=row["kind"],
+            created_at=row["created_at"],
+            inputs=row["inputs"],
+            result=row["result"],
+            service_version=row["service_version"],
+            formulations=row["formulations"],
+            key_id=row["key_id"],
+        )
+
+    def list_records(
+        self,
+        *,
+        kind: str | None = None,
+        key_id: str | None = None,
+        since: datetime | None = None,
+        until: datetime | None = None,
+        limit: int = 100,
+        cursor: str | None = None,
+    ) -> RecordPage:
+        """Records newest first, filtered, one page at a time.
+
+        Parameters
+        ----------
+        kind, key_id
+            Keep only records of this kind / made with this key id.
+        since, until
+            Keep records created at or after ``since`` and before ``until`` (aware datetimes).
+        limit
+            Page size, at least 1.
+        cursor
+            ``next_cursor`` of the previous page; None for the first page. Keyset
+            pagination: records written meanwhile never shift a page.
+
+        Raises
+        ------
+        InvalidCursorError
+            The cursor is not one this store handed out.
+        """
+        if limit < 1:
+            raise ValueError("limit must be at least 1")
+        conditions: list[ColumnElement[bool]] = []
+        if kind is not None:
+            conditions.append(calculations.c.kind == kind)
+        if key_id is not None:
+            conditions.append(calculations.c.key_id == key_id)
+        if since is not None:
+            conditions.append(calculations.c.created_at >= since)
+        if until is not None:
+            conditions.append(calculations.c.created_at < until)
+        if cursor is not None:
+            created_at, calculation_id = _decode_cursor(cursor)
+            conditions.append(
+                or_(
+                    calculations.c.created_at < created_at,
+                    and_(
+                        calculations.c.created_at == created_at,
+                        calculations.c.calculation_id < calculation_id,
+                    ),
+                )
+            )
+        query = (
+            select(*_SUMMARY_COLUMNS)
+            .where(*conditions)
+            .order_by(calculations.c.created_at.desc(), calculations.c.calculation_id.desc())
+            .limit(limit + 1)
+        )
+        self.ensure_schema()
+        try:
+            with self._engine.connect() as connection:
+                rows = connection.execute(query).mappings().all()
+        except SQLAlchemyError as error:
+            raise StoreUnavailableError(_describe(error)) from None
+        items = [
+            RecordSummary(
+                row["calculation_id"],
+                row["kind"],
+                row["created_at"],
+                row["service_version"],
+                row["key_id"],
+            )
+            for row in rows[:limit]
+        ]
+        next_cursor = None
+        if len(rows) > limit:
+            last = items[-1]
+            next_cursor = _encode_cursor(last.created_at, last.calculation_id)
+        return RecordPage(items=items, next_cursor=next_cursor)
+
+    def prune(self, older_than: datetime) -> int:
+        """Delete records created before ``older_than``; return how many went."""
+        self.ensure_schema()
+        try:
+            with self._engine.begin() as connection:
+                result = connection.execute(
+                    delete(calculations).where(calculations.c.created_at < older_than)
+                )
+        except SQLAlchemyError as error:
+            raise StoreUnavailableError(_describe(error)) from None
+        return int(result.rowcount)
+
+    def drop_tables(self) -> None:
+        """Remove the record tables (tests and tear-down only)."""
+        with self._engine.begin() as connection:
+            metadata.drop_all(connection)
+        self._schema_ready = False
+
+    def close(self) -> None:
+        """Close every pooled connection."""
+        self._base_engine.dispose()
+
+
+def _sqlite_pragmas(connection: Any, _record: Any) -> None:
+    """WAL lets readers go on while one process writes (several workers on one host)."""
+    cursor = connection.cursor()
+    cursor.execute("PRAGMA journal_mode=WAL")
+    cursor.execute("PRAGMA synchronous=NORMAL")
+    cursor.close()
+
+
+def _describe(error: SQLAlchemyError) -> str:
+    """A one-line reason, without the SQL statement or its parameters."""
+    original = getattr(error, "orig", None)
+    reason = str(original) if original is not None else str(error)
+    return f"{type(error).__name__}: {reason.strip().splitlines()[0] if reason.strip() else ''}"

@@ -1,0 +1,136 @@
+"""Helpers for the operations tests: an app with test-only routes, the PostgreSQL target.
+
+The test routes stand in for the balance routes: they build an answer with the standard
+envelope and store it with ``record_calculation``, exactly as a balance route does.
+"""
+
+from __future__ import annotations
+
+import os
+import threading
+import uuid
+from collections.abc import Iterator
+from contextlib import contextmanager
+from pathlib import Path
+from typing import Any
+
+import pytest
+from fastapi import APIRouter, Request
+from fastapi.testclient import TestClient
+
+from service.api.app import CSV_ROUTES, create_app
+from service.api.csv_io import CsvRoute
+from service.api.quantities import quantity_output, read_quantity
+from service.api.recording import record_calculation
+from service.api.responses import FastJSONResponse
+from service.api.schemas.common import ApiModel, QuantityInput
+from service.api.shaping import envelope
+from service.api.units import Dimension, UnitSet
+from service.core.advisories import Advisory
+from service.core.sources import IAPWS_95
+from service.records import RecordStore
+from service.settings import Settings
+
+__all__ = [
+    "KEY",
+    "OTHER_KEY",
+    "POSTGRES_URL",
+    "SLOW_RELEASE",
+    "postgres_schema",
+    "running_client",
+]
+
+KEY = "test-key-0123456789abcdef"
+OTHER_KEY = "another-key-abcdefghijklmnop"
+POSTGRES_URL = os.environ.get(
+    "TRIPOINT_TEST_POSTGRES_URL", "postgresql+psycopg://postgres@127.0.0.1:5432/test"
+)
+SLOW_RELEASE = threading.Event()
+"""Set it to let the slow test route finish."""
+
+_router = APIRouter(prefix="/v1/testing")
+
+
+class RecordedCreate(ApiModel):
+    """Body of the stand-in balance route."""
+
+    temperature: QuantityInput
+    note: str | None = None
+    output_units: UnitSet = UnitSet.SI
+
+
+@_router.post("/recorded", operation_id="testing_recorded")
+def recorded(request: Request, body: RecordedCreate) -> Any:
+    """Answer with the temperature and the envelope, and store the record."""
+    parsed = read_quantity(body.temperature, field="temperature", dimension=Dimension.TEMPERATURE)
+    advisories = []
+    if body.note == "warn-first":
+        advisories.append(Advisory("testing", "concerns the first case only", (0,)))
+    result = {
+        "temperature": quantity_output(
+            parsed.si, Dimension.TEMPERATURE, body.output_units, as_array=parsed.is_array
+        ),
+        "note": body.note,
+        **envelope(
+            unit_set=body.output_units,
+            assumptions=["Stand-in for a balance."],
+            sources=[IAPWS_95],
+            uncertainties=[],
+            advisories=advisories,
+        ),
+    }
+    return FastJSONResponse(record_calculation(request, "testing.recorded", body, result))
+
+
+@_router.get("/slow", operation_id="testing_slow")
+def slow() -> Any:
+    """Run until released (at most 10 s): a computation that overruns its time."""
+    SLOW_RELEASE.wait(10)
+    return {"done": True}
+
+
+@contextmanager
+def running_client(
+    folder: Path, *, store: RecordStore | None = None, **overrides: Any
+) -> Iterator[TestClient]:
+    """A started app (lifespan run) with the test routes, records in ``folder``.
+
+    ``/v1/testing/`` speaks CSV one call per row, as the balance routes do.
+    """
+    settings = Settings(
+        database_url=f"sqlite:///{folder / 'records.sqlite3'}",
+        **overrides,
+    )
+    app = create_app(
+        settings,
+        store=store,
+        csv_routes=(*CSV_ROUTES, CsvRoute("/v1/testing/", one_call_per_row=True)),
+    )
+    app.include_router(_router)
+    with TestClient(app) as client:
+        yield client
+
+
+@contextmanager
+def postgres_schema() -> Iterator[str]:
+    """A fresh schema in the test database, dropped afterwards.
+
+    Under ``CI=true`` an unreachable server fails the test; elsewhere it skips.
+    """
+    import psycopg
+
+    plain_url = POSTGRES_URL.replace("postgresql+psycopg://", "postgresql://")
+    try:
+        connection = psycopg.connect(plain_url, autocommit=True, connect_timeout=5)
+    except psycopg.OperationalError as error:
+        message = f"PostgreSQL at {POSTGRES_URL} is not reachable: {error}"
+        if os.environ.get("CI") == "true":
+            pytest.fail(message)
+        pytest.skip(message)
+    schema = f"tripoint_test_{uuid.uuid4().hex[:12]}"
+    with connection:
+        connection.execute(f'CREATE SCHEMA "{schema}"')
+        try:
+            yield schema
+        finally:
+            connection.execute(f'DROP SCHEMA "{schema}" CASCADE')

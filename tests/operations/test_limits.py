@@ -1,0 +1,90 @@
+"""Limits answered with their own problem documents: body size 413, CSV rows 413,
+computation time 503."""
+
+from __future__ import annotations
+
+import time
+from collections.abc import Iterator
+from pathlib import Path
+
+from operations_support import SLOW_RELEASE, running_client
+
+
+def test_overrunning_computation_is_503_at_the_limit(tmp_path: Path) -> None:
+    SLOW_RELEASE.clear()
+    with running_client(tmp_path, max_request_seconds=0.3) as client:
+        started = time.perf_counter()
+        response = client.get("/v1/testing/slow")
+        elapsed = time.perf_counter() - started
+        # The abandoned computation goes on in its thread; let it end before shutdown.
+        SLOW_RELEASE.set()
+        after = client.get("/v1/properties/saturation", params={"temperature": 300})
+        metrics = client.get("/metrics").text
+    assert response.status_code == 503
+    assert response.headers["content-type"] == "application/problem+json"
+    assert response.headers["retry-after"] == "1"
+    problem = response.json()
+    assert problem["type"] == "urn:tripoint:problem:time-limit"
+    assert "TRIPOINT_MAX_REQUEST_SECONDS" in problem["detail"]
+    assert elapsed < 2.0, "the 503 comes at the limit, not when the computation ends"
+    assert after.status_code == 200
+    assert 'route="/v1/testing/slow",status="503"' in metrics
+
+
+def test_fast_requests_are_untouched_by_the_time_limit(tmp_path: Path) -> None:
+    with running_client(tmp_path, max_request_seconds=5) as client:
+        response = client.get("/v1/properties/saturation", params={"temperature": 300})
+    assert response.status_code == 200
+
+
+def test_time_limit_is_documented_on_v1_routes(tmp_path: Path) -> None:
+    with running_client(tmp_path, max_request_seconds=12) as client:
+        schema = client.get("/openapi.json").json()
+    responses = schema["paths"]["/v1/properties/saturation"]["post"]["responses"]
+    assert "12 s" in responses["503"]["description"]
+    assert "503" not in schema["paths"]["/health"]["get"]["responses"]
+
+
+def test_body_over_the_limit_is_413(tmp_path: Path) -> None:
+    with running_client(tmp_path, max_body_bytes=2048) as client:
+        response = client.post(
+            "/v1/properties/saturation",
+            content=b"temperature[K]\n" + b"300\n" * 1000,
+            headers={"content-type": "text/csv"},
+        )
+    assert response.status_code == 413
+    assert response.json()["type"] == "urn:tripoint:problem:body-too-large"
+
+
+def test_csv_rows_over_the_batch_limit_is_413(tmp_path: Path) -> None:
+    with running_client(tmp_path, max_batch_points=3) as client:
+        response = client.post(
+            "/v1/properties/saturation",
+            content="temperature[K]\n300\n301\n302\n303\n",
+            headers={"content-type": "text/csv"},
+        )
+    assert response.status_code == 413
+    assert response.json()["type"] == "urn:tripoint:problem:too-many-points"
+
+
+def test_chunked_body_over_the_limit_is_413_not_400(tmp_path: Path) -> None:
+    def chunks() -> Iterator[bytes]:
+        yield b'{"temperature": {"values": ['
+        for _ in range(1000):
+            yield b"300.0,"
+        yield b"300.0]}}"
+
+    with running_client(tmp_path, max_body_bytes=2048) as client:
+        response = client.post(
+            "/v1/properties/saturation",
+            content=chunks(),
+            headers={"content-type": "application/json"},
+        )
+        small = client.post(
+            "/v1/properties/saturation",
+            content=iter([b'{"temperature": ', b"300.0}"]),
+            headers={"content-type": "application/json"},
+        )
+    assert response.status_code == 413
+    assert response.json()["type"] == "urn:tripoint:problem:body-too-large"
+    assert small.status_code == 200, small.text
