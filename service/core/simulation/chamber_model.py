@@ -1,0 +1,210 @@
+"""Right-hand side of the chamber and product balances (the ODE system).
+
+State vector y (SI):
+
+====  ==================  =================================================
+0     p_a                 air partial pressure, Pa
+1     m_v                 water vapor in the chamber gas, kg
+2     m                   product water (liquid + ice), kg
+3     E                   product energy (see product_state), J
+4     m_c                 ice on the condenser, kg
+5     m_pump              vapor taken by the pump, kg (accumulated)
+6     H_v                 enthalpy carried by vapor leaving the product, J (accumulated)
+7     Q_c                 condenser heat, J (accumulated)
+8     Q_g                 heat gained by the product, J (accumulated)
+====  ==================  =================================================
+
+Balances (chamber gas ideal and isothermal at T_g, volume V, well mixed):
+
+    V dp_a/dt = Q_leak - S_eff(p) p_a                       (air, pump-down law)
+    dm_v/dt   = j - S_eff(p) m_v / V - j_c                  (vapor)
+    dm/dt     = -j,     dE/dt = -h_v(T) j + Q_gain          (product)
+
+with p = p_a + p_v, p_v = m_v R T_g / V, the product evaporation j, the condenser
+capture j_c (:mod:`service.core.simulation.condenser`) and the heat gain
+Q_gain = P + UA (T_sur - T).
+
+Evaporation j:
+
+- kinetic: Hertz-Knudsen-Langmuir flux (:mod:`service.core.simulation.evaporation`);
+- equilibrium, regime "sealed" (chamber pressure above the product's vapor pressure):
+  j = 0, evaporation into the air neglected;
+- equilibrium, regime "boiling" (from the flash point on): the product boils and holds
+  the chamber at its vapor pressure, p_a + p_v = p_eq(E, m). Differentiating the
+  constraint with m_v = k (p_eq - p_a), k = V / (R T_g), gives j in closed form:
+
+      j = (S_eff k p_v + j_c + k dp_eq/dE Q_gain - k dp_a/dt)
+          / (1 + k (dp_eq/dE h_v + dp_eq/dm)),
+
+  valid while j >= 0 (otherwise the product stops boiling: back to "sealed").
+
+References
+----------
+Chamber vapor and air balances: Wang, L. and Sun, D.-W. (2002), "Modelling vacuum
+cooling process of cooked meat - part 1: analysis of vacuum cooling system",
+Int. J. Refrigeration 25(7), 854-861 (from memory). Pump-down law V dp/dt = Q - S p:
+standard vacuum-technology result (O'Hanlon, *A User's Guide to Vacuum Technology*,
+3rd ed., Wiley (2003); from memory).
+"""
+
+from __future__ import annotations
+
+from typing import Final, Literal, NamedTuple
+
+import numpy as np
+
+from service.core.constants import SPECIFIC_GAS_CONSTANT
+from service.core.phase import FloatArray
+from service.core.simulation.condenser import CondenserCapture
+from service.core.simulation.evaporation import KineticEvaporation
+from service.core.simulation.inputs import HeatGainRate
+from service.core.simulation.product_state import ProductState, ProductThermodynamics
+from service.core.simulation.pump import PumpingSpeed
+
+__all__ = ["STATE_SIZE", "ChamberModel", "Rates", "Regime"]
+
+Regime = Literal["kinetic", "sealed", "boiling"]
+
+STATE_SIZE: Final = 9
+AIR, VAPOR, WATER, ENERGY, CONDENSED, PUMPED, VAPOR_ENTHALPY, CONDENSER_HEAT, HEAT_GAINED = range(
+    STATE_SIZE
+)
+
+
+class Rates(NamedTuple):
+    """Everything the balances need at one state (floats, SI)."""
+
+    product: ProductState
+    air_pressure: float
+    vapor_pressure: float
+    total_pressure: float
+    pump_speed: float
+    evaporation: float
+    air_throughput: float
+    vapor_to_pump: float
+    vapor_to_condenser: float
+    condenser_load: float
+    heat_gain: float
+
+
+class ChamberModel:
+    """The ODE system of one case.
+
+    Parameters
+    ----------
+    volume, gas_temperature, leak_rate : float
+        m3, K, Pa m3/s.
+    pump : PumpingSpeed
+    condenser : CondenserCapture or None
+    product : ProductThermodynamics
+    evaporation : KineticEvaporation or None
+        None for the equilibrium model.
+    heat_gain : HeatGainRate or None
+    """
+
+    def __init__(
+        self,
+        *,
+        volume: float,
+        gas_temperature: float,
+        leak_rate: float,
+        pump: PumpingSpeed,
+        condenser: CondenserCapture | None,
+        product: ProductThermodynamics,
+        evaporation: KineticEvaporation | None,
+        heat_gain: HeatGainRate | None,
+    ) -> None:
+        self.volume = volume
+        self.gas_temperature = gas_temperature
+        self.vapor_per_pressure = volume / (SPECIFIC_GAS_CONSTANT * gas_temperature)
+        self.leak_rate = leak_rate
+        self.pump = pump
+        self.condenser = condenser
+        self.product = product
+        self.evaporation = evaporation
+        self.regime: Regime = "kinetic" if evaporation is not None else "sealed"
+        self._power = 0.0 if heat_gain is None else heat_gain.power
+        self._conductance = 0.0 if heat_gain is None else heat_gain.conductance
+        surroundings = None if heat_gain is None else heat_gain.surroundings_temperature
+        self._surroundings = gas_temperature if surroundings is None else surroundings
+        self._key: tuple[float, float, float, float, str] | None = None
+        self._rates: Rates | None = None
+        self._guess = 300.0
+        self.evaluations = 0
+
+    def start_from(self, temperature: float) -> None:
+        """Start Newton's method for the product temperature from ``temperature`` (K)."""
+        self._guess = temperature
+
+    def product_state(self, energy: float, water: float) -> ProductState:
+        """The product's state, Newton warm-started from the last temperature."""
+        state = self.product.state(energy, water, self._guess)
+        self._guess = state.temperature
+        return state
+
+    def rates(self, y: FloatArray) -> Rates:
+        """All rates at state ``y`` (memoized on the last state and regime)."""
+        air, vapor_mass, water, energy = y[:4].tolist()
+        regime = self.regime
+        key = (air, vapor_mass, water, energy, regime)
+        if key == self._key and self._rates is not None:
+            return self._rates
+        self.evaluations += 1
+        product = self.product_state(energy, water)
+        temperature = product.temperature
+        heat = self._power + self._conductance * (self._surroundings - temperature)
+        k = self.vapor_per_pressure
+        vapor = product.equilibrium_pressure - air if regime == "boiling" else vapor_mass / k
+        total = air + vapor
+        speed = self.pump(total)
+        air_throughput = speed * air
+        to_pump = speed * vapor * k / self.volume
+        to_condenser = 0.0 if self.condenser is None else self.condenser.rate(vapor)
+        if regime == "kinetic":
+            assert self.evaporation is not None
+            evaporation = self.evaporation.rate(temperature, product.equilibrium_pressure, vapor)
+        elif regime == "sealed":
+            evaporation = 0.0
+        else:
+            air_rate = (self.leak_rate - air_throughput) / self.volume
+            evaporation = (
+                to_pump + to_condenser + k * product.pressure_by_energy * heat - k * air_rate
+            ) / (
+                1.0
+                + k
+                * (product.pressure_by_energy * product.vapor_enthalpy + product.pressure_by_mass)
+            )
+        load = 0.0 if self.condenser is None else to_condenser * self.condenser.heat_per_mass
+        rates = Rates(
+            product=product,
+            air_pressure=air,
+            vapor_pressure=vapor,
+            total_pressure=total,
+            pump_speed=speed,
+            evaporation=evaporation,
+            air_throughput=air_throughput,
+            vapor_to_pump=to_pump,
+            vapor_to_condenser=to_condenser,
+            condenser_load=load,
+            heat_gain=heat,
+        )
+        self._key, self._rates = key, rates
+        return rates
+
+    def derivatives(self, t: float, y: FloatArray) -> FloatArray:
+        """dy/dt (the ``fun`` of :func:`scipy.integrate.solve_ivp`)."""
+        r = self.rates(y)
+        j = r.evaporation
+        return np.array(
+            [
+                (self.leak_rate - r.air_throughput) / self.volume,
+                j - r.vapor_to_pump - r.vapor_to_condenser,
+                -j,
+                r.heat_gain - r.product.vapor_enthalpy * j,
+                r.vapor_to_condenser,
+                r.vapor_to_pump,
+                r.product.vapor_enthalpy * j,
+                r.condenser_load,
+                r.heat_gain,
+            ]
+        )

@@ -1,0 +1,519 @@
+"""What a vacuum-chamber simulation is asked: chamber, pump, condenser, product, ends.
+
+All fields are SI scalars (K, Pa, kg, m3, s, W). :func:`validate_case` checks every
+field at call level and names the offending one by its dotted path (the same path the
+HTTP request uses), e.g. ``"pump.nominal_speed"``.
+"""
+
+from __future__ import annotations
+
+import math
+from dataclasses import dataclass
+from typing import Final, Literal
+
+import numpy as np
+
+from service.core.balances.companions import Companion
+from service.core.balances.food_composition import Composition
+from service.core.balances.solutes import Solute
+from service.core.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.simulation.path_tables import (
+    ICE_TEMPERATURE_MIN,
+    LIQUID_TEMPERATURE_MAX,
+    LIQUID_TEMPERATURE_MIN,
+)
+
+__all__ = [
+    "SIMULATION_LIMITS",
+    "Chamber",
+    "Condenser",
+    "EvaporationModel",
+    "HeatGainRate",
+    "Product",
+    "Pump",
+    "ScheduleLimit",
+    "VacuumChamberCase",
+    "validate_case",
+]
+
+EvaporationModel = Literal["equilibrium", "kinetic"]
+
+SIMULATION_LIMITS: Final = {
+    "free_volume_max": 1.0e4,
+    "initial_pressure_max": 2.0e5,
+    "chamber_temperature_min": LIQUID_TEMPERATURE_MIN,
+    "chamber_temperature_max": LIQUID_TEMPERATURE_MAX,
+    "condenser_temperature_min": ICE_TEMPERATURE_MIN,
+    "end_time_max": 30 * 86400.0,
+    "series_points_min": 10,
+    "series_points_max": 5000,
+    "specific_heat_max": 1.0e4,
+}
+"""Validity limits of the simulation inputs (SI). Temperatures follow the balances'
+ranges (supercooled or solution liquid from 243.15 K, ice from 173.15 K, the normal
+boiling point at most); the end time is at most 30 days."""
+
+
+@dataclass(frozen=True)
+class Chamber:
+    """The vacuum chamber and its gas.
+
+    Attributes
+    ----------
+    free_volume : float
+        Gas volume, m3 (chamber minus product and fixtures), > 0.
+    initial_pressure : float
+        Partial pressure of the air at the start, Pa, > 0.
+    temperature : float
+        Temperature of the chamber gas and walls, and of the air leaking in, K.
+    leak_rate : float
+        Air leak throughput, Pa m3/s (1 mbar L/s = 0.1 Pa m3/s), >= 0.
+    initial_vapor_pressure : float
+        Partial pressure of water vapor at the start, Pa, >= 0.
+    """
+
+    free_volume: float
+    initial_pressure: float
+    temperature: float
+    leak_rate: float = 0.0
+    initial_vapor_pressure: float = 0.0
+
+
+@dataclass(frozen=True)
+class Pump:
+    """The vacuum pump.
+
+    Attributes
+    ----------
+    nominal_speed : float
+        Volume flow at the inlet, m3/s, > 0 (used where no speed curve is given).
+    ultimate_pressure : float
+        Pa, >= 0: the effective speed falls to zero there.
+    speed_curve_pressures, speed_curve_speeds : tuple of float
+        Optional speed curve: pressures (Pa, > 0, strictly increasing) and speeds
+        (m3/s, >= 0), interpolated linearly in ln p and held constant beyond its ends.
+    """
+
+    nominal_speed: float
+    ultimate_pressure: float = 0.0
+    speed_curve_pressures: tuple[float, ...] = ()
+    speed_curve_speeds: tuple[float, ...] = ()
+
+
+@dataclass(frozen=True)
+class Condenser:
+    """A condenser (cold trap) inside the chamber.
+
+    Attributes
+    ----------
+    surface_temperature : float
+        K, 173.15 K to 273.16 K.
+    vapor_conductance : float
+        m3/s, > 0: volume flow of chamber vapor the condenser takes in (its pumping
+        speed for water vapor; an ideal cold surface of area A takes A sqrt(R T / (2 pi))).
+    ice_capacity : float or None
+        kg of ice it holds; exceeding it is an event and a warning.
+    refrigeration_capacity : float or None
+        W; caps the rate of condensation at this load.
+    """
+
+    surface_temperature: float
+    vapor_conductance: float
+    ice_capacity: float | None = None
+    refrigeration_capacity: float | None = None
+
+
+@dataclass(frozen=True)
+class Product:
+    """The load: water with its solids (and optionally a solute).
+
+    Attributes
+    ----------
+    mass : float
+        Initial total mass, kg, > 0.
+    initial_temperature : float
+        K, from the product's freezing onset to 373.15 K (the product starts unfrozen).
+    water_fraction : float
+        Mass fraction of water, (0, 1]; ignored with ``composition``.
+    solids_specific_heat : float
+        J/(kg K) of the non-water part, >= 0; ignored with ``composition``.
+    composition : Composition or None
+        Water, protein, fat, carbohydrate, fiber, ash fractions; the non-water part
+        takes the Choi and Okos (1986) specific heats.
+    solute : Solute or None
+        Dissolved solute (part of the non-water mass); the water freezes progressively.
+    evaporation : {"equilibrium", "kinetic"}
+        Equilibrium: the product boils once the chamber pressure reaches its vapor
+        pressure and keeps the chamber at it. Kinetic: Hertz-Knudsen-Langmuir flux
+        over ``exposed_area`` with ``evaporation_coefficient``.
+    exposed_area : float or None
+        m2, > 0 (kinetic).
+    evaporation_coefficient : float or None
+        (0, 1] (kinetic).
+    """
+
+    mass: float
+    initial_temperature: float
+    water_fraction: float = 1.0
+    solids_specific_heat: float = 0.0
+    composition: Composition | None = None
+    solute: Solute | None = None
+    evaporation: EvaporationModel = "equilibrium"
+    exposed_area: float | None = None
+    evaporation_coefficient: float | None = None
+
+
+@dataclass(frozen=True)
+class HeatGainRate:
+    """Heat flowing into the product: power + conductance (surroundings - product).
+
+    Attributes
+    ----------
+    power : float
+        W (may be negative for a cooled shelf).
+    conductance : float
+        W/K, >= 0.
+    surroundings_temperature : float or None
+        K; None means the chamber temperature.
+    """
+
+    power: float = 0.0
+    conductance: float = 0.0
+    surroundings_temperature: float | None = None
+
+
+@dataclass(frozen=True)
+class ScheduleLimit:
+    """A point of a cooling schedule: the product at or below ``temperature`` by ``time``."""
+
+    time: float
+    temperature: float
+
+
+@dataclass(frozen=True)
+class VacuumChamberCase:
+    """Input of :func:`service.core.simulation.simulate_vacuum_chamber`.
+
+    Attributes
+    ----------
+    chamber, pump, product
+    condenser : Condenser or None
+    companions : tuple of Companion
+        Masses (trays, racks) at the product temperature.
+    heat_gain : HeatGainRate or None
+        None: adiabatic product.
+    end_time : float
+        s, > 0: the simulation stops here at the latest.
+    target_temperature : float or None
+        K: the simulation stops when the product reaches it.
+    schedule : tuple of ScheduleLimit
+        Cooling schedule to check.
+    series_points : int
+        Points of the time series (10 to 5000, plus one per event).
+    """
+
+    chamber: Chamber
+    pump: Pump
+    product: Product
+    end_time: float
+    condenser: Condenser | None = None
+    companions: tuple[Companion, ...] = ()
+    heat_gain: HeatGainRate | None = None
+    target_temperature: float | None = None
+    schedule: tuple[ScheduleLimit, ...] = ()
+    series_points: int = 200
+
+
+def _finite(value: float, name: str) -> float:
+    number = float(value)
+    if not math.isfinite(number):
+        raise InvalidInputError(name, f"must be a finite number, got {number!r}", number)
+    return number
+
+
+def _within(
+    value: float,
+    name: str,
+    minimum: float | None,
+    maximum: float | None,
+    unit: str,
+    reason: str,
+    *,
+    open_minimum: bool = False,
+) -> None:
+    number = _finite(value, name)
+    low = minimum is not None and (number <= minimum if open_minimum else number < minimum)
+    if low or (maximum is not None and number > maximum):
+        raise OutOfRangeError(name, number, minimum, maximum, unit, reason)
+
+
+def _validate_chamber(chamber: Chamber) -> None:
+    limits = SIMULATION_LIMITS
+    _within(
+        chamber.free_volume,
+        "chamber.free_volume",
+        0.0,
+        limits["free_volume_max"],
+        "m3",
+        "the chamber needs a positive free volume",
+        open_minimum=True,
+    )
+    _within(
+        chamber.initial_pressure,
+        "chamber.initial_pressure",
+        0.0,
+        limits["initial_pressure_max"],
+        "Pa",
+        "partial pressure of the air at the start, up to 2 bar",
+        open_minimum=True,
+    )
+    _within(
+        chamber.temperature,
+        "chamber.temperature",
+        limits["chamber_temperature_min"],
+        limits["chamber_temperature_max"],
+        "K",
+        "the chamber gas temperature sets the vapor enthalpy at the pump and condenser",
+    )
+    _within(chamber.leak_rate, "chamber.leak_rate", 0.0, None, "Pa*m3/s", "must be >= 0")
+    _within(
+        chamber.initial_vapor_pressure,
+        "chamber.initial_vapor_pressure",
+        0.0,
+        None,
+        "Pa",
+        "must be >= 0",
+    )
+
+
+def _validate_pump(pump: Pump, initial_pressure: float) -> None:
+    _within(
+        pump.nominal_speed,
+        "pump.nominal_speed",
+        0.0,
+        None,
+        "m3/s",
+        "must be > 0",
+        open_minimum=True,
+    )
+    _within(
+        pump.ultimate_pressure,
+        "pump.ultimate_pressure",
+        0.0,
+        initial_pressure,
+        "Pa",
+        "the pump's ultimate pressure lies below the chamber's initial pressure",
+    )
+    pressures, speeds = pump.speed_curve_pressures, pump.speed_curve_speeds
+    if len(pressures) != len(speeds):
+        raise InvalidInputError(
+            "pump.speed_curve", "needs as many speeds as pressures", len(speeds)
+        )
+    if pressures and len(pressures) < 2:
+        raise InvalidInputError("pump.speed_curve", "needs at least two points", len(pressures))
+    for index, (pressure, speed) in enumerate(zip(pressures, speeds, strict=True)):
+        _within(
+            pressure,
+            f"pump.speed_curve[{index}].pressure",
+            0.0,
+            None,
+            "Pa",
+            "must be > 0",
+            open_minimum=True,
+        )
+        _within(speed, f"pump.speed_curve[{index}].speed", 0.0, None, "m3/s", "must be >= 0")
+        if index and pressure <= pressures[index - 1]:
+            raise InvalidInputError(
+                f"pump.speed_curve[{index}].pressure",
+                "pressures of the speed curve must increase strictly",
+                pressure,
+            )
+
+
+def _validate_condenser(condenser: Condenser) -> None:
+    _within(
+        condenser.surface_temperature,
+        "condenser.surface_temperature",
+        SIMULATION_LIMITS["condenser_temperature_min"],
+        TRIPLE_POINT_TEMPERATURE,
+        "K",
+        "the condenser collects the vapor as ice",
+    )
+    _within(
+        condenser.vapor_conductance,
+        "condenser.vapor_conductance",
+        0.0,
+        None,
+        "m3/s",
+        "must be > 0",
+        open_minimum=True,
+    )
+    if condenser.ice_capacity is not None:
+        _within(
+            condenser.ice_capacity,
+            "condenser.ice_capacity",
+            0.0,
+            None,
+            "kg",
+            "must be > 0",
+            open_minimum=True,
+        )
+    if condenser.refrigeration_capacity is not None:
+        _within(
+            condenser.refrigeration_capacity,
+            "condenser.refrigeration_capacity",
+            0.0,
+            None,
+            "W",
+            "must be > 0",
+            open_minimum=True,
+        )
+
+
+def _validate_product(product: Product) -> None:
+    _within(product.mass, "product.mass", 0.0, None, "kg", "must be > 0", open_minimum=True)
+    _within(
+        product.initial_temperature,
+        "product.initial_temperature",
+        LIQUID_TEMPERATURE_MIN,
+        LIQUID_TEMPERATURE_MAX,
+        "K",
+        "the product starts liquid, at most at the normal boiling point",
+    )
+    if product.composition is None:
+        _within(
+            product.water_fraction,
+            "product.water_fraction",
+            0.0,
+            1.0,
+            "1",
+            "mass fraction of water",
+            open_minimum=True,
+        )
+        _within(
+            product.solids_specific_heat,
+            "product.solids_specific_heat",
+            0.0,
+            SIMULATION_LIMITS["specific_heat_max"],
+            "J/(kg*K)",
+            "specific heat of the non-water part",
+        )
+    if product.evaporation not in ("equilibrium", "kinetic"):
+        raise InvalidInputError(
+            "product.evaporation", "must be 'equilibrium' or 'kinetic'", product.evaporation
+        )
+    if product.evaporation == "kinetic":
+        if product.exposed_area is None or product.evaporation_coefficient is None:
+            raise InvalidInputError(
+                "product.exposed_area",
+                "kinetic evaporation needs exposed_area and evaporation_coefficient",
+            )
+        _within(
+            product.exposed_area,
+            "product.exposed_area",
+            0.0,
+            None,
+            "m2",
+            "must be > 0",
+            open_minimum=True,
+        )
+        _within(
+            product.evaporation_coefficient,
+            "product.evaporation_coefficient",
+            0.0,
+            1.0,
+            "1",
+            "fraction of the kinetic-theory flux, 0 < alpha <= 1",
+            open_minimum=True,
+        )
+
+
+def validate_case(case: VacuumChamberCase) -> None:
+    """Check every field of ``case``; raise on the first offending one.
+
+    Raises
+    ------
+    InvalidInputError
+        Non-finite or malformed input, conflicting or missing fields.
+    OutOfRangeError
+        A field outside :data:`SIMULATION_LIMITS` or its physical range.
+    """
+    limits = SIMULATION_LIMITS
+    _validate_chamber(case.chamber)
+    _validate_pump(case.pump, case.chamber.initial_pressure + case.chamber.initial_vapor_pressure)
+    if case.condenser is not None:
+        _validate_condenser(case.condenser)
+    _validate_product(case.product)
+    for index, companion in enumerate(case.companions):
+        _within(
+            float(np.asarray(companion.mass)),
+            f"companions[{index}].mass",
+            0.0,
+            None,
+            "kg",
+            "must be >= 0",
+        )
+        _within(
+            float(np.asarray(companion.specific_heat)),
+            f"companions[{index}].specific_heat",
+            0.0,
+            limits["specific_heat_max"],
+            "J/(kg*K)",
+            "must be >= 0",
+        )
+    if case.heat_gain is not None:
+        _finite(case.heat_gain.power, "heat_gain.power")
+        _within(
+            case.heat_gain.conductance, "heat_gain.conductance", 0.0, None, "W/K", "must be >= 0"
+        )
+        if case.heat_gain.surroundings_temperature is not None:
+            _within(
+                case.heat_gain.surroundings_temperature,
+                "heat_gain.surroundings_temperature",
+                150.0,
+                500.0,
+                "K",
+                "temperature of the surroundings the product exchanges heat with",
+            )
+    _within(
+        case.end_time,
+        "end_time",
+        0.0,
+        limits["end_time_max"],
+        "s",
+        "the simulated time, up to 30 days",
+        open_minimum=True,
+    )
+    if case.target_temperature is not None:
+        _within(
+            case.target_temperature,
+            "target_temperature",
+            ICE_TEMPERATURE_MIN,
+            case.product.initial_temperature,
+            "K",
+            "the target lies below the product's initial temperature, above 173.15 K",
+        )
+    for index, limit in enumerate(case.schedule):
+        _within(
+            limit.time,
+            f"schedule[{index}].time",
+            0.0,
+            case.end_time,
+            "s",
+            "within the simulated time",
+            open_minimum=True,
+        )
+        _within(
+            limit.temperature,
+            f"schedule[{index}].temperature",
+            ICE_TEMPERATURE_MIN,
+            LIQUID_TEMPERATURE_MAX,
+            "K",
+            "a product temperature limit",
+        )
+    points = case.series_points
+    if not isinstance(points, int) or not (
+        limits["series_points_min"] <= points <= limits["series_points_max"]
+    ):
+        raise InvalidInputError("series_points", "must be an integer from 10 to 5000", points)

@@ -1,0 +1,182 @@
+"""What a vacuum-chamber simulation returns: events, time series, summary, balances."""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+
+from service.core.advisories import Advisory
+from service.core.phase import FloatArray
+from service.core.sources import PropertySource
+
+__all__ = [
+    "ChamberStates",
+    "MassEnergyBalance",
+    "ScheduleCheck",
+    "SimulationEvent",
+    "SimulationSummary",
+    "VacuumChamberResult",
+]
+
+
+@dataclass(frozen=True)
+class ChamberStates:
+    """Chamber and product at a sequence of times (arrays of one length, SI).
+
+    Attributes
+    ----------
+    time : ndarray
+        s from the start of pumping.
+    total_pressure, air_pressure, vapor_pressure : ndarray
+        Chamber pressures, Pa.
+    product_temperature : ndarray
+        K.
+    product_vapor_pressure : ndarray
+        Equilibrium vapor pressure over the product, Pa.
+    evaporated_mass : ndarray
+        Water the product has lost, kg.
+    ice_fraction : ndarray
+        Ice mass / initial water mass.
+    evaporation_rate : ndarray
+        kg/s leaving the product (negative: condensing onto it).
+    pump_volume_flow : ndarray
+        Effective pumping speed S_eff(p), m3/s.
+    vapor_mass_flow_to_pump, vapor_mass_flow_to_condenser : ndarray
+        kg/s.
+    vapor_volume_flow_to_pump, vapor_volume_flow_to_condenser : ndarray
+        The vapor's share of the volume flow at the chamber's total pressure and
+        temperature, m3/s (mass flow R T_g / p).
+    condenser_load : ndarray
+        W.
+    condenser_ice : ndarray
+        kg of ice on the condenser.
+    heat_gain_rate : ndarray
+        W into the product.
+    """
+
+    time: FloatArray
+    total_pressure: FloatArray
+    air_pressure: FloatArray
+    vapor_pressure: FloatArray
+    product_temperature: FloatArray
+    product_vapor_pressure: FloatArray
+    evaporated_mass: FloatArray
+    ice_fraction: FloatArray
+    evaporation_rate: FloatArray
+    pump_volume_flow: FloatArray
+    vapor_mass_flow_to_pump: FloatArray
+    vapor_volume_flow_to_pump: FloatArray
+    vapor_mass_flow_to_condenser: FloatArray
+    vapor_volume_flow_to_condenser: FloatArray
+    condenser_load: FloatArray
+    condenser_ice: FloatArray
+    heat_gain_rate: FloatArray
+
+
+@dataclass(frozen=True)
+class SimulationEvent:
+    """Something that happened, when, and the state then.
+
+    Attributes
+    ----------
+    name : str
+        One of ``flash-point``, ``boiling-stops``, ``freezing-starts``, ``fully-frozen``,
+        ``target-reached``, ``end-time``, ``condenser-capacity-exceeded``,
+        ``schedule-limit-missed``, ``model-range-left``, ``water-exhausted``.
+    time : float
+        s.
+    state : ChamberStates
+        The state at ``time`` (one element).
+    detail : str
+        One sentence.
+    """
+
+    name: str
+    time: float
+    state: ChamberStates
+    detail: str
+
+
+@dataclass(frozen=True)
+class ScheduleCheck:
+    """One schedule limit and how the product met it.
+
+    Attributes
+    ----------
+    time, temperature_limit : float
+        s, K.
+    product_temperature : float or None
+        K at ``time``; None when the simulation ended before.
+    met : bool or None
+        None when not evaluated (the simulation ended before ``time``).
+    """
+
+    time: float
+    temperature_limit: float
+    product_temperature: float | None
+    met: bool | None
+
+
+@dataclass(frozen=True)
+class MassEnergyBalance:
+    """Closure of the water mass and the product energy over the simulation.
+
+    Mass: initial water + initial chamber vapor = final water + final chamber vapor +
+    vapor to pump + vapor to condenser. Energy: E_initial + heat gained =
+    E_final + enthalpy carried by the vapor leaving the product.
+    """
+
+    initial_water: float
+    final_water: float
+    initial_chamber_vapor: float
+    final_chamber_vapor: float
+    vapor_to_pump: float
+    vapor_to_condenser: float
+    mass_residual: float
+    relative_mass_residual: float
+    initial_energy: float
+    final_energy: float
+    vapor_enthalpy: float
+    heat_gained: float
+    energy_residual: float
+    relative_energy_residual: float
+
+
+@dataclass(frozen=True)
+class SimulationSummary:
+    """Headline numbers (SI; times in s, None where the event did not happen)."""
+
+    end_reason: str
+    end_time: float
+    flash_time: float | None
+    freezing_start_time: float | None
+    fully_frozen_time: float | None
+    target_time: float | None
+    final_temperature: float
+    final_pressure: float
+    evaporated_mass: float
+    evaporated_fraction: float
+    ice_mass: float
+    vapor_to_pump: float
+    vapor_to_condenser: float
+    condenser_energy: float
+    peak_condenser_load: float
+    peak_vapor_mass_flow_to_pump: float
+    peak_evaporation_rate: float
+    schedule_met: bool | None
+    solver_steps: int
+    right_hand_side_evaluations: int
+
+
+@dataclass(frozen=True)
+class VacuumChamberResult:
+    """Output of :func:`service.core.simulation.simulate_vacuum_chamber`."""
+
+    events: tuple[SimulationEvent, ...]
+    series: ChamberStates
+    summary: SimulationSummary
+    balance: MassEnergyBalance
+    schedule: tuple[ScheduleCheck, ...]
+    assumptions: tuple[str, ...]
+    warnings: tuple[Advisory, ...]
+    references: tuple[str, ...]
+    property_sources: tuple[PropertySource, ...]

@@ -1,0 +1,737 @@
+"""Vacuum-chamber process simulation: pump-down, flashing, freezing, sublimation over time.
+
+One public function, :func:`simulate_vacuum_chamber`: it validates the case, builds the
+ODE system (:mod:`service.core.simulation.chamber_model`), integrates it with scipy's
+LSODA (switching automatically between non-stiff and stiff BDF methods) in segments
+separated by events, and assembles events, a time series, a summary, the mass and
+energy balances, the schedule check, assumptions and warnings.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from dataclasses import dataclass, field
+from typing import Any, Final
+
+import numpy as np
+from scipy.integrate import solve_ivp
+
+from service.core.advisories import Advisory
+from service.core.constants import SPECIFIC_GAS_CONSTANT
+from service.core.errors import NotConvergedError, UnsupportedStateError
+from service.core.helmholtz import fluid_properties_at
+from service.core.phase import FloatArray
+from service.core.simulation.chamber_model import (
+    AIR,
+    CONDENSED,
+    CONDENSER_HEAT,
+    ENERGY,
+    HEAT_GAINED,
+    PUMPED,
+    STATE_SIZE,
+    VAPOR,
+    VAPOR_ENTHALPY,
+    WATER,
+    ChamberModel,
+    Regime,
+)
+from service.core.simulation.condenser import CondenserCapture
+from service.core.simulation.evaporation import KineticEvaporation
+from service.core.simulation.inputs import VacuumChamberCase, validate_case
+from service.core.simulation.load import LoadModel, load_model
+from service.core.simulation.path_tables import (
+    ICE_TEMPERATURE_MIN,
+    LIQUID_TEMPERATURE_MAX,
+    LIQUID_TEMPERATURE_MIN,
+)
+from service.core.simulation.pump import PumpingSpeed
+from service.core.simulation.results import (
+    ChamberStates,
+    MassEnergyBalance,
+    ScheduleCheck,
+    SimulationEvent,
+    SimulationSummary,
+    VacuumChamberResult,
+)
+from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION
+
+__all__ = ["REFERENCES", "simulate_vacuum_chamber"]
+
+REFERENCES: Final = (
+    "Chamber air and vapor balances: Wang, L. and Sun, D.-W. (2002), Modelling vacuum "
+    "cooling process of cooked meat - part 1: analysis of vacuum cooling system, "
+    "Int. J. Refrigeration 25(7), 854-861 (from memory).",
+    "Pump-down law V dp/dt = Q - S p and effective speed S (1 - p_ult/p): standard "
+    "vacuum-technology result, e.g. O'Hanlon, J. F., A User's Guide to Vacuum Technology, "
+    "3rd ed., Wiley (2003) (from memory).",
+    "Hertz-Knudsen-Langmuir evaporation and impingement flux: Eames, I. W., Marr, N. J. and "
+    "Sabir, H. (1997), The evaporation coefficient of water: a review, Int. J. Heat Mass "
+    "Transfer 40(12), 2963-2973 (from memory).",
+    "ODE integration: LSODA (Hindmarsh, A. C., ODEPACK, 1983; Petzold, L., SIAM J. Sci. "
+    "Stat. Comput. 4, 136-148, 1983) as wrapped by scipy.integrate.solve_ivp.",
+)
+
+_RELATIVE_TOLERANCE: Final = 1e-8
+_ABSOLUTE_SCALE: Final = 1e-10
+_WATER_LEFT: Final = 1e-3
+"""Fraction of the initial water below which the simulation stops (water exhausted)."""
+_MAX_SEGMENTS: Final = 200
+_LATENT_SCALE: Final = 3.0e6
+"""J/kg, scale of the product energy for the absolute tolerances."""
+_SOLUTION_ACTIVITY_WARNING: Final = 0.9
+_DRIFT_WARNING: Final = 1e-6
+
+EventFunction = Callable[[float, FloatArray], float]
+
+
+@dataclass
+class _Segment:
+    start: float
+    end: float
+    regime: Regime
+    solution: Any
+
+
+@dataclass
+class _Run:
+    """Mutable bookkeeping of one simulation."""
+
+    segments: list[_Segment] = field(default_factory=list)
+    events: list[tuple[str, float, FloatArray, Regime, str]] = field(default_factory=list)
+    fired: set[str] = field(default_factory=set)
+    end_reason: str = "end-time"
+    steps: int = 0
+
+
+def _event(function: EventFunction, *, terminal: bool, direction: float) -> EventFunction:
+    function.terminal = terminal  # type: ignore[attr-defined]
+    function.direction = direction  # type: ignore[attr-defined]
+    return function
+
+
+def _event_functions(
+    model: ChamberModel, case: VacuumChamberCase, load: LoadModel, run: _Run
+) -> dict[str, EventFunction]:
+    """The events watched in the current regime (name -> function with attributes)."""
+    events: dict[str, EventFunction] = {}
+    regime = model.regime
+    if regime == "sealed" or (regime == "kinetic" and "flash-point" not in run.fired):
+        events["flash-point"] = _event(
+            lambda t, y: (
+                model.rates(y).total_pressure - model.rates(y).product.equilibrium_pressure
+            ),
+            terminal=regime == "sealed",
+            direction=-1.0,
+        )
+    if regime == "boiling":
+        events["boiling-stops"] = _event(
+            lambda t, y: model.rates(y).evaporation, terminal=True, direction=-1.0
+        )
+    if "freezing-starts" not in run.fired:
+        events["freezing-starts"] = _event(
+            lambda t, y: model.rates(y).product.liquid_margin, terminal=True, direction=-1.0
+        )
+    if not model.product.has_solute and "fully-frozen" not in run.fired:
+        events["fully-frozen"] = _event(
+            lambda t, y: model.rates(y).product.frozen_margin, terminal=True, direction=-1.0
+        )
+    target = case.target_temperature
+    if target is not None:
+        events["target-reached"] = _event(
+            lambda t, y: model.rates(y).product.temperature - target,
+            terminal=True,
+            direction=-1.0,
+        )
+    condenser = case.condenser
+    if (
+        condenser is not None
+        and condenser.ice_capacity is not None
+        and "condenser-capacity-exceeded" not in run.fired
+    ):
+        capacity = condenser.ice_capacity
+        events["condenser-capacity-exceeded"] = _event(
+            lambda t, y: float(y[CONDENSED]) - capacity, terminal=False, direction=1.0
+        )
+    lowest = LIQUID_TEMPERATURE_MIN if model.product.has_solute else ICE_TEMPERATURE_MIN
+    events["model-range-left"] = _event(
+        lambda t, y: model.rates(y).product.temperature - lowest, terminal=True, direction=-1.0
+    )
+    events["model-range-left-above"] = _event(
+        lambda t, y: LIQUID_TEMPERATURE_MAX - model.rates(y).product.temperature,
+        terminal=True,
+        direction=-1.0,
+    )
+    water_left = _WATER_LEFT * load.water_mass
+    events["water-exhausted"] = _event(
+        lambda t, y: float(y[WATER]) - water_left, terminal=True, direction=-1.0
+    )
+    return events
+
+
+_STOPPING: Final = frozenset(
+    {"target-reached", "model-range-left", "model-range-left-above", "water-exhausted"}
+)
+_ONCE: Final = frozenset(
+    {"flash-point", "freezing-starts", "fully-frozen", "condenser-capacity-exceeded"}
+)
+
+
+def _detail(name: str, regime: Regime) -> str:
+    return {
+        "flash-point": "The chamber pressure has fallen to the product's vapor pressure: "
+        + ("the product starts to boil." if regime != "kinetic" else "flashing starts."),
+        "boiling-resumes": "The chamber pressure has fallen to the product's vapor pressure "
+        "again: boiling resumes.",
+        "boiling-stops": "The pump and condenser no longer draw vapor faster than the air "
+        "pressure rises: the product stops boiling.",
+        "freezing-starts": "Ice forms in the product.",
+        "fully-frozen": "All the product's water is frozen.",
+        "target-reached": "The product has reached the target temperature.",
+        "end-time": "The end time is reached.",
+        "condenser-capacity-exceeded": "The ice on the condenser exceeds its capacity.",
+        "model-range-left": "The product temperature leaves the model's range; the "
+        "simulation stops.",
+        "model-range-left-above": "The product temperature rises above 373.15 K; the "
+        "simulation stops.",
+        "water-exhausted": "The product has lost 99.9 % of its water; the simulation stops.",
+    }[name]
+
+
+def _integrate(
+    model: ChamberModel,
+    case: VacuumChamberCase,
+    load: LoadModel,
+    initial: FloatArray,
+) -> _Run:
+    run = _Run()
+    scale = np.array(
+        [
+            case.chamber.initial_pressure + case.chamber.initial_vapor_pressure,
+            load.water_mass,
+            load.water_mass,
+            load.water_mass * _LATENT_SCALE,
+            load.water_mass,
+            load.water_mass,
+            load.water_mass * _LATENT_SCALE,
+            load.water_mass * _LATENT_SCALE,
+            load.water_mass * _LATENT_SCALE,
+        ]
+    )
+    t0, y0 = 0.0, initial
+    for _ in range(_MAX_SEGMENTS):
+        events = _event_functions(model, case, load, run)
+        names = list(events)
+        solution = solve_ivp(
+            model.derivatives,
+            (t0, case.end_time),
+            y0,
+            method="LSODA",
+            rtol=_RELATIVE_TOLERANCE,
+            atol=_ABSOLUTE_SCALE * scale,
+            events=list(events.values()),
+            dense_output=True,
+        )
+        if solution.status < 0:
+            raise NotConvergedError(
+                f"vacuum-chamber ODE integration ({solution.message})", len(solution.t), 0.0
+            )
+        run.steps += len(solution.t) - 1
+        regime = model.regime
+        t1 = float(solution.t[-1])
+        run.segments.append(_Segment(t0, t1, regime, solution.sol))
+        stop_name: str | None = None
+        for name, times, states in zip(names, solution.t_events, solution.y_events, strict=True):
+            for time, state in zip(times, states, strict=True):
+                if not events[name].terminal:  # type: ignore[attr-defined]
+                    run.fired.add(name)
+                    run.events.append(
+                        (name, float(time), np.array(state), regime, _detail(name, regime))
+                    )
+                elif abs(float(time) - t1) <= 1e-12 * max(1.0, t1):
+                    stop_name = name if stop_name is None or name in _STOPPING else stop_name
+        t0, y0 = t1, np.array(solution.y[:, -1])
+        if solution.status == 0 or stop_name is None:
+            run.end_reason = "end-time"
+            run.events.append(("end-time", t1, y0, regime, _detail("end-time", regime)))
+            return run
+        label = stop_name
+        if stop_name == "flash-point":
+            if "flash-point" in run.fired:
+                label = "boiling-resumes"
+            model.regime = "boiling"
+        elif stop_name == "boiling-stops":
+            model.regime = "sealed"
+        if stop_name in _ONCE:
+            run.fired.add(stop_name)
+        public = "model-range-left" if stop_name == "model-range-left-above" else label
+        run.events.append((public, t1, y0, regime, _detail(label, regime)))
+        if stop_name in _STOPPING:
+            run.end_reason = public
+            return run
+        if t1 >= case.end_time:
+            run.end_reason = "end-time"
+            run.events.append(("end-time", t1, y0, regime, _detail("end-time", regime)))
+            return run
+    raise NotConvergedError(
+        "vacuum-chamber simulation: too many regime changes (the product switches between "
+        "boiling and not boiling)",
+        _MAX_SEGMENTS,
+        0.0,
+    )
+
+
+def _states(
+    model: ChamberModel, load: LoadModel, times: FloatArray, ys: FloatArray, regimes: list[Regime]
+) -> ChamberStates:
+    """Derived quantities at states ``ys`` (shape (STATE_SIZE, n)) in their regimes."""
+    count = times.size
+    columns = np.empty((13, count))
+    saved = model.regime
+    r_gas = SPECIFIC_GAS_CONSTANT * model.gas_temperature
+    for index in range(count):
+        model.regime = regimes[index]
+        r = model.rates(ys[:, index])
+        total = r.total_pressure
+        columns[:, index] = (
+            total,
+            r.air_pressure,
+            r.vapor_pressure,
+            r.product.temperature,
+            r.product.equilibrium_pressure,
+            r.product.ice_mass,
+            r.evaporation,
+            r.pump_speed,
+            r.vapor_to_pump,
+            r.vapor_to_condenser,
+            r.condenser_load,
+            r.heat_gain,
+            r_gas / total if total > 0.0 else 0.0,
+        )
+    model.regime = saved
+    volume_per_mass = columns[12]
+    return ChamberStates(
+        time=np.asarray(times, dtype=np.float64),
+        total_pressure=columns[0],
+        air_pressure=columns[1],
+        vapor_pressure=columns[2],
+        product_temperature=columns[3],
+        product_vapor_pressure=columns[4],
+        evaporated_mass=load.water_mass - ys[WATER],
+        ice_fraction=columns[5] / load.water_mass,
+        evaporation_rate=columns[6],
+        pump_volume_flow=columns[7],
+        vapor_mass_flow_to_pump=columns[8],
+        vapor_volume_flow_to_pump=columns[8] * volume_per_mass,
+        vapor_mass_flow_to_condenser=columns[9],
+        vapor_volume_flow_to_condenser=columns[9] * volume_per_mass,
+        condenser_load=columns[10],
+        condenser_ice=np.asarray(ys[CONDENSED], dtype=np.float64),
+        heat_gain_rate=columns[11],
+    )
+
+
+def _series(model: ChamberModel, load: LoadModel, run: _Run, points: int) -> ChamberStates:
+    end = run.segments[-1].end
+    times = np.linspace(0.0, end, points)
+    times = np.unique(np.concatenate([times, [event[1] for event in run.events]]))
+    ys = np.empty((STATE_SIZE, times.size))
+    regimes: list[Regime] = ["sealed"] * times.size
+    for number, segment in enumerate(run.segments):
+        last = number == len(run.segments) - 1
+        mask = (times >= segment.start) & ((times < segment.end) | last)
+        if not mask.any():
+            continue
+        ys[:, mask] = segment.solution(times[mask])
+        for index in np.flatnonzero(mask):
+            regimes[int(index)] = segment.regime
+    return _states(model, load, times, ys, regimes)
+
+
+def _value_at(run: _Run, time: float) -> tuple[FloatArray, Regime] | None:
+    for segment in run.segments:
+        if segment.start <= time <= segment.end:
+            return np.asarray(segment.solution(time), dtype=np.float64), segment.regime
+    return None
+
+
+def _schedule(
+    model: ChamberModel, case: VacuumChamberCase, run: _Run
+) -> tuple[list[ScheduleCheck], list[tuple[str, float, FloatArray, Regime, str]]]:
+    checks: list[ScheduleCheck] = []
+    missed: list[tuple[str, float, FloatArray, Regime, str]] = []
+    for limit in sorted(case.schedule, key=lambda item: item.time):
+        found = _value_at(run, limit.time)
+        if found is None:
+            target = case.target_temperature
+            # the process ended at its target before this time: met if the target is within
+            reached = (
+                run.end_reason == "target-reached"
+                and target is not None
+                and target <= limit.temperature
+            )
+            met = True if reached else None
+            checks.append(ScheduleCheck(limit.time, limit.temperature, None, met))
+            continue
+        y, regime = found
+        saved = model.regime
+        model.regime = regime
+        temperature = model.rates(y).product.temperature
+        model.regime = saved
+        met = temperature <= limit.temperature
+        checks.append(ScheduleCheck(limit.time, limit.temperature, temperature, met))
+        if not met:
+            missed.append(
+                (
+                    "schedule-limit-missed",
+                    limit.time,
+                    y,
+                    regime,
+                    f"The product is at {temperature:.6g} K, above the schedule's limit of "
+                    f"{limit.temperature:.6g} K at this time.",
+                )
+            )
+    return checks, missed
+
+
+def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
+    items = [
+        "Chamber gas: ideal-gas mixture of air and water vapor, well mixed, isothermal at the "
+        "chamber temperature; the air leaking in is at that temperature.",
+        "Air balance V dp_a/dt = Q_leak - S_eff(p) p_a; vapor balance dm_v/dt = j - S_eff m_v/V "
+        "- j_condenser; the pump takes each gas at its partial density.",
+        "Pump: S_eff(p) = S(p) (1 - p_ult/p) above the ultimate pressure, 0 at or below it; "
+        "S(p) nominal or the speed curve interpolated linearly in ln p, constant beyond its ends.",
+        "Product: uniform temperature; its phases (liquid, ice, solution) in equilibrium with "
+        "each other at every instant; state recovered from its water mass and energy through "
+        "the equilibrium path (no supercooling: ice forms at the freezing onset).",
+        "Vapor leaves (or reaches) the product with the enthalpy of saturated vapor at the "
+        "product temperature; pressure work V dp of the condensed phases neglected (of order "
+        "1 J per kg of water).",
+        "Properties: IAPWS-95 (liquid, supercooled liquid, vapor), IAPWS R10-06 (ice Ih), "
+        "IAPWS R14-08 (sublimation pressure), through piecewise Chebyshev tables fitted to "
+        "the balances' equilibrium paths.",
+        "Evaporated mass = water the product lost; ice_fraction = ice mass / initial water "
+        "mass; evaporated_fraction = evaporated mass / initial water mass.",
+        "Schedule: a limit is met when the product is at or below it at its time; a limit "
+        "after the process ended at a target at or below it counts as met.",
+        f"Integration: scipy solve_ivp LSODA, rtol {_RELATIVE_TOLERANCE:g}, in segments "
+        "between events; events located on the dense output.",
+    ]
+    if case.product.evaporation == "kinetic":
+        items.append(
+            "Evaporation: Hertz-Knudsen-Langmuir flux j = alpha A (p_eq(T) - p_v) / "
+            "sqrt(2 pi R T) at all chamber pressures (diffusion through the air not limiting); "
+            "negative j is condensation onto the product."
+        )
+    else:
+        items.append(
+            "Evaporation (equilibrium): none while the chamber pressure is above the product's "
+            "vapor pressure (evaporation into the air neglected); from the flash point on, the "
+            "product boils and holds the chamber at its vapor pressure, p_a + p_v = p_eq."
+        )
+    if case.condenser is not None:
+        items.append(
+            "Condenser: captures C (p_v - p_sub(T_c)) / (R T_g) of vapor (C its vapor "
+            "conductance), capped by refrigeration capacity / (h_v(T_g) - h_ice(T_c)); load = "
+            "capture x (h_v(T_g) - h_ice(T_c)); its ice never sublimes back; capacity exceeded "
+            "is reported but capture continues."
+        )
+    if case.heat_gain is not None:
+        items.append("Heat gain: Q = P + UA (T_surroundings - T_product).")
+    else:
+        items.append("Adiabatic product: no heat exchange with shelf, walls or air.")
+    if case.companions:
+        items.append("Companion masses have constant specific heats and the product temperature.")
+    if case.product.composition is not None:
+        items.append(
+            "Non-water part: Choi and Okos (1986) specific heats of protein, fat, carbohydrate, "
+            "fiber and ash (coefficients from memory)."
+        )
+    if case.product.solute is not None:
+        items.append(
+            "Solute: ideal (Raoult) solution with effective molar mass and van 't Hoff factor "
+            "(Heldman 1974); vapor pressure a_w p_liquid(T); part of the non-water mass, its "
+            "heat in the solids' specific heat; no eutectic: some water stays unfrozen."
+        )
+    return tuple(items)
+
+
+def _warnings(
+    case: VacuumChamberCase,
+    load: LoadModel,
+    run: _Run,
+    series: ChamberStates,
+    checks: list[ScheduleCheck],
+    drift: float,
+) -> tuple[Advisory, ...]:
+    items: list[Advisory] = []
+    names = {event[0] for event in run.events}
+    if "condenser-capacity-exceeded" in names:
+        items.append(
+            Advisory(
+                "condenser-capacity-exceeded",
+                "The condenser holds more ice than its capacity before the end; results after "
+                "that time assume it keeps capturing.",
+            )
+        )
+    if any(check.met is False for check in checks):
+        items.append(Advisory("schedule-missed", "The product misses at least one schedule limit."))
+    if any(check.met is None for check in checks):
+        items.append(
+            Advisory(
+                "schedule-not-evaluated",
+                "The simulation ended before at least one schedule time; that limit is not "
+                "evaluated.",
+            )
+        )
+    if case.target_temperature is not None and run.end_reason != "target-reached":
+        items.append(
+            Advisory(
+                "target-not-reached",
+                "The product does not reach the target temperature within the simulation.",
+            )
+        )
+    if "flash-point" not in names:
+        items.append(
+            Advisory(
+                "no-flash-point",
+                "The chamber pressure never falls to the product's vapor pressure.",
+            )
+        )
+    if run.end_reason in ("model-range-left", "water-exhausted"):
+        items.append(Advisory(run.end_reason, _detail(run.end_reason, "sealed")))
+    if case.product.solute is not None:
+        items.append(
+            Advisory(
+                "metastable",
+                "Liquid water below 273.16 K (in the solution) uses the metastable extension "
+                "of IAPWS-95.",
+            )
+        )
+        activity = load.thermodynamics.water_activity(
+            float(series.evaporated_mass[-1]), float(series.ice_fraction[-1]), load.water_mass
+        )
+        if activity < _SOLUTION_ACTIVITY_WARNING:
+            items.append(
+                Advisory(
+                    "solution-concentrated",
+                    f"The unfrozen solution ends with a water activity below "
+                    f"{_SOLUTION_ACTIVITY_WARNING}; the ideal-solution model is outside its "
+                    "reliable range.",
+                )
+            )
+    if load.composition_rescaled:
+        items.append(
+            Advisory(
+                "composition-rescaled",
+                "The composition's mass fractions did not sum to 1 and were rescaled.",
+            )
+        )
+    if case.product.evaporation == "kinetic" and float(np.min(series.evaporation_rate)) < 0.0:
+        items.append(
+            Advisory(
+                "condensation-on-product",
+                "At times the chamber vapor pressure exceeds the product's vapor pressure and "
+                "vapor condenses onto the product.",
+            )
+        )
+    if case.condenser is not None:
+        condenser_pressure = CondenserCapture(
+            case.condenser, case.chamber.temperature, 0.0
+        ).surface_pressure
+        if condenser_pressure >= float(series.vapor_pressure[-1]):
+            items.append(
+                Advisory(
+                    "condenser-too-warm",
+                    "The condenser's sublimation pressure is not below the final chamber vapor "
+                    "pressure: it no longer captures vapor at the end.",
+                )
+            )
+    if drift > _DRIFT_WARNING:
+        items.append(
+            Advisory(
+                "constraint-drift",
+                f"The chamber vapor mass drifted {drift:.2g} (relative) from the boiling "
+                "constraint during integration.",
+            )
+        )
+    return tuple(items)
+
+
+def _event_record(
+    model: ChamberModel,
+    load: LoadModel,
+    event: tuple[str, float, FloatArray, Regime, str],
+) -> SimulationEvent:
+    name, time, y, regime, detail = event
+    state = _states(model, load, np.array([time]), np.asarray(y)[:, None], [regime])
+    return SimulationEvent(name=name, time=time, state=state, detail=detail)
+
+
+def _first(run: _Run, name: str) -> float | None:
+    return next((event[1] for event in run.events if event[0] == name), None)
+
+
+def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
+    """Simulate a vacuum chamber with its pump, condenser and product over time.
+
+    Parameters
+    ----------
+    case : VacuumChamberCase
+        Chamber, pump, optional condenser, product, companions, heat gain, end
+        conditions and schedule (SI scalars).
+
+    Returns
+    -------
+    VacuumChamberResult
+        Events, time series, summary, mass and energy balance, schedule check,
+        assumptions, warnings, model references and property sources.
+
+    Raises
+    ------
+    InvalidInputError
+        Non-finite, malformed or conflicting input.
+    OutOfRangeError
+        An input outside its range (the error names the field by its dotted path).
+    UnsupportedStateError
+        Equilibrium evaporation with a chamber that starts below the product's vapor
+        pressure.
+    NotConvergedError
+        The ODE solver failed.
+
+    Notes
+    -----
+    V dp_a/dt = Q_leak - S_eff p_a; dm_v/dt = j - S_eff m_v / V - j_c; dm/dt = -j;
+    dE/dt = Q_gain - h_v j; temperature and ice from (E, m) on the equilibrium path.
+    See :mod:`service.core.simulation.chamber_model`.
+
+    References
+    ----------
+    Wang and Sun, Int. J. Refrig. 25 (2002); O'Hanlon, A User's Guide to Vacuum
+    Technology, 3rd ed. (2003); IAPWS R6-95(2018), R10-06(2009), R14-08(2011).
+
+    Examples
+    --------
+    >>> from service.core.simulation import Chamber, Product, Pump, VacuumChamberCase
+    >>> result = simulate_vacuum_chamber(VacuumChamberCase(
+    ...     chamber=Chamber(free_volume=0.5, initial_pressure=101325.0, temperature=293.15),
+    ...     pump=Pump(nominal_speed=0.05, ultimate_pressure=10.0),
+    ...     product=Product(mass=1.0, initial_temperature=293.15),
+    ...     end_time=600.0, target_temperature=278.15))
+    >>> result.summary.end_reason
+    'target-reached'
+    """
+    validate_case(case)
+    load = load_model(case.product, case.companions)
+    chamber = case.chamber
+    gas_vapor_enthalpy = float(
+        fluid_properties_at(chamber.temperature, 100.0, phase="vapor").specific_enthalpy
+    )
+    product = case.product
+    evaporation = (
+        KineticEvaporation(
+            float(product.exposed_area or 0.0), float(product.evaporation_coefficient or 0.0)
+        )
+        if product.evaporation == "kinetic"
+        else None
+    )
+    model = ChamberModel(
+        volume=chamber.free_volume,
+        gas_temperature=chamber.temperature,
+        leak_rate=chamber.leak_rate,
+        pump=PumpingSpeed(case.pump),
+        condenser=None
+        if case.condenser is None
+        else CondenserCapture(case.condenser, chamber.temperature, gas_vapor_enthalpy),
+        product=load.thermodynamics,
+        evaporation=evaporation,
+        heat_gain=case.heat_gain,
+    )
+    model.start_from(product.initial_temperature)
+    initial = np.zeros(STATE_SIZE)
+    initial[AIR] = chamber.initial_pressure
+    initial[VAPOR] = chamber.initial_vapor_pressure * model.vapor_per_pressure
+    initial[WATER] = load.water_mass
+    initial[ENERGY] = load.initial_energy
+    start = model.rates(initial)
+    if model.regime == "sealed" and start.total_pressure <= start.product.equilibrium_pressure:
+        raise UnsupportedStateError(
+            "chamber.initial_pressure",
+            f"the chamber starts at {start.total_pressure:.6g} Pa, at or below the product's "
+            f"vapor pressure {start.product.equilibrium_pressure:.6g} Pa: the product would "
+            "boil at once; the equilibrium model needs a chamber that starts above it (use "
+            "kinetic evaporation)",
+            start.total_pressure,
+        )
+    run = _integrate(model, case, load, initial)
+    checks, missed = _schedule(model, case, run)
+    run.events.extend(missed)
+    run.events.sort(key=lambda event: event[1])
+    series = _series(model, load, run, case.series_points)
+    final = np.asarray(run.segments[-1].solution(run.segments[-1].end))
+    last_regime = run.segments[-1].regime
+    model.regime = last_regime
+    final_rates = model.rates(final)
+    water0 = load.water_mass
+    drift = 0.0
+    if last_regime == "boiling":
+        constrained = final_rates.vapor_pressure * model.vapor_per_pressure
+        drift = abs(float(final[VAPOR]) - constrained) / water0
+    vapor0 = float(initial[VAPOR])
+    mass_residual = (
+        water0 + vapor0 - float(final[WATER] + final[VAPOR] + final[PUMPED] + final[CONDENSED])
+    )
+    energy_residual = float(
+        load.initial_energy + final[HEAT_GAINED] - final[ENERGY] - final[VAPOR_ENTHALPY]
+    )
+    vapor_enthalpy = float(final[VAPOR_ENTHALPY])
+    balance = MassEnergyBalance(
+        initial_water=water0,
+        final_water=float(final[WATER]),
+        initial_chamber_vapor=vapor0,
+        final_chamber_vapor=float(final[VAPOR]),
+        vapor_to_pump=float(final[PUMPED]),
+        vapor_to_condenser=float(final[CONDENSED]),
+        mass_residual=mass_residual,
+        relative_mass_residual=mass_residual / water0,
+        initial_energy=load.initial_energy,
+        final_energy=float(final[ENERGY]),
+        vapor_enthalpy=vapor_enthalpy,
+        heat_gained=float(final[HEAT_GAINED]),
+        energy_residual=energy_residual,
+        relative_energy_residual=energy_residual / max(abs(vapor_enthalpy), 1.0),
+    )
+    evaporated = water0 - float(final[WATER])
+    summary = SimulationSummary(
+        end_reason=run.end_reason,
+        end_time=run.segments[-1].end,
+        flash_time=_first(run, "flash-point"),
+        freezing_start_time=_first(run, "freezing-starts"),
+        fully_frozen_time=_first(run, "fully-frozen"),
+        target_time=_first(run, "target-reached"),
+        final_temperature=final_rates.product.temperature,
+        final_pressure=final_rates.total_pressure,
+        evaporated_mass=evaporated,
+        evaporated_fraction=evaporated / water0,
+        ice_mass=final_rates.product.ice_mass,
+        vapor_to_pump=float(final[PUMPED]),
+        vapor_to_condenser=float(final[CONDENSED]),
+        condenser_energy=float(final[CONDENSER_HEAT]),
+        peak_condenser_load=float(np.max(series.condenser_load)),
+        peak_vapor_mass_flow_to_pump=float(np.max(series.vapor_mass_flow_to_pump)),
+        peak_evaporation_rate=float(np.max(series.evaporation_rate)),
+        schedule_met=None if not checks else all(check.met is True for check in checks),
+        solver_steps=run.steps,
+        right_hand_side_evaluations=model.evaluations,
+    )
+    return VacuumChamberResult(
+        events=tuple(_event_record(model, load, event) for event in run.events),
+        series=series,
+        summary=summary,
+        balance=balance,
+        schedule=tuple(checks),
+        assumptions=_assumptions(case),
+        warnings=_warnings(case, load, run, series, checks, drift),
+        references=REFERENCES,
+        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
+    )
