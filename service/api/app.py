@@ -41,7 +41,7 @@ _log = logging.getLogger("tripoint.app")
 CSV_ROUTES = (
     CsvRoute("/v1/properties/"),
     CsvRoute("/v1/balances/", one_call_per_row=True),
-    CsvRoute("/v1/simulations/", one_call_per_row=True),
+    CsvRoute("/v1/simulations/", one_call_per_row=True, answer_part="series"),
 )
 """Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
 

@@ -80,6 +80,9 @@ class CsvRoute:
 
     prefix: str
     one_call_per_row: bool = False
+    answer_part: str | None = None
+    """With ``Accept: text/csv``, flatten only this member of each JSON answer (e.g. a
+    simulation's ``series``, one row per time step) instead of the whole answer."""
 
     def matches(self, path: str) -> bool:
         """Whether ``path`` is one of these routes."""
@@ -496,7 +499,7 @@ class CsvAdapter:
             return
         if not sends_csv:
             captured = await self._call(scope, receive, None)
-            await self._answer(send, [captured], wants_csv=True, as_list=False)
+            await self._answer(send, [captured], route, wants_csv=True)
             return
         try:
             table = parse_csv(await _read_body(receive))
@@ -544,7 +547,7 @@ class CsvAdapter:
                 await self._forward(send, captured)
                 return
             results.append(captured)
-        await self._answer(send, results, wants_csv=wants_csv, as_list=route.one_call_per_row)
+        await self._answer(send, results, route, wants_csv=wants_csv)
 
     async def _call(self, scope: Scope, receive: Receive, body: bytes | None) -> _Captured:
         """Run the route with ``body`` as its JSON body (None: the original body)."""
@@ -593,14 +596,17 @@ class CsvAdapter:
         await send({"type": "http.response.body", "body": body})
 
     async def _answer(
-        self, send: Send, results: list[_Captured], *, wants_csv: bool, as_list: bool
+        self, send: Send, results: list[_Captured], route: CsvRoute, *, wants_csv: bool
     ) -> None:
+        as_list = route.one_call_per_row
         first = results[0]
         if first.status != 200 or first.media_type != "application/json":
             await self._forward(send, first)
             return
         answers = [orjson.loads(bytes(item.body)) for item in results]
         if wants_csv:
+            if route.answer_part is not None:
+                answers = [_part_of(answer, route.answer_part) for answer in answers]
             body = render_csv(*flatten_answers(answers))
             content_type = _CSV_RESPONSE_TYPE
         elif as_list:
@@ -612,6 +618,14 @@ class CsvAdapter:
         headers = _with_headers(first.headers, content_type, len(body))
         await send({"type": "http.response.start", "status": 200, "headers": headers})
         await send({"type": "http.response.body", "body": body})
+
+
+def _part_of(answer: dict[str, Any], part: str) -> dict[str, Any]:
+    """The ``part`` member of an answer, led by the answer's calculation id."""
+    calculation_id = answer.get("meta", {}).get("calculation_id")
+    selected = answer.get(part)
+    body = selected if isinstance(selected, dict) else {part: selected}
+    return {"calculation_id": calculation_id, **body}
 
 
 async def _read_body(receive: Receive) -> bytes:

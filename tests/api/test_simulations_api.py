@@ -76,10 +76,13 @@ def test_csv_answer_is_the_series(client: TestClient) -> None:
     assert response.headers["content-type"].startswith("text/csv")
     rows = list(csv.reader(io.StringIO(response.text)))
     header, data = rows[0], rows[1:]
-    assert "series.time[s]" in header and "series.product_temperature[K]" in header
-    json_points = len(_post(client, BODY).json()["series"]["time"]["values"])
-    assert len(data) == json_points
-    column = header.index("series.time[s]")
+    # Only the series: one column per series quantity, led by the calculation id.
+    assert header[:2] == ["calculation_id", "time[s]"] and "product_temperature[K]" in header
+    series = _post(client, BODY).json()["series"]
+    assert len(header) == 1 + len(series)
+    assert len(data) == len(series["time"]["values"])
+    assert len({row[0] for row in data}) == 1
+    column = header.index("time[s]")
     times = [float(row[column]) for row in data]
     assert times == sorted(times) and times[0] == 0.0
 
