@@ -19,6 +19,7 @@ from numpy.typing import ArrayLike
 from service.api.quantities import ParsedQuantity, read_quantity
 from service.api.schemas.balances import (
     CompanionInput,
+    DissolvedSolidsInput,
     EvaporativeCoolingCreate,
     FlashFreezeCreate,
     HeatGainInput,
@@ -30,6 +31,7 @@ from service.core.balances import (
     NAMED_SOLUTES,
     Companion,
     Composition,
+    DissolvedSolids,
     EvaporativeCoolingCase,
     FlashFreezeCase,
     HeatGain,
@@ -288,6 +290,64 @@ def _solute(
     )
 
 
+def _read_dissolved_solids(
+    reader: _Reader, solids: DissolvedSolidsInput | None
+) -> dict[str, str | None] | None:
+    if solids is None:
+        return None
+    if solids.name is not None:
+        if solids.name not in NAMED_SOLUTES:
+            known = ", ".join(sorted(NAMED_SOLUTES))
+            raise InvalidInputError(
+                "dissolved_solids.name",
+                f"unknown solute {solids.name!r}; known: {known}",
+                solids.name,
+            )
+        if solids.molar_mass is not None or solids.van_t_hoff_factor is not None:
+            raise InvalidInputError(
+                "dissolved_solids.name",
+                "a named solute brings its molar mass and van 't Hoff factor; omit them",
+            )
+    elif solids.molar_mass is None:
+        raise InvalidInputError(
+            "dissolved_solids.molar_mass",
+            "give a named solute (dissolved_solids.name) or its molar mass",
+        )
+    return {
+        "mass_fraction": reader.read(
+            solids.mass_fraction, "dissolved_solids.mass_fraction", Dimension.DIMENSIONLESS
+        ),
+        "molar_mass": reader.optional(
+            solids.molar_mass, "dissolved_solids.molar_mass", Dimension.MOLAR_MASS
+        ),
+        "van_t_hoff_factor": reader.optional(
+            solids.van_t_hoff_factor, "dissolved_solids.van_t_hoff_factor", Dimension.DIMENSIONLESS
+        ),
+    }
+
+
+def _dissolved_solids(
+    reader: _Reader, solids: DissolvedSolidsInput | None, paths: dict[str, str | None] | None
+) -> DissolvedSolids | None:
+    if solids is None or paths is None:
+        return None
+    fraction = reader.value(str(paths["mass_fraction"]))
+    if solids.name is not None:
+        named = NAMED_SOLUTES[solids.name]
+        return DissolvedSolids(
+            mass_fraction=fraction,
+            molar_mass=named.molar_mass,
+            van_t_hoff_factor=named.van_t_hoff_factor,
+            name=solids.name,
+        )
+    factor = paths["van_t_hoff_factor"]
+    return DissolvedSolids(
+        mass_fraction=fraction,
+        molar_mass=reader.value(str(paths["molar_mass"])),
+        van_t_hoff_factor=1.0 if factor is None else reader.value(factor),
+    )
+
+
 def read_flash_freeze(body: FlashFreezeCreate) -> BalanceInputs[FlashFreezeCase]:
     """The flash-freeze request as a core case.
 
@@ -359,6 +419,7 @@ def read_evaporative_cooling(
     time = reader.optional(body.cooling_time, "cooling_time", Dimension.TIME)
     companions = _read_companions(reader, body.companions)
     gain = _read_heat_gain(reader, body.heat_gain)
+    solids = _read_dissolved_solids(reader, body.dissolved_solids)
     case = EvaporativeCoolingCase(
         product_mass=reader.value(mass),
         initial_temperature=reader.value(initial),
@@ -374,5 +435,6 @@ def read_evaporative_cooling(
         freezing_point=reader.maybe(freezing),
         trap_temperature=reader.maybe(trap),
         cooling_time=reader.maybe(time),
+        dissolved_solids=_dissolved_solids(reader, body.dissolved_solids, solids),
     )
     return reader.finish(case, _material_assumptions(companions))

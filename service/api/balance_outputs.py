@@ -306,6 +306,7 @@ def evaporative_cooling_answer(
                 ("freezing_point", Dimension.TEMPERATURE),
             ),
         ),
+        "freezing_point_basis": result.freezing_point_basis,
         "trap_temperature": _optional(
             shape,
             None if case.trap_temperature is None else np.asarray(case.trap_temperature),

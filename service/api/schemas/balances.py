@@ -15,10 +15,12 @@ from pydantic import Field
 
 from service.api.schemas.common import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.units import UnitSet
+from service.core.balances import FreezingPointBasis
 
 __all__ = [
     "CompanionInput",
     "CompositionInput",
+    "DissolvedSolidsInput",
     "EvaporativeComparisonOut",
     "EvaporativeCoolingCreate",
     "EvaporativeCoolingPublic",
@@ -29,6 +31,7 @@ __all__ = [
     "FlashFreezeEnergyBalanceOut",
     "FlashFreezePublic",
     "FlashFreezeUncertaintyOut",
+    "FreezingPointBasis",
     "HeatGainInput",
     "Method",
     "SoluteInput",
@@ -352,6 +355,44 @@ class CompositionInput(ApiModel):
     ash: QuantityInput = Field(0.0, description=_described("Ash, 0 to 1 (unit 1)."))
 
 
+class DissolvedSolidsInput(ApiModel):
+    """Solids dissolved in the product's water (sugars, salts, acids) as one effective
+    solute, to estimate its initial freezing point: `mass_fraction` with a named solute
+    (`name`), or with its `molar_mass` (and optionally `van_t_hoff_factor`). Unlike the
+    flash-freeze `solute`, `mass_fraction` is per kg of PRODUCT; the solids are part of the
+    composition's non-water fractions (sugars in carbohydrate, salts in ash) and add no mass
+    or heat capacity. Needs `composition` (its water fraction is the water they are
+    dissolved in)."""
+
+    mass_fraction: QuantityInput = Field(
+        description=_described(
+            "Dissolved solids per kg of product (not per kg of solution). Default unit 1 (a "
+            'fraction; `"5 %"` works); >= 0, and water fraction + this <= 1; at most what '
+            "puts the estimated freezing point at 243.15 K."
+        )
+    )
+    name: str | None = Field(
+        None,
+        description="A named solute: `sucrose`, `glucose` or `sodium chloride` (molar mass "
+        "and van 't Hoff factor from the table; fructose, with glucose's molar mass, can be "
+        "given as `glucose`). Omit to give `molar_mass`.",
+    )
+    molar_mass: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Effective molar mass of the dissolved solids (required without `name`). Default "
+            'unit kg/mol (`"180 g/mol"` works); >= 0.001 kg/mol.'
+        ),
+    )
+    van_t_hoff_factor: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Particles per dissolved formula unit (without `name`; default 1). Default "
+            "unit 1; 1 to 10."
+        ),
+    )
+
+
 class EvaporativeCoolingCreate(ApiModel):
     """A moist product cooled under vacuum from one temperature to another by its own
     evaporation. Give `specific_heat` or `composition`, not both."""
@@ -392,8 +433,15 @@ class EvaporativeCoolingCreate(ApiModel):
         None,
         description=_described(
             "Product's initial freezing point. Default unit K; 243.15 K to 273.16 K. If "
-            "omitted, pure water's 273.16 K is used, with a warning."
+            "omitted, it is estimated from `dissolved_solids` (with `composition`); with "
+            "neither, pure water's 273.16 K is used, with a warning."
         ),
+    )
+    dissolved_solids: DissolvedSolidsInput | None = Field(
+        None,
+        description="Solids dissolved in the product's water, to estimate its initial "
+        "freezing point when `freezing_point` is omitted (ideal solution, ice-solution "
+        "equilibrium from the IAPWS Gibbs energies). Needs `composition`.",
     )
     trap_temperature: QuantityInput | None = Field(
         None,
@@ -475,6 +523,11 @@ class EvaporativeCoolingPublic(Envelope):
     )
     freezing_point: QuantityOutput = Field(
         description="The freezing point the final temperature was checked against."
+    )
+    freezing_point_basis: FreezingPointBasis = Field(
+        description="Where `freezing_point` came from: `given`, `estimated from dissolved "
+        "solids` (method in the assumptions) or `pure water (no data)` (273.16 K, with a "
+        "warning)."
     )
     trap_temperature: QuantityOutput | None = Field(None, description="As given; null without.")
     condenser_load: QuantityOutput | None = Field(

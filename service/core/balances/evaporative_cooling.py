@@ -17,13 +17,21 @@ Composition:  (m_w (dh_l/dT - v_l dp/dT) + M_s c_s(T) + C) dT = (h_v - kappa - h
 Both are linear in the evaporating mass and are solved on Chebyshev-Lobatto nodes
 as in :mod:`service.core.balances.stages`. C is the companions' heat capacity and
 kappa the heat gained per kilogram evaporated (:mod:`service.core.balances.heat_gain`).
+
+Freezing point
+--------------
+The final temperature must stay at or above the product's initial freezing point:
+given; or, for a composition with dissolved solids, estimated as the freezing point of
+an ideal solution of those solids in the product's water
+(:func:`service.core.balances.solution_freezing.solution_freezing_point`, the model the
+flash-freeze balance uses for its solutions); or, with neither, pure water's 273.16 K.
 """
 
 from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
-from typing import Final
+from typing import Final, Literal
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -41,27 +49,50 @@ from service.core.balances.heat_gain import (
     HeatGain,
     solve_heat_per_evaporated_mass,
 )
+from service.core.balances.solutes import DissolvedSolids, Solute
+from service.core.balances.solution_freezing import (
+    LOWEST_FREEZING_TEMPERATURE,
+    lowest_log_water_activity,
+    solution_freezing_point,
+)
 from service.core.balances.stages import DEGREE, interval_of
 from service.core.balances.sweeps import expand_case
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
 from service.core.phase import FloatArray
 from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, PropertySource
 
 __all__ = [
+    "ESTIMATED_FREEZING_POINT_METHOD",
     "EVAPORATIVE_COOLING_LIMITS",
     "EvaporativeCoolingCase",
     "EvaporativeCoolingResult",
+    "FreezingPointBasis",
     "evaporative_cooling",
 ]
 
+FreezingPointBasis = Literal["given", "estimated from dissolved solids", "pure water (no data)"]
+"""Where the freezing point of the range check came from."""
+
+ESTIMATED_FREEZING_POINT_METHOD: Final = (
+    "Initial freezing point estimated from the dissolved solids: ideal-solution (Raoult) "
+    "water activity, ice\u2013solution equilibrium from IAPWS-95 and IAPWS R10-06 Gibbs "
+    "energies (the approach of Heldman 1974, from memory)"
+)
+
 EVAPORATIVE_COOLING_LIMITS: Final = {
     "initial_temperature_max": 373.15,
-    "freezing_point_min": 243.15,
+    "freezing_point_min": LOWEST_FREEZING_TEMPERATURE,
     "trap_temperature_min": 173.15,
+    "dissolved_solids_molar_mass_min": 1e-3,
+    "dissolved_solids_van_t_hoff_factor_max": 10.0,
 }
-"""K. The initial temperature is at most the normal boiling point; a product freezing
-point below 243.15 K is outside the supercooled-liquid range used for its water."""
+"""K, or kg/mol and 1 for the dissolved solids. The initial temperature is at most the
+normal boiling point; a product freezing point below 243.15 K is outside the
+supercooled-liquid range used for its water."""
+
+_FRACTION_SLACK: Final = 1e-9
+"""Round-off allowed in water + dissolved solids <= 1 (mass fractions)."""
 
 _KAPPA_UPPER_BOUND: Final = 3.0e6
 _SUM_WARNING: Final = 1e-9
@@ -84,8 +115,15 @@ class EvaporativeCoolingCase:
     companions : tuple of Companion
     heat_gain : HeatGain or None
     freezing_point : array_like or None
-        Product's initial freezing point, K (243.15 K to 273.16 K). If None, pure
-        water's 273.16 K is used, with a warning.
+        Product's initial freezing point, K (243.15 K to 273.16 K). If None, it is
+        estimated from ``dissolved_solids``; with neither, pure water's 273.16 K is
+        used, with a warning.
+    dissolved_solids : DissolvedSolids or None
+        Solids dissolved in the product's water, mass fraction per kg of PRODUCT
+        (requires ``composition``, whose water fraction gives the water they are
+        dissolved in; water + dissolved solids <= 1). Used to estimate the freezing
+        point when ``freezing_point`` is None; they add no mass or heat capacity (they
+        are part of the composition's non-water fractions).
     trap_temperature : array_like or None
         Condenser / cold-trap temperature, K (173.15 K to 273.16 K).
     cooling_time : array_like or None
@@ -102,6 +140,7 @@ class EvaporativeCoolingCase:
     freezing_point: ArrayLike | None = None
     trap_temperature: ArrayLike | None = None
     cooling_time: ArrayLike | None = None
+    dissolved_solids: DissolvedSolids | None = None
 
 
 @dataclass(frozen=True)
@@ -149,6 +188,8 @@ class EvaporativeCoolingResult:
         energy_residual / heat_removed.
     freezing_point : ndarray
         K, the one used for the range check.
+    freezing_point_basis : {"given", "estimated from dissolved solids", "pure water (no data)"}
+        Where ``freezing_point`` came from (one for the whole sweep).
     assumptions, warnings, property_sources
     """
 
@@ -170,6 +211,7 @@ class EvaporativeCoolingResult:
     energy_residual: FloatArray
     relative_energy_residual: FloatArray
     freezing_point: FloatArray
+    freezing_point_basis: FreezingPointBasis
     assumptions: tuple[str, ...]
     warnings: tuple[Advisory, ...]
     property_sources: tuple[PropertySource, ...]
@@ -192,7 +234,6 @@ class _Numbers:
     volume_flow: float | None
     freezing_point: float
     residual: float
-    freezing_point_given: bool
     composition_rescaled: bool
 
 
@@ -205,6 +246,114 @@ def _value(value: ArrayLike | None, name: str) -> float | None:
     return number
 
 
+def _freezing_point_basis(case: EvaporativeCoolingCase) -> FreezingPointBasis:
+    if case.freezing_point is not None:
+        return "given"
+    if case.dissolved_solids is not None:
+        return "estimated from dissolved solids"
+    return "pure water (no data)"
+
+
+def _dissolved_solids(case: EvaporativeCoolingCase, index: int | None) -> Solute | None:
+    """The validated dissolved solids as a solute of the product's water, or None."""
+    solids = case.dissolved_solids
+    if solids is None:
+        return None
+    if case.composition is None:
+        raise InvalidInputError(
+            "dissolved_solids",
+            "needs composition: the product's water fraction gives the water the solids are "
+            "dissolved in (with specific_heat, give freezing_point instead)",
+        )
+    limits = EVAPORATIVE_COOLING_LIMITS
+    water = case.composition.fractions()["water"]
+    fraction = _value(solids.mass_fraction, "dissolved_solids.mass_fraction")
+    molar = _value(solids.molar_mass, "dissolved_solids.molar_mass")
+    factor = _value(solids.van_t_hoff_factor, "dissolved_solids.van_t_hoff_factor")
+    assert fraction is not None and molar is not None and factor is not None
+    if not 0.0 <= fraction <= 1.0 - water + _FRACTION_SLACK:
+        raise OutOfRangeError(
+            "dissolved_solids.mass_fraction",
+            fraction,
+            0.0,
+            1.0 - water,
+            "1",
+            "kg per kg of product; the dissolved solids are part of the non-water mass, so "
+            f"water ({water:.6g}) + dissolved solids must not exceed 1",
+            index,
+        )
+    if molar < limits["dissolved_solids_molar_mass_min"]:
+        raise OutOfRangeError(
+            "dissolved_solids.molar_mass",
+            molar,
+            limits["dissolved_solids_molar_mass_min"],
+            None,
+            "kg/mol",
+            "effective molar mass of the dissolved solids",
+            index,
+        )
+    if not 1.0 <= factor <= limits["dissolved_solids_van_t_hoff_factor_max"]:
+        raise OutOfRangeError(
+            "dissolved_solids.van_t_hoff_factor",
+            factor,
+            1.0,
+            limits["dissolved_solids_van_t_hoff_factor_max"],
+            "1",
+            "particles per dissolved formula unit",
+            index,
+        )
+    return solids.in_solution(water)
+
+
+def _estimated_freezing_point(
+    case: EvaporativeCoolingCase, solute: Solute, index: int | None
+) -> float:
+    """Freezing point of the ideal solution of the dissolved solids in the product's water."""
+    try:
+        return float(solution_freezing_point(solute))
+    except OutOfRangeError as error:
+        if error.variable != "water_activity":
+            raise
+        assert case.dissolved_solids is not None and case.composition is not None
+        water = case.composition.fractions()["water"]
+        molar = float(np.asarray(solute.molar_mass))
+        factor = float(np.asarray(solute.van_t_hoff_factor))
+        # a_w(243.15 K) = n_w / (n_w + i n_s): largest solids-to-water mass ratio
+        ratio = float(np.expm1(-lowest_log_water_activity())) * molar / (factor * MOLAR_MASS)
+        raise OutOfRangeError(
+            "dissolved_solids.mass_fraction",
+            float(np.asarray(case.dissolved_solids.mass_fraction)),
+            0.0,
+            water * ratio,
+            "1",
+            f"the estimated freezing point falls below {LOWEST_FREEZING_TEMPERATURE} K, "
+            "outside the supercooled-liquid range of IAPWS-95 used for the product's water",
+            index,
+        ) from error
+
+
+def _freezing_point(case: EvaporativeCoolingCase, index: int | None) -> float:
+    """K: given, else estimated from the dissolved solids, else pure water's 273.16 K."""
+    limits = EVAPORATIVE_COOLING_LIMITS
+    given = _value(case.freezing_point, "freezing_point")
+    solute = _dissolved_solids(case, index)
+    if given is not None:
+        if not limits["freezing_point_min"] <= given <= TRIPLE_POINT_TEMPERATURE:
+            raise OutOfRangeError(
+                "freezing_point",
+                given,
+                limits["freezing_point_min"],
+                TRIPLE_POINT_TEMPERATURE,
+                "K",
+                "a product's initial freezing point lies at or below pure water's",
+                index,
+            )
+        return given
+    if solute is not None:
+        return _estimated_freezing_point(case, solute, index)
+    return TRIPLE_POINT_TEMPERATURE
+
+
 def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
     limits = EVAPORATIVE_COOLING_LIMITS
     mass = _value(case.product_mass, "product_mass")
@@ -213,20 +362,7 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
     assert mass is not None and initial is not None and final is not None
     if mass <= 0.0:
         raise OutOfRangeError("product_mass", mass, 0.0, None, "kg", "must be positive", index)
-    freezing = _value(case.freezing_point, "freezing_point")
-    given = freezing is not None
-    if freezing is None:
-        freezing = TRIPLE_POINT_TEMPERATURE
-    elif not limits["freezing_point_min"] <= freezing <= TRIPLE_POINT_TEMPERATURE:
-        raise OutOfRangeError(
-            "freezing_point",
-            freezing,
-            limits["freezing_point_min"],
-            TRIPLE_POINT_TEMPERATURE,
-            "K",
-            "a product's initial freezing point lies at or below pure water's",
-            index,
-        )
+    freezing = _freezing_point(case, index)
     if not freezing <= initial <= limits["initial_temperature_max"]:
         raise OutOfRangeError(
             "initial_temperature",
@@ -248,13 +384,17 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
             index,
         )
     if final < freezing:
+        basis = _freezing_point_basis(case)
+        estimated = (
+            " (estimated from its dissolved solids)" if basis.startswith("estimated") else ""
+        )
         raise UnsupportedStateError(
             "final_temperature",
-            f"{final:.6g} K is below the product's initial freezing point {freezing:.6g} K: "
-            "the product would start to freeze; use the flash-freeze calculation for cooling "
-            "into freezing",
+            f"{final:.6g} K is below the product's initial freezing point {freezing:.6g} K"
+            f"{estimated}: the product would start to freeze; use the flash-freeze "
+            "calculation for cooling into freezing",
             final,
-            {"freezing_point": freezing, "index": index},
+            {"freezing_point": freezing, "freezing_point_basis": basis, "index": index},
         )
     if (case.specific_heat is None) == (case.composition is None):
         raise InvalidInputError("specific_heat", "give exactly one of specific_heat or composition")
@@ -394,7 +534,6 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
         volume_flow=None if time is None else vapor_volume / time,
         freezing_point=freezing,
         residual=residual,
-        freezing_point_given=given,
         composition_rescaled=rescaled,
     )
 
@@ -430,6 +569,21 @@ def _assumptions(case: EvaporativeCoolingCase) -> tuple[str, ...]:
             "Lumped model: the product's sensible heat is its current mass times the given "
             "specific heat; each kilogram evaporated takes h_vapor - h_liquid (IAPWS-95)."
         )
+    basis = _freezing_point_basis(case)
+    if basis == "estimated from dissolved solids":
+        items.append(f"{ESTIMATED_FREEZING_POINT_METHOD}.")
+        items.append(
+            "The dissolved solids are treated as one effective solute in all of the product's "
+            "water (none bound), and set only the freezing point: the vapor pressures, the "
+            "start-of-flashing pressure and the set point are pure water's. Over the solution "
+            "they would be lower by the factor a_w (ideal solution); that lowering is not "
+            "applied."
+        )
+    elif basis == "given" and case.dissolved_solids is not None:
+        items.append(
+            "The given freezing point is used as is; the dissolved solids are checked but not "
+            "used to estimate it."
+        )
     if case.companions:
         items.append("Companion masses have constant specific heats and follow the product.")
     if case.trap_temperature is not None:
@@ -456,9 +610,12 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     Raises
     ------
     InvalidInputError
-        Malformed input, or both / neither of specific_heat and composition.
+        Malformed input, both / neither of specific_heat and composition, or dissolved
+        solids without a composition.
     OutOfRangeError
-        A final temperature at or above the initial one, or another input out of range.
+        A final temperature at or above the initial one, or another input out of range
+        (dissolved solids: water + dissolved solids above 1, or so many that the
+        estimated freezing point falls below 243.15 K).
     UnsupportedStateError
         A final temperature below the product's freezing point (use the flash-freeze
         calculation), or a heat gain that would evaporate all the water.
@@ -466,11 +623,15 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     Notes
     -----
     Lumped: (M c + C) dT = (h_v - h_l) dM; composition: (m_w T ds_l/dT + M_s c_s + C) dT =
-    (h_v - h_l) dm_w; see the module docstring.
+    (h_v - h_l) dm_w; see the module docstring. Estimated freezing point (dissolved solids
+    x_s per kg of product, water x_w): the solids form a solution of mass fraction
+    w = x_s / (x_w + x_s), a_w = n_w / (n_w + i n_s), and the freezing point is the root of
+    ln a_w = (g_ice - g_liq) / (R T) at the sublimation pressure.
 
     References
     ----------
-    IAPWS R6-95(2018); Choi and Okos (1986) for the component specific heats.
+    IAPWS R6-95(2018); Choi and Okos (1986) for the component specific heats; IAPWS
+    R10-06(2009) and R14-08(2011) with Heldman (1974) for the estimated freezing point.
 
     Examples
     --------
@@ -504,11 +665,13 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
             )
             warnings.append(Advisory(code, message, indices))
 
+    basis = _freezing_point_basis(case)
     flag(
-        [not n.freezing_point_given for n in numbers],
+        [basis == "pure water (no data)" for _ in numbers],
         "freezing-point-assumed",
-        "No product freezing point given: pure water's 273.16 K was used for the range check; "
-        "real products freeze lower (often -0.5 to -2 degC).",
+        "No product freezing point given and no dissolved solids to estimate it: pure "
+        "water's 273.16 K was used for the range check; real products freeze lower (often "
+        "-0.5 to -2 degC).",
     )
     flag(
         [n.composition_rescaled for n in numbers],
@@ -542,6 +705,7 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
         energy_residual=residual,
         relative_energy_residual=residual / heat_removed,
         freezing_point=stack(lambda n: n.freezing_point),
+        freezing_point_basis=basis,
         assumptions=_assumptions(case),
         warnings=tuple(warnings),
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),

@@ -47,6 +47,7 @@ from service.core.balances.solutes import (
     liquid_water_mass_at_activity,
     water_activity,
 )
+from service.core.balances.solution_freezing import ice_solution_equilibrium_temperature
 from service.core.balances.stages import (
     DEGREE,
     ZERO_LENGTH,
@@ -60,7 +61,7 @@ from service.core.balances.stages import (
     single_phase_stage,
 )
 from service.core.balances.sweeps import expand_case
-from service.core.constants import SPECIFIC_GAS_CONSTANT, TRIPLE_POINT_TEMPERATURE
+from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, NotConvergedError, OutOfRangeError
 from service.core.phase import FloatArray, PhaseProperties
 from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, PropertySource
@@ -104,9 +105,6 @@ _KAPPA_UPPER_BOUND: Final = 3.0e6
 
 _PIECE_RATIO: Final = 2.0
 """Ratio of the distances from 273.16 K of the ends of each solution-freezing piece."""
-
-_ICE_FUSION_GUESS: Final = 333.4e3
-"""J/kg, only to start Newton's method for a freezing temperature."""
 
 
 @dataclass(frozen=True)
@@ -288,38 +286,23 @@ def _require(
 def _freezing_temperature(log_activity: float, index: int | None) -> float:
     """Temperature at which a solution of activity exp(log_activity) is in equilibrium with ice.
 
-    Newton's method on ln a_w(T) = (g_ice - g_liq) / (R T) with
-    d ln a_w / dT = (h_liq - h_ice) / (R T**2) (Gibbs-Helmholtz).
+    :func:`service.core.balances.solution_freezing.ice_solution_equilibrium_temperature`,
+    with its range error restated for the load's solute.
     """
-    if log_activity == 0.0:
-        return TRIPLE_POINT_TEMPERATURE
-    temperature = TRIPLE_POINT_TEMPERATURE * (
-        1.0 + log_activity * SPECIFIC_GAS_CONSTANT * TRIPLE_POINT_TEMPERATURE / _ICE_FUSION_GUESS
-    )
-    lowest = FLASH_FREEZE_LIMITS["liquid_temperature_min"]
-    for _ in range(30):
-        if temperature < lowest:
-            raise OutOfRangeError(
-                "solute.mass_fraction",
-                float(np.exp(log_activity)),
-                None,
-                None,
-                "water activity",
-                f"the solution's freezing point falls below {lowest} K, outside the "
-                "supercooled-liquid range of the balance",
-                index,
-            )
-        states = freezing_solution_states(np.array([temperature]))
-        mismatch = float(states.log_water_activity[0]) - log_activity
-        slope = float(
-            (states.liquid.specific_enthalpy[0] - states.ice.specific_enthalpy[0])
-            / (SPECIFIC_GAS_CONSTANT * temperature**2)
-        )
-        step = mismatch / slope
-        temperature -= step
-        if abs(step) < _FREEZING_TOLERANCE:
-            return temperature
-    raise NotConvergedError("freezing temperature of the solution (Newton)", 30, abs(step))
+    try:
+        return float(ice_solution_equilibrium_temperature(log_activity))
+    except OutOfRangeError as error:
+        lowest = FLASH_FREEZE_LIMITS["liquid_temperature_min"]
+        raise OutOfRangeError(
+            "solute.mass_fraction",
+            float(np.exp(log_activity)),
+            None,
+            None,
+            "water activity",
+            f"the solution's freezing point falls below {lowest} K, outside the "
+            "supercooled-liquid range of the balance",
+            index,
+        ) from error
 
 
 def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:

@@ -43,8 +43,10 @@ from service.core.errors import InvalidInputError
 __all__ = [
     "NAMED_SOLUTES",
     "SOLUTE_MODEL_REFERENCE",
+    "DissolvedSolids",
     "Solute",
     "liquid_water_mass_at_activity",
+    "named_dissolved_solids",
     "named_solute",
     "water_activity",
 ]
@@ -108,6 +110,80 @@ def named_solute(name: str, mass_fraction: ArrayLike) -> Solute:
             "solute", f"unknown solute {name!r}; known: {known}", name
         ) from error
     return replace(entry, mass_fraction=mass_fraction)
+
+
+@dataclass(frozen=True)
+class DissolvedSolids:
+    """Solids dissolved in a product's water (sugars, salts, acids), as one effective solute.
+
+    Unlike :class:`Solute`, the mass fraction is per kilogram of PRODUCT: these solids are
+    part of a food's non-water components (sugars in its carbohydrate, salts in its ash)
+    and add no mass or heat capacity of their own; they only lower the activity, and so
+    the freezing point, of the product's water.
+
+    Attributes
+    ----------
+    mass_fraction : array_like
+        kg of dissolved solids per kg of product, >= 0; with the product's water mass
+        fraction x_w, x_w + mass_fraction <= 1.
+    molar_mass : array_like
+        Effective molar mass, kg/mol, >= 0.001.
+    van_t_hoff_factor : array_like
+        Particles per dissolved formula unit, 1 to 10.
+    name : str
+        Label for reports.
+    """
+
+    mass_fraction: ArrayLike
+    molar_mass: ArrayLike
+    van_t_hoff_factor: ArrayLike = 1.0
+    name: str = "dissolved solids"
+
+    def in_solution(self, water_fraction: ArrayLike) -> Solute:
+        """The same solids as a :class:`Solute` of the product's water.
+
+        Parameters
+        ----------
+        water_fraction : array_like
+            The product's water mass fraction x_w, > 0.
+
+        Returns
+        -------
+        Solute
+            Mass fraction per kg of solution, w = x_s / (x_w + x_s); the specific heat
+            is left at its default (unused: the solids' heat capacity belongs to the
+            product's composition).
+        """
+        solids = np.asarray(self.mass_fraction, dtype=np.float64)
+        water = np.asarray(water_fraction, dtype=np.float64)
+        return Solute(
+            mass_fraction=solids / (water + solids),
+            molar_mass=self.molar_mass,
+            van_t_hoff_factor=self.van_t_hoff_factor,
+            name=self.name,
+        )
+
+
+def named_dissolved_solids(name: str, mass_fraction: ArrayLike) -> DissolvedSolids:
+    """Dissolved solids of a solute of :data:`NAMED_SOLUTES`, per kg of product.
+
+    Raises
+    ------
+    InvalidInputError
+        ``dissolved_solids.name``, if the name is unknown.
+    """
+    entry = NAMED_SOLUTES.get(name)
+    if entry is None:
+        known = ", ".join(sorted(NAMED_SOLUTES))
+        raise InvalidInputError(
+            "dissolved_solids.name", f"unknown solute {name!r}; known: {known}", name
+        )
+    return DissolvedSolids(
+        mass_fraction=mass_fraction,
+        molar_mass=entry.molar_mass,
+        van_t_hoff_factor=entry.van_t_hoff_factor,
+        name=name,
+    )
 
 
 def water_activity(
