@@ -133,7 +133,7 @@ def simulation_answer(
             unit_set=unit_set,
             assumptions=(*result.assumptions, *extra_assumptions),
             sources=result.property_sources,
-            uncertainties=(),
+            uncertainties=result.property_uncertainties,
             advisories=result.warnings,
         ),
     }

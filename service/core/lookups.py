@@ -36,6 +36,7 @@ __all__ = [
     "ReportedUncertainty",
     "constants_lookup",
     "melting_lookup",
+    "path_uncertainties",
     "saturation_lookup",
     "state_lookup",
     "sublimation_lookup",
@@ -133,6 +134,40 @@ def _report(
         source=worst.section,
         basis=worst.basis,
     )
+
+
+def path_uncertainties(product_temperature: FloatArray) -> list[ReportedUncertainty]:
+    """Stated uncertainties of the phase-change properties along a process path.
+
+    For the liquid part of the path (at or above the triple point): saturation
+    pressure and enthalpy of vaporization (IAPWS-95); for the part below it: sublimation
+    pressure (R14-08) and enthalpy of sublimation (R10-06). Each is the largest stated
+    value over the temperatures visited.
+
+    Parameters
+    ----------
+    product_temperature : ndarray
+        Temperatures the product passes through, K.
+    """
+    t = np.asarray(product_temperature, dtype=np.float64).ravel()
+    reported: list[ReportedUncertainty] = []
+    warm = t[t >= constants.TRIPLE_POINT_TEMPERATURE]
+    if warm.size:
+        reported += [
+            _report("IAPWS-95", "saturation_pressure", warm, label="vapor pressure (liquid)"),
+            _report(
+                "IAPWS-95", "enthalpy_of_vaporization", warm, label="latent heat of vaporization"
+            ),
+        ]
+    cold = t[t < constants.TRIPLE_POINT_TEMPERATURE]
+    if cold.size:
+        line = sources.MELTING_AND_SUBLIMATION.formulation
+        ice = sources.ICE_IH.formulation
+        reported += [
+            _report(line, "sublimation_pressure", cold, label="vapor pressure (ice)"),
+            _report(ice, "enthalpy_of_sublimation", cold, label="latent heat of sublimation"),
+        ]
+    return reported
 
 
 def _given(pressure: FloatArray | None) -> FloatArray:

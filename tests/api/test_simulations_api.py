@@ -209,3 +209,10 @@ def test_chamber_example_is_documented_and_answers(client: TestClient) -> None:
         response = _post(client, example.request)
         assert response.status_code == example.expected_status, response.text
         assert orjson.loads(response.content)["summary"]["end_reason"] == "target-reached"
+
+
+def test_answer_states_the_formulations_uncertainty(client: TestClient) -> None:
+    body = _post(client, BODY).json()
+    quantities = {entry["quantity"] for entry in body["uncertainty"]}
+    assert {"vapor pressure (liquid)", "latent heat of vaporization"} <= quantities
+    assert all(entry["relative"] and entry["relative"] > 0 for entry in body["uncertainty"])

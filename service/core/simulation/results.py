@@ -5,6 +5,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 
 from service.core.advisories import Advisory
+from service.core.lookups import ReportedUncertainty
 from service.core.phase import FloatArray
 from service.core.sources import PropertySource
 
@@ -180,3 +181,4 @@ class VacuumChamberResult:
     warnings: tuple[Advisory, ...]
     references: tuple[str, ...]
     property_sources: tuple[PropertySource, ...]
+    property_uncertainties: tuple[ReportedUncertainty, ...] = ()

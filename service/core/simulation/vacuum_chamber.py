@@ -20,6 +20,7 @@ from service.core.advisories import Advisory
 from service.core.constants import SPECIFIC_GAS_CONSTANT
 from service.core.errors import NotConvergedError, UnsupportedStateError
 from service.core.helmholtz import fluid_properties_at
+from service.core.lookups import path_uncertainties
 from service.core.phase import FloatArray
 from service.core.simulation.chamber_model import (
     AIR,
@@ -734,4 +735,5 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         warnings=_warnings(case, load, run, series, checks, drift),
         references=REFERENCES,
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
+        property_uncertainties=tuple(path_uncertainties(series.product_temperature)),
     )
