@@ -211,9 +211,16 @@ class ScheduleLimitInput(ApiModel):
 class VacuumChamberSimulationCreate(ApiModel):
     """A vacuum chamber with pump, optional condenser and a product, simulated over time."""
 
-    chamber: ChamberInput
-    pump: PumpInput
-    product: ProductInput
+    chamber: ChamberInput = Field(
+        description="The chamber: free volume, initial air pressure and temperature, air leak."
+    )
+    pump: PumpInput = Field(
+        description="The vacuum pump: nominal volume flow, optional speed curve, ultimate pressure."
+    )
+    product: ProductInput = Field(
+        description="The load: mass, initial temperature, specific heat or composition, solute, "
+        "evaporation model."
+    )
     condenser: CondenserInput | None = Field(None, description="Omit for none.")
     companions: list[CompanionInput] = Field(
         default_factory=list,

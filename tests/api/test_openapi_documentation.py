@@ -1,0 +1,67 @@
+"""The OpenAPI document describes every request field, and names the unit of every quantity."""
+
+from __future__ import annotations
+
+from typing import Any
+
+from fastapi.testclient import TestClient
+
+_QUANTITY_SHAPES = {"#/components/schemas/QuantityValue", "#/components/schemas/QuantityValues"}
+
+
+def _references(spec: dict[str, Any]) -> set[str]:
+    found = set()
+    stack: list[Any] = [spec]
+    while stack:
+        item = stack.pop()
+        if isinstance(item, dict):
+            if "$ref" in item:
+                found.add(item["$ref"])
+            stack.extend(item.values())
+        elif isinstance(item, list):
+            stack.extend(item)
+    return found
+
+
+def _request_fields(schema: dict[str, Any]) -> list[tuple[str, str, dict[str, Any]]]:
+    """Every (model, field, spec) reachable from the JSON request bodies."""
+    components = schema["components"]["schemas"]
+    queue = []
+    for methods in schema["paths"].values():
+        for operation in methods.values():
+            body = operation.get("requestBody", {}).get("content", {}).get("application/json")
+            if body:
+                queue += sorted(_references(body["schema"]))
+    seen: set[str] = set()
+    fields = []
+    while queue:
+        reference = queue.pop()
+        if reference in seen or reference in _QUANTITY_SHAPES:
+            continue
+        seen.add(reference)
+        name = reference.rsplit("/", 1)[-1]
+        for field, spec in components[name].get("properties", {}).items():
+            fields.append((name, field, spec))
+            queue += sorted(_references(spec))
+    return fields
+
+
+def test_every_request_field_is_described(client: TestClient) -> None:
+    fields = _request_fields(client.get("/openapi.json").json())
+    models = {model for model, _, _ in fields}
+    assert {"SaturationCreate", "FlashFreezeCreate", "VacuumChamberSimulationCreate"} <= models
+    missing = [f"{model}.{field}" for model, field, spec in fields if not spec.get("description")]
+    assert missing == []
+
+
+def test_every_quantity_field_names_its_unit(client: TestClient) -> None:
+    fields = _request_fields(client.get("/openapi.json").json())
+    quantities = [(m, f, s) for m, f, s in fields if _references(s) & _QUANTITY_SHAPES]
+    assert len(quantities) > 30
+    silent = [
+        f"{model}.{field}"
+        for model, field, spec in quantities
+        if "unit" not in spec.get("description", "").lower()
+        and "fraction" not in spec.get("description", "").lower()
+    ]
+    assert silent == []
