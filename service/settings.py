@@ -52,6 +52,13 @@ class Settings(BaseSettings):
         le=50_000_000,
         description="Largest number of points (or CSV rows) one request may ask for (413).",
     )
+    max_sweep_cases: int = Field(
+        1_000,
+        ge=1,
+        le=1_000_000,
+        description="Largest number of cases one balance request may sweep (413). Each case "
+        "is a full integration (about 0.5 ms for pure water, up to 0.1 s with a solute).",
+    )
     max_body_bytes: int = Field(
         32 * 1024 * 1024,
         ge=1024,

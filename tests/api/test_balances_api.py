@@ -374,9 +374,10 @@ def test_sweep_error_names_the_element(client: TestClient) -> None:
 
 
 def test_too_many_sweep_points_is_413(client: TestClient) -> None:
-    limit = client.app.state.settings.max_batch_points  # type: ignore[attr-defined]
+    limit = client.app.state.settings.max_sweep_cases  # type: ignore[attr-defined]
     problem = _problem(client, FLASH, {"initial_temperature": [290.0] * (limit + 1)}, status=413)
     assert problem["errors"][0]["maximum"] == limit
+    assert "TRIPOINT_MAX_SWEEP_CASES" in problem["detail"]
 
 
 # -- uncertainty ---------------------------------------------------------------------------

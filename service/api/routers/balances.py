@@ -54,14 +54,14 @@ CaseT = TypeVar("CaseT")
 
 def _check_points(request: Request, points: int) -> None:
     settings: Settings = request.app.state.settings
-    limit = settings.max_batch_points
+    limit = settings.max_sweep_cases
     if points > limit:
         raise ProblemError(
             413,
             "too-many-points",
             "Batch too large",
             f"The request asks for {points} cases; the limit is {limit} "
-            "(setting TRIPOINT_MAX_BATCH_POINTS).",
+            "(setting TRIPOINT_MAX_SWEEP_CASES).",
             [FieldError(field="values", message="too many points", value=points, maximum=limit)],
         )
 
