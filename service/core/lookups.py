@@ -7,6 +7,7 @@ returned, advisories and modelling assumptions. It knows nothing of HTTP.
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 from typing import Final, Generic, Literal, TypeVar
 
@@ -45,10 +46,9 @@ __all__ = [
 Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
 StatesT = TypeVar("StatesT")
 
-EXTRAPOLATED_VAPOR_TEMPERATURE: Final = 130.0
-"""K. Below this the ideal-gas heat capacity behind IAPWS-95's ideal-gas part is
-extrapolated (from memory: the release states the ideal-gas part's range, see
-IAPWS R6-95(2018) Sec. 7)."""
+LOW_TEMPERATURE_VAPOR_LIMIT: Final = 130.0
+"""K. Below this the vapor's ideal-gas part carries the correction of the IAPWS
+Guideline on a low-temperature extension of IAPWS-95 (2012), valid down to 50 K."""
 
 _PURE_WATER: Final = "Pure water substance (no dissolved air or solutes)."
 _ABSOLUTE: Final = "All pressures are absolute."
@@ -240,16 +240,25 @@ def sublimation_lookup(
         _report(ice, "ice_enthalpy", t, label="ice.specific_enthalpy"),
         _report(ice, "enthalpy_of_sublimation", t, label="latent_heat_of_sublimation"),
     ]
+    cold = t < LOW_TEMPERATURE_VAPOR_LIMIT
     advisories = advise_where(
-        t < EXTRAPOLATED_VAPOR_TEMPERATURE,
-        "extrapolated",
-        f"Below {EXTRAPOLATED_VAPOR_TEMPERATURE:g} K the vapor properties extrapolate "
-        "IAPWS-95's ideal-gas part beyond the range it was fitted on.",
+        cold,
+        "low-temperature-extension",
+        f"Below {LOW_TEMPERATURE_VAPOR_LIMIT:g} K the vapor's ideal-gas part follows the IAPWS "
+        "low-temperature extension of IAPWS-95 (Guideline, 2012), and the sublimation pressure "
+        "is far less certain than near the triple point.",
         batch=_batch(temperature, pressure),
     )
+    used: tuple[sources.PropertySource, ...] = (
+        sources.MELTING_AND_SUBLIMATION,
+        sources.ICE_IH,
+        sources.IAPWS_95,
+    )
+    if cold.any():
+        used += (sources.LOW_TEMPERATURE_VAPOR,)
     return Lookup(
         states=states,
-        sources=(sources.MELTING_AND_SUBLIMATION, sources.ICE_IH, sources.IAPWS_95),
+        sources=used,
         uncertainties=uncertainties,
         advisories=advisories,
         assumptions=[_PURE_WATER, _FLAT, _ABSOLUTE, "Ice is hexagonal ice Ih."],
@@ -324,11 +333,27 @@ def state_lookup(
 
 def constants_lookup() -> Lookup[ConstantValues]:
     """Fixed points and latent heats at the triple point (from the core's formulations)."""
+    return Lookup(
+        states=_constant_values(),
+        sources=(
+            sources.IAPWS_95,
+            sources.ICE_IH,
+            sources.MELTING_AND_SUBLIMATION,
+        ),
+        uncertainties=[],
+        advisories=[],
+        assumptions=[_PURE_WATER],
+    )
+
+
+@functools.cache
+def _constant_values() -> ConstantValues:
+    """The values of :func:`constants_lookup`, computed once per process."""
     triple = np.array([constants.TRIPLE_POINT_TEMPERATURE])
     vaporization = saturation_by_temperature(triple).latent_heat_of_vaporization
     sublimation = sublimation_by_temperature(triple).latent_heat_of_sublimation
     fusion = melting_by_temperature(triple).latent_heat_of_fusion
-    values = ConstantValues(
+    return ConstantValues(
         triple_point_temperature=constants.TRIPLE_POINT_TEMPERATURE,
         triple_point_pressure=constants.TRIPLE_POINT_PRESSURE,
         critical_temperature=constants.CRITICAL_TEMPERATURE,
@@ -339,15 +364,4 @@ def constants_lookup() -> Lookup[ConstantValues]:
         latent_heat_of_vaporization=float(vaporization[0]),
         latent_heat_of_sublimation=float(sublimation[0]),
         latent_heat_of_fusion=float(fusion[0]),
-    )
-    return Lookup(
-        states=values,
-        sources=(
-            sources.IAPWS_95,
-            sources.ICE_IH,
-            sources.MELTING_AND_SUBLIMATION,
-        ),
-        uncertainties=[],
-        advisories=[],
-        assumptions=[_PURE_WATER],
     )

@@ -19,6 +19,7 @@ __all__ = [
     "IAPWS_95",
     "IAPWS_IF97",
     "ICE_IH",
+    "LOW_TEMPERATURE_VAPOR",
     "MELTING_AND_SUBLIMATION",
     "SATURATION_AUXILIARY",
     "PropertySource",
@@ -113,12 +114,24 @@ SATURATION_AUXILIARY: Final = PropertySource(
     ),
 )
 
+LOW_TEMPERATURE_VAPOR: Final = PropertySource(
+    formulation="IAPWS-95 low-temperature vapor extension",
+    release="IAPWS Guideline (2012)",
+    year=2012,
+    title=("Guideline on a Low-Temperature Extension of the IAPWS-95 Formulation for Water Vapor"),
+    scope=(
+        "Correction to the IAPWS-95 ideal-gas part for vapor from 50 K to 130 K (sublimation "
+        "states of cold ice)."
+    ),
+)
+
 ALL_SOURCES: Final[tuple[PropertySource, ...]] = (
     IAPWS_95,
     IAPWS_IF97,
     ICE_IH,
     MELTING_AND_SUBLIMATION,
     SATURATION_AUXILIARY,
+    LOW_TEMPERATURE_VAPOR,
 )
 """Every source tripoint cites, in the order above."""
 

@@ -126,9 +126,14 @@ def test_sublimation_get(client: TestClient) -> None:
     assert body["pressure"]["value"] == pytest.approx(103.24, rel=2e-3)
 
 
-def test_sublimation_extrapolation_warning(client: TestClient) -> None:
+def test_sublimation_low_temperature_extension_is_named(client: TestClient) -> None:
     body = client.get("/v1/properties/sublimation", params={"temperature": "100 K"}).json()
-    assert [warning["code"] for warning in body["warnings"]] == ["extrapolated"]
+    assert [warning["code"] for warning in body["warnings"]] == ["low-temperature-extension"]
+    releases = [source["release"] for source in body["property_sources"]]
+    assert "IAPWS Guideline (2012)" in releases
+    warm = client.get("/v1/properties/sublimation", params={"temperature": "-20 degC"}).json()
+    assert warm["warnings"] == []
+    assert "IAPWS Guideline (2012)" not in [s["release"] for s in warm["property_sources"]]
 
 
 def test_melting_get_by_pressure(client: TestClient) -> None:
