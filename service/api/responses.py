@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from typing import Any
 
 import numpy as np
@@ -17,26 +18,53 @@ class NonFiniteResultError(RuntimeError):
     """A result contained NaN or infinity: a defect, never sent to a client as a number."""
 
 
+_SHORT_LIST = 32
+"""Lists up to this length are walked item by item; longer ones are checked as arrays."""
+
+
+def _refuse() -> None:
+    raise NonFiniteResultError("non-finite number in a response")
+
+
 def _check_finite(content: Any) -> None:
+    """Raise :class:`NonFiniteResultError` if ``content`` holds NaN or infinity anywhere.
+
+    The walk tests exact types first (the common case of an answer built from dicts,
+    lists, strings and floats), then falls back to ``isinstance`` for subclasses.
+    """
     stack = [content]
     while stack:
         item = stack.pop()
-        if isinstance(item, dict):
+        kind = type(item)
+        if kind is str or kind is int or kind is bool or item is None:
+            continue
+        if kind is float:
+            if not math.isfinite(item):
+                _refuse()
+        elif kind is dict:
+            stack.extend(item.values())
+        elif kind is list or kind is tuple:
+            _check_sequence(item, stack)
+        elif isinstance(item, np.ndarray):
+            if item.dtype.kind in "fc" and not np.isfinite(item).all():
+                _refuse()
+        elif isinstance(item, float | np.floating):
+            if not math.isfinite(item):
+                _refuse()
+        elif isinstance(item, dict):
             stack.extend(item.values())
         elif isinstance(item, list | tuple):
-            if item and isinstance(item[0], float | None):
-                numbers = np.fromiter(
-                    (number for number in item if number is not None), dtype=np.float64
-                )
-                if not np.isfinite(numbers).all():
-                    raise NonFiniteResultError("non-finite number in a response")
-            else:
-                stack.extend(item)
-        elif isinstance(item, np.ndarray):
-            if item.dtype.kind == "f" and not np.isfinite(item).all():
-                raise NonFiniteResultError("non-finite number in a response")
-        elif isinstance(item, float) and not np.isfinite(item):
-            raise NonFiniteResultError("non-finite number in a response")
+            _check_sequence(item, stack)
+
+
+def _check_sequence(items: list[Any] | tuple[Any, ...], stack: list[Any]) -> None:
+    if len(items) > _SHORT_LIST and isinstance(items[0], float | None):
+        numbers = [number for number in items if isinstance(number, float)]
+        if len(numbers) + items.count(None) == len(items):
+            if not np.isfinite(np.array(numbers, dtype=np.float64)).all():
+                _refuse()
+            return
+    stack.extend(items)
 
 
 class FastJSONResponse(JSONResponse):

@@ -20,6 +20,7 @@ factor k = 2 (about 95 % confidence); ``coverage`` repeats what each entry assum
 
 from __future__ import annotations
 
+import functools
 from dataclasses import dataclass
 from typing import Final, Literal
 
@@ -462,19 +463,8 @@ def stated_uncertainty(
     >>> lookup.relative_uncertainty.tolist()
     [0.00025, 0.00025]
     """
-    entries = [e for e in STATEMENTS if e.formulation == formulation]
-    if not entries:
-        known = sorted({e.formulation for e in STATEMENTS})
-        raise InvalidInputError(
-            "formulation", f"no uncertainty statements for {formulation!r}; known: {known}"
-        )
-    entries = [e for e in entries if e.quantity == quantity]
-    if not entries:
-        known = sorted({q for f, q in covered_quantities() if f == formulation})
-        raise InvalidInputError(
-            "quantity",
-            f"no uncertainty statement of {formulation} for {quantity!r}; known: {known}",
-        )
+    table = _table_for(formulation, quantity)
+    entries = table.entries
     t = _finite_array(temperature, "temperature")
     p = None if pressure is None else _finite_array(pressure, "pressure")
     if p is not None:
@@ -485,27 +475,25 @@ def stated_uncertainty(
                 "temperature, pressure", f"shapes {t.shape} and {p.shape} do not broadcast"
             ) from None
 
-    index = np.full(t.shape, -1, dtype=np.intp)
-    for k, entry in enumerate(entries):
-        inside = (index < 0) & (t >= entry.minimum_temperature) & (t <= entry.maximum_temperature)
-        index[inside] = k
-    missing = np.flatnonzero(index < 0)
-    if missing.size:
-        first = int(missing[0])
+    # First statement, in table order, whose range holds each temperature.
+    flat = t.reshape(-1, 1)
+    inside = (flat >= table.minimum_temperature) & (flat <= table.maximum_temperature)
+    covered = inside.any(axis=1)
+    index = np.argmax(inside, axis=1).reshape(t.shape)
+    if not covered.all():
+        first = int(np.flatnonzero(~covered)[0])
         raise OutOfRangeError(
             "temperature",
             float(t.reshape(-1)[first]),
-            min(e.minimum_temperature for e in entries),
-            max(e.maximum_temperature for e in entries),
+            float(table.minimum_temperature.min()),
+            float(table.maximum_temperature.max()),
             "K",
             f"no stated uncertainty of {formulation} {quantity.replace('_', ' ')} covers this "
             "temperature",
             first,
         )
     if p is not None:
-        limits = np.array(
-            [np.inf if e.maximum_pressure is None else e.maximum_pressure for e in entries]
-        )
+        limits = table.maximum_pressure
         over = np.flatnonzero(p > limits[index])
         if over.size:
             first = int(over[0])
@@ -520,14 +508,51 @@ def stated_uncertainty(
                 first,
             )
 
-    used = np.unique(index)
+    used = np.flatnonzero(np.bincount(index.reshape(-1), minlength=len(entries)))
     remap = np.full(len(entries), -1, dtype=np.intp)
     remap[used] = np.arange(used.size, dtype=np.intp)
-    values = np.array([e.relative for e in entries], dtype=np.float64)
     return UncertaintyLookup(
-        relative_uncertainty=np.asarray(values[index], dtype=np.float64),
+        relative_uncertainty=np.asarray(table.relative[index], dtype=np.float64),
         statement_index=np.asarray(remap[index], dtype=np.intp),
         statements=tuple(entries[int(k)] for k in used),
+    )
+
+
+@dataclass(frozen=True)
+class _QuantityTable:
+    """The statements of one (formulation, quantity), with their ranges as arrays."""
+
+    entries: tuple[StatedUncertainty, ...]
+    minimum_temperature: FloatArray
+    maximum_temperature: FloatArray
+    maximum_pressure: FloatArray
+    relative: FloatArray
+
+
+@functools.cache
+def _table_for(formulation: str, quantity: str) -> _QuantityTable:
+    """Statements of ``quantity`` in ``formulation``, built once per pair (raises if none)."""
+    entries = tuple(e for e in STATEMENTS if e.formulation == formulation)
+    if not entries:
+        known = sorted({e.formulation for e in STATEMENTS})
+        raise InvalidInputError(
+            "formulation", f"no uncertainty statements for {formulation!r}; known: {known}"
+        )
+    entries = tuple(e for e in entries if e.quantity == quantity)
+    if not entries:
+        known = sorted({q for f, q in covered_quantities() if f == formulation})
+        raise InvalidInputError(
+            "quantity",
+            f"no uncertainty statement of {formulation} for {quantity!r}; known: {known}",
+        )
+    return _QuantityTable(
+        entries=entries,
+        minimum_temperature=np.array([e.minimum_temperature for e in entries]),
+        maximum_temperature=np.array([e.maximum_temperature for e in entries]),
+        maximum_pressure=np.array(
+            [np.inf if e.maximum_pressure is None else e.maximum_pressure for e in entries]
+        ),
+        relative=np.array([e.relative for e in entries], dtype=np.float64),
     )
 
 
@@ -536,9 +561,9 @@ def _finite_array(value: ArrayLike, variable: str) -> FloatArray:
         array = np.asarray(value, dtype=np.float64)
     except (TypeError, ValueError):
         raise InvalidInputError(variable, "not a number or array of numbers") from None
-    bad = np.flatnonzero(~np.isfinite(array))
-    if bad.size:
-        first = int(bad[0])
+    finite = np.isfinite(array)
+    if not finite.all():
+        first = int(np.flatnonzero(~finite)[0])
         raise InvalidInputError(
             variable, f"element {first} is not finite", float(array.reshape(-1)[first])
         )
