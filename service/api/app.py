@@ -19,7 +19,7 @@ from service.api.docs_assets import install_offline_docs
 from service.api.examples import add_examples_to_openapi, default_examples_folder, load_examples
 from service.api.limits import BodySizeLimit, ComputationTimeLimit, document_time_limit
 from service.api.observability import Metrics, RequestObservation
-from service.api.problems import install_problem_handlers
+from service.api.problems import document_validation_problems, install_problem_handlers
 from service.api.recording import RecordKeeper
 from service.api.responses import FastJSONResponse
 from service.api.routers import (
@@ -184,6 +184,7 @@ def create_app(
             )
             add_examples_to_openapi(schema, examples)
             document_csv(schema, csv_routes)
+            document_validation_problems(schema)
             document_time_limit(schema, settings.max_request_seconds)
             if settings.api_keys:
                 document_security(schema)

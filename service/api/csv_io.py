@@ -678,6 +678,15 @@ def document_csv(schema: dict[str, Any], routes: Sequence[CsvRoute]) -> None:
                         ),
                     }
                 }
+                operation.setdefault("responses", {}).setdefault(
+                    "400",
+                    {
+                        "description": "Malformed CSV body (encoding, header, ragged rows).",
+                        "content": {
+                            PROBLEM_MEDIA_TYPE: {"schema": {"$ref": "#/components/schemas/Problem"}}
+                        },
+                    },
+                )
             answer = operation.get("responses", {}).get("200")
             if answer is not None:
                 answer.setdefault("content", {})[CSV_MEDIA_TYPE] = {

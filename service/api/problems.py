@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import json
 import logging
 import math
 from typing import Any
@@ -24,6 +25,7 @@ __all__ = [
     "FieldError",
     "Problem",
     "ProblemError",
+    "document_validation_problems",
     "install_problem_handlers",
     "problem_responses",
 ]
@@ -98,8 +100,49 @@ def problem_responses(*statuses: int) -> dict[int | str, dict[str, Any]]:
     }
 
 
+def document_validation_problems(schema: dict[str, Any]) -> None:
+    """Declare the 422 answers FastAPI documents by itself as the problem documents sent.
+
+    FastAPI adds a 422 ``application/json`` ``HTTPValidationError`` response to every
+    operation with parameters or a body; the service answers those with
+    ``application/problem+json`` :class:`Problem` documents instead (see
+    :func:`install_problem_handlers`). The unused validation-error schemas are dropped.
+    """
+    problem = {"$ref": "#/components/schemas/Problem"}
+    for operations in schema.get("paths", {}).values():
+        for operation in operations.values():
+            answer = operation.get("responses", {}).get("422")
+            if answer is None:
+                continue
+            answer["content"] = {PROBLEM_MEDIA_TYPE: {"schema": problem}}
+            if answer.get("description") == "Validation Error":
+                answer["description"] = (
+                    "Invalid or out-of-range input; the problem names the field and the valid "
+                    "range."
+                )
+    components = schema.get("components", {}).get("schemas", {})
+    if "Problem" not in components:
+        components["Problem"] = Problem.model_json_schema(
+            ref_template="#/components/schemas/{model}"
+        )
+        for name, definition in components["Problem"].pop("$defs", {}).items():
+            components.setdefault(name, definition)
+    for name in ("HTTPValidationError", "ValidationError"):  # in this order: one refs the other
+        if name in components:
+            del components[name]
+            if f'"#/components/schemas/{name}"' in json.dumps(schema):
+                components[name] = {"type": "object"}  # still referenced: keep a stand-in
+
+
+_JSON_INTEGER_RANGE = range(-(2**63), 2**64)
+"""Integers the JSON renderer (orjson) writes as numbers; others are echoed as text."""
+
+
 def _finite_or_none(value: object) -> object:
+    """The received value as JSON can carry it: non-finite floats and huge integers as text."""
     if isinstance(value, float) and not math.isfinite(value):
+        return str(value)
+    if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
         return str(value)
     return value
 
@@ -190,9 +233,15 @@ def install_problem_handlers(app: FastAPI) -> None:
             value = item.get("input")
             if not isinstance(value, str | int | float | bool | None):
                 value = None
+            # A body that is not JSON at all is located at a character offset: name the body.
+            location = (
+                "body"
+                if item.get("type") == "json_invalid"
+                else _location(tuple(item.get("loc", ())))
+            )
             errors.append(
                 FieldError(
-                    field=_location(tuple(item.get("loc", ()))),
+                    field=location,
                     message=str(item.get("msg", "invalid")),
                     value=value,
                 )

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+import re
 from datetime import UTC, datetime
 from typing import Annotated, Any
 
 from fastapi import APIRouter, Path, Query, Request
+from pydantic import BeforeValidator
 
 from service.api.problems import FieldError, ProblemError, problem_responses
 from service.api.recording import RecordKeeper
@@ -34,6 +36,21 @@ def _unavailable(error: StoreUnavailableError) -> ProblemError:
         "The calculation records cannot be read right now; retry later.",
         headers={"Retry-After": "5"},
     )
+
+
+_PLAIN_NUMBER = re.compile(r"\s*[-+]?(\d+\.?\d*|\.\d+)([eE][-+]?\d+)?\s*")
+
+
+def _iso_8601_only(value: object) -> object:
+    """Refuse a bare number, which pydantic would read as a Unix timestamp."""
+    if isinstance(value, int | float) or (
+        isinstance(value, str) and _PLAIN_NUMBER.fullmatch(value)
+    ):
+        raise ValueError("expected an ISO 8601 time such as 2024-05-01T12:00:00Z, not a number")
+    return value
+
+
+IsoTime = Annotated[datetime, BeforeValidator(_iso_8601_only)]
 
 
 def _aware(moment: datetime | None) -> datetime | None:
@@ -101,11 +118,11 @@ def list_calculations(
     kind: Annotated[str | None, Query(description="Only this kind.")] = None,
     key_id: Annotated[str | None, Query(description="Only those made with this key id.")] = None,
     since: Annotated[
-        datetime | None,
+        IsoTime | None,
         Query(description="Only those made at or after this time (ISO 8601; no offset = UTC)."),
     ] = None,
     until: Annotated[
-        datetime | None,
+        IsoTime | None,
         Query(description="Only those made before this time (ISO 8601; no offset = UTC)."),
     ] = None,
     limit: Annotated[int, Query(ge=1, le=_MAX_PAGE, description="Page size.")] = 100,

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 from typing import Annotated
 
-from pydantic import BaseModel, ConfigDict, Field
+from pydantic import BaseModel, ConfigDict, Field, Strict
 
 from service.api.units import UnitSet
 
@@ -22,8 +22,10 @@ __all__ = [
     "WarningOut",
 ]
 
-FiniteFloat = Annotated[float, Field(allow_inf_nan=False)]
-NonNegativeFloat = Annotated[float, Field(allow_inf_nan=False, ge=0)]
+# Strict: a JSON number only. Lax mode would read true/false as 1.0/0.0 and "300" as 300.0,
+# which the documented schema (type number) does not allow. Integers are numbers.
+FiniteFloat = Annotated[float, Strict(), Field(allow_inf_nan=False)]
+NonNegativeFloat = Annotated[float, Strict(), Field(allow_inf_nan=False, ge=0)]
 
 
 class ApiModel(BaseModel):
