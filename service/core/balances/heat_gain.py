@@ -15,6 +15,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 from dataclasses import dataclass
+from typing import Final
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -102,6 +103,9 @@ def solve_heat_per_evaporated_mass(
             return np.inf
         return kappa * mass - total_heat
 
+    guess = _secant_from_zero(total_heat, mismatch, evaporated_mass, upper_bound)
+    if guess is not None:
+        return guess
     low, high = 0.0, upper_bound
     value = mismatch(high)
     # Bisect until the upper end leaves water and overshoots the heat gain.
@@ -120,3 +124,45 @@ def solve_heat_per_evaporated_mass(
                 total_heat,
             )
     return float(brentq(mismatch, low, high, xtol=1e-12, rtol=1e-15, maxiter=200))
+
+
+_SECANT_ITERATIONS: Final = 25
+_SECANT_TOLERANCE: Final = 1e-13
+
+
+def _secant_from_zero(
+    total_heat: float,
+    mismatch: Callable[[float], float],
+    evaporated_mass: Callable[[float], float],
+    upper_bound: float,
+) -> float | None:
+    """Secant iteration started from kappa = Q / m(0); None if it does not settle.
+
+    The evaporated mass changes little with kappa (the heat gain is a correction to the
+    latent-heat load), so the root lies close to Q / m(0) and a few path evaluations
+    find it; the caller falls back to bracketing otherwise.
+    """
+    try:
+        first_mass = evaporated_mass(0.0)
+    except UnsupportedStateError:
+        return None
+    if not first_mass > 0.0:
+        return None
+    previous, previous_value = 0.0, -total_heat
+    current = total_heat / first_mass
+    for _ in range(_SECANT_ITERATIONS):
+        if not 0.0 < current < upper_bound:
+            return None
+        value = mismatch(current)
+        if not np.isfinite(value):
+            return None
+        if abs(value) <= _SECANT_TOLERANCE * total_heat:
+            return current
+        slope = (value - previous_value) / (current - previous)
+        if slope <= 0.0:
+            return None
+        previous, previous_value = current, value
+        current = current - value / slope
+        if abs(current - previous) <= _SECANT_TOLERANCE * max(abs(current), 1.0):
+            return current
+    return None
