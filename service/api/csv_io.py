@@ -35,6 +35,7 @@ from typing import Any
 import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
+from service.api.negotiation import accept_qualities, json_quality
 from service.api.problem_asgi import send_problem
 from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError
 
@@ -410,26 +411,9 @@ def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
 
 def prefers_csv(accept: str | None) -> bool:
     """Whether an ``Accept`` header names ``text/csv`` at least as high as JSON."""
-    if not accept:
-        return False
-    csv_quality = 0.0
-    json_quality = 0.0
-    for entry in accept.split(","):
-        media, *parameters = (part.strip() for part in entry.split(";"))
-        quality = 1.0
-        for parameter in parameters:
-            name, _, value = parameter.partition("=")
-            if name.strip() == "q":
-                try:
-                    quality = float(value)
-                except ValueError:
-                    quality = 0.0
-        media = media.lower()
-        if media == CSV_MEDIA_TYPE:
-            csv_quality = max(csv_quality, quality)
-        elif media in ("application/json", "application/*"):
-            json_quality = max(json_quality, quality)
-    return csv_quality > 0 and csv_quality >= json_quality
+    qualities = accept_qualities(accept)
+    csv_quality = qualities.get(CSV_MEDIA_TYPE, 0.0)
+    return csv_quality > 0 and csv_quality >= json_quality(qualities)
 
 
 # -- the middleware ----------------------------------------------------------------------

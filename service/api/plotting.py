@@ -11,6 +11,7 @@ from typing import Final, Literal
 
 import numpy as np
 
+from service.api.negotiation import accept_qualities, json_quality
 from service.api.units import Dimension, UnitSet, convert_from_si, output_unit
 from service.core.simulation import VacuumChamberResult
 
@@ -40,28 +41,14 @@ def plot_format_for(accept: str | None) -> PlotFormat | None:
     ``image/svg+xml`` or ``image/png`` with a quality at least that of
     ``application/json`` (or ``*/*``) selects a plot; otherwise None.
     """
-    if not accept:
-        return None
+    qualities = accept_qualities(accept)
     best: tuple[float, PlotFormat | None] = (0.0, None)
-    json_quality = 0.0
-    for entry in accept.split(","):
-        media, *parameters = (part.strip() for part in entry.split(";"))
-        quality = 1.0
-        for parameter in parameters:
-            name, _, value = parameter.partition("=")
-            if name.strip() == "q":
-                try:
-                    quality = float(value)
-                except ValueError:
-                    quality = 0.0
-        media = media.lower()
-        if media in ("application/json", "application/*", "*/*"):
-            json_quality = max(json_quality, quality)
-        for kind, media_type in PLOT_MEDIA_TYPES.items():
-            if media == media_type and quality > best[0]:
-                best = (quality, kind)
+    for kind, media_type in PLOT_MEDIA_TYPES.items():
+        quality = qualities.get(media_type, 0.0)
+        if quality > best[0]:
+            best = (quality, kind)
     quality, chosen = best
-    return chosen if chosen is not None and quality >= json_quality else None
+    return chosen if chosen is not None and quality >= json_quality(qualities) else None
 
 
 def _time_axis(seconds: np.ndarray) -> tuple[np.ndarray, str]:
