@@ -1,4 +1,4 @@
-"""Accept-header negotiation shared by the CSV answers and the simulation plots (RFC 9110 12.5.1)."""
+"""Accept-header negotiation shared by CSV answers and simulation plots (RFC 9110, 12.5.1)."""
 
 from __future__ import annotations
 
