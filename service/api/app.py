@@ -20,6 +20,7 @@ from service.api.examples import add_examples_to_openapi, default_examples_folde
 from service.api.limits import BodySizeLimit, ComputationTimeLimit, document_time_limit
 from service.api.observability import Metrics, RequestObservation
 from service.api.problems import document_validation_problems, install_problem_handlers
+from service.api.quantities import read_quantity
 from service.api.recording import RecordKeeper
 from service.api.responses import FastJSONResponse
 from service.api.routers import (
@@ -31,6 +32,8 @@ from service.api.routers import (
     simulations,
 )
 from service.api.security import ApiKeyGuard, document_security
+from service.api.units import Dimension
+from service.core.saturation import saturation_pressure
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
 
@@ -60,6 +63,13 @@ Property lookups also take `text/csv` bodies (one case per row, units in the hea
 `temperature[degC]`) and answer in CSV for `Accept: text/csv`. When the service has API
 keys, every `/v1` route needs `Authorization: Bearer <key>`.
 """
+
+
+def _warm_up() -> None:
+    """Build the per-process caches a first request would otherwise pay for (about 0.3 s):
+    the unit registry and the saturation tables."""
+    read_quantity("25 degC", field="temperature", dimension=Dimension.TEMPERATURE)
+    saturation_pressure(300.0)
 
 
 @contextlib.asynccontextmanager
@@ -92,6 +102,7 @@ async def _lifespan(app: FastAPI) -> AsyncIterator[None]:
         _log.error("record store not ready at startup", extra={"fields": {"reason": str(error)}})
     else:
         await keeper.prune_logged()  # expired records are gone before the first request
+    await anyio.to_thread.run_sync(_warm_up)
     pruning = asyncio.create_task(keeper.keep_pruning())
     try:
         yield
