@@ -18,7 +18,8 @@ __all__ = ["Advisory", "advise_where", "near_critical_point"]
 
 NEAR_CRITICAL_TEMPERATURE_BAND: Final = 1.0
 """K. Within this of the critical temperature, property derivatives (cp, compressibility)
-grow without bound and IAPWS-95 uncertainties are larger (IAPWS R6-95(2018), Sec. 6.3.3)."""
+grow without bound and IAPWS-95 uncertainties are larger (IAPWS R6-95(2018), uncertainty
+estimates; section number not verified)."""
 
 NEAR_CRITICAL_PRESSURE_BAND: Final = 0.01
 """Relative. Together with the temperature band, marks the near-critical region."""

@@ -24,7 +24,7 @@ Use. W. Wagner and A. Pruss, J. Phys. Chem. Ref. Data 31, 387 (2002).
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Final, Literal, NamedTuple
 
 import numpy as np
@@ -753,14 +753,10 @@ def fluid_properties_at(
     # equation's own p(rho, T) agrees only to its round-off, which for the liquid
     # at low pressure is ~1e-4 Pa (cancellation in 1 + delta phir_delta); with the
     # requested p the Gibbs energy h - T s is smooth in p to ~1e-12 J/kg.
-    properties = PhaseProperties(
-        temperature=properties.temperature,
+    properties = replace(
+        properties,
         pressure=p,
-        density=properties.density,
         specific_enthalpy=properties.specific_internal_energy + p / properties.density,
-        specific_internal_energy=properties.specific_internal_energy,
-        specific_entropy=properties.specific_entropy,
-        specific_isobaric_heat_capacity=properties.specific_isobaric_heat_capacity,
     )
     return _reshape(properties, shape)
 
@@ -879,7 +875,9 @@ def _asymptotic_saturation(temp: FloatArray) -> tuple[FloatArray, FloatArray, Fl
     anchors = CRITICAL_TEMPERATURE - _ASYMPTOTIC_BAND * np.array([1.0, 2.0])
     p_anchor, rl_anchor, rv_anchor, ok, _ = _saturation_newton(anchors)
     if not np.all(ok):  # pragma: no cover - the anchors converge by construction
-        raise NotConvergedError("IAPWS-95 near-critical saturation anchor", 60, np.inf, 2)
+        raise NotConvergedError(
+            "IAPWS-95 near-critical saturation anchor", _SATURATION_MAX_ITERATIONS, np.inf, 2
+        )
     half = 0.5 * (rl_anchor - rv_anchor)
     exponent = np.log(half[1] / half[0]) / np.log(2.0)
     fraction = (CRITICAL_TEMPERATURE - temp) / _ASYMPTOTIC_BAND

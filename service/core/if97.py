@@ -34,7 +34,7 @@ from service.core.constants import (
     CRITICAL_TEMPERATURE,
     SPECIFIC_GAS_CONSTANT_IF97,
 )
-from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.errors import OutOfRangeError
 from service.core.if97_coefficients import (
     B23_COEFFICIENTS,
     REGION1_REDUCING_PRESSURE,
@@ -47,6 +47,7 @@ from service.core.if97_coefficients import (
     SATURATION_COEFFICIENTS,
 )
 from service.core.phase import FloatArray, PhaseProperties
+from service.core.validation import broadcast_pair, finite_array
 
 __all__ = [
     "IF97_MAXIMUM_PRESSURE",
@@ -103,33 +104,6 @@ _REGION2_N = np.array([term[2] for term in REGION2_RESIDUAL_TERMS], dtype=np.flo
 
 
 # --------------------------------------------------------------------------- input checks
-
-
-def _as_float_array(value: ArrayLike, variable: str) -> FloatArray:
-    """Convert ``value`` to a finite float64 array or raise InvalidInputError."""
-    try:
-        array = np.asarray(value, dtype=np.float64)
-    except (TypeError, ValueError) as error:
-        raise InvalidInputError(variable, f"not a number or array of numbers ({error})") from None
-    finite = np.isfinite(array)
-    if not np.all(finite):
-        index = int(np.flatnonzero(~finite)[0])
-        bad = float(array.reshape(-1)[index])
-        raise InvalidInputError(
-            variable, f"element {index} is {bad!r}; finite numbers are required", bad
-        )
-    return array
-
-
-def _broadcast(temperature: FloatArray, pressure: FloatArray) -> tuple[FloatArray, FloatArray]:
-    try:
-        t, p = np.broadcast_arrays(temperature, pressure)
-    except ValueError:
-        raise InvalidInputError(
-            "temperature, pressure",
-            f"shapes {temperature.shape} and {pressure.shape} cannot be broadcast together",
-        ) from None
-    return np.array(t, dtype=np.float64), np.array(p, dtype=np.float64)
 
 
 def _first(mask: NDArray[np.bool_]) -> int | None:
@@ -224,7 +198,7 @@ def if97_saturation_pressure(temperature: ArrayLike) -> FloatArray:
     >>> float(if97_saturation_pressure(500.0))  # doctest: +ELLIPSIS
     2638897.7...
     """
-    t = _as_float_array(temperature, "temperature")
+    t = finite_array(temperature, "temperature")
     _check_temperature(
         t,
         IF97_MINIMUM_TEMPERATURE,
@@ -279,12 +253,9 @@ def if97_saturation_temperature(pressure: ArrayLike) -> FloatArray:
     >>> float(if97_saturation_temperature(1.0e6))  # doctest: +ELLIPSIS
     453.03563...
     """
-    p = _as_float_array(pressure, "pressure")
-    low = _first(p < IF97_SATURATION_MINIMUM_PRESSURE)
-    high = _first(p > IF97_SATURATION_MAXIMUM_PRESSURE)
-    candidates = [i for i in (low, high) if i is not None]
-    if candidates:
-        index = min(candidates)
+    p = finite_array(pressure, "pressure")
+    index = _first((p < IF97_SATURATION_MINIMUM_PRESSURE) | (p > IF97_SATURATION_MAXIMUM_PRESSURE))
+    if index is not None:
         raise OutOfRangeError(
             "pressure",
             float(p.reshape(-1)[index]),
@@ -339,7 +310,7 @@ def if97_b23_pressure(temperature: ArrayLike) -> FloatArray:
     >>> float(if97_b23_pressure(623.15))  # doctest: +ELLIPSIS
     16529164.2...
     """
-    t = _as_float_array(temperature, "temperature")
+    t = finite_array(temperature, "temperature")
     _check_temperature(
         t,
         IF97_REGION1_MAXIMUM_TEMPERATURE,
@@ -447,9 +418,9 @@ def _check_liquid_state(t: FloatArray, p: FloatArray) -> None:
 
 
 def _prepare(temperature: ArrayLike, pressure: ArrayLike) -> tuple[FloatArray, FloatArray]:
-    t = _as_float_array(temperature, "temperature")
-    p = _as_float_array(pressure, "pressure")
-    return _broadcast(t, p)
+    t = finite_array(temperature, "temperature")
+    p = finite_array(pressure, "pressure")
+    return broadcast_pair(t, p, "pressure")
 
 
 def if97_liquid_properties(temperature: ArrayLike, pressure: ArrayLike) -> PhaseProperties:

@@ -19,6 +19,7 @@ from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.melting import MeltingStates, melting_by_pressure, melting_by_temperature
 from service.core.phase import FloatArray
 from service.core.saturation import (
+    Formulation,
     SaturationStates,
     saturation_by_pressure,
     saturation_by_temperature,
@@ -43,7 +44,6 @@ __all__ = [
     "sublimation_lookup",
 ]
 
-Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
 StatesT = TypeVar("StatesT")
 
 LOW_TEMPERATURE_VAPOR_LIMIT: Final = 130.0
@@ -194,6 +194,7 @@ def saturation_lookup(
     else:
         states = saturation_by_pressure(_given(pressure), formulation=formulation)
     t = states.temperature
+    batch = _batch(temperature, pressure)
     uncertainties = [
         _report(formulation, "saturation_pressure", t, label="pressure"),
         _report(formulation, "saturated_liquid_density", t, label="liquid.density"),
@@ -205,14 +206,14 @@ def saturation_lookup(
         | np.isposinf(states.vapor.specific_isobaric_heat_capacity),
         "diverges",
         "At the critical point the isobaric heat capacity is infinite; it is reported as null.",
-        batch=_batch(temperature, pressure),
+        batch=batch,
     )
     advisories += advise_where(
         near_critical_point(t),
         "near-critical-point",
         "Within 1 K of the critical point: liquid and vapor properties converge, heat "
         "capacities grow without bound and uncertainties are larger.",
-        batch=_batch(temperature, pressure),
+        batch=batch,
     )
     return Lookup(
         states=states,

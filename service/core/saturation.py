@@ -31,7 +31,7 @@ region-2 equations of :mod:`service.core.if97` are used, from 273.15 K to
 from __future__ import annotations
 
 import functools
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from typing import Final, Literal
 
 import numpy as np
@@ -45,6 +45,15 @@ from service.core.constants import (
 )
 from service.core.errors import InvalidInputError, NotConvergedError
 from service.core.helmholtz import fluid_properties, solve_saturation
+from service.core.if97 import (
+    IF97_MINIMUM_TEMPERATURE,
+    IF97_SATURATION_MINIMUM_PRESSURE,
+    if97_liquid_properties,
+    if97_saturation_pressure,
+    if97_saturation_temperature,
+    if97_vapor_properties,
+)
+from service.core.if97 import IF97_REGION1_MAXIMUM_TEMPERATURE as IF97_MAXIMUM_TEMPERATURE
 from service.core.phase import FloatArray, PhaseProperties
 from service.core.validation import finite_array, require_within
 
@@ -63,10 +72,13 @@ Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
 CRITICAL_FALLBACK_BAND: Final = 0.5
 """K; for T > T_c - 0.5 K the exact IAPWS-95 solver replaces the tables."""
 
-IF97_MINIMUM_TEMPERATURE: Final = 273.15
-"""K, lower end of the IAPWS-IF97 saturation line (IAPWS R7-97(2012), Sec. 8)."""
-IF97_MAXIMUM_TEMPERATURE: Final = 623.15
-"""K, boundary between IF97 regions 1/2 and region 3 on the saturation line."""
+_IF97_MAXIMUM_PRESSURE: Final = float(if97_saturation_pressure(IF97_MAXIMUM_TEMPERATURE))
+"""Pa, IF97 saturation pressure at 623.15 K, where regions 1/2 meet region 3."""
+_IF97_REGION3_REASON: Final = (
+    "IAPWS-IF97 saturation above 623.15 K needs region 3, which is not "
+    "supported here; use formulation='IAPWS-95'"
+)
+_IF97_LOW_REASON: Final = "the IAPWS-IF97 saturation line starts at 273.15 K"
 
 _TABLE_SEGMENTS: Final = 96
 _TABLE_DEGREE: Final = 10
@@ -155,25 +167,15 @@ def _exact_phases(temperature: FloatArray) -> tuple[PhaseProperties, PhaseProper
     liquid = fluid_properties(solution.liquid_density, temperature)
     vapor = fluid_properties(solution.vapor_density, temperature)
     # Both phases at the one equilibrium pressure (the vapor-side value).
-    liquid = PhaseProperties(
-        temperature=liquid.temperature,
-        pressure=solution.pressure,
-        density=liquid.density,
-        # h' = u' + p / rho' with the equilibrium pressure: the liquid's own
-        # p(rho', T) carries round-off of ~1e-4 Pa near the triple point.
-        specific_enthalpy=liquid.specific_internal_energy + solution.pressure / liquid.density,
-        specific_internal_energy=liquid.specific_internal_energy,
-        specific_entropy=liquid.specific_entropy,
-        specific_isobaric_heat_capacity=liquid.specific_isobaric_heat_capacity,
-    )
-    vapor = PhaseProperties(
-        temperature=vapor.temperature,
-        pressure=solution.pressure,
-        density=vapor.density,
-        specific_enthalpy=vapor.specific_internal_energy + solution.pressure / vapor.density,
-        specific_internal_energy=vapor.specific_internal_energy,
-        specific_entropy=vapor.specific_entropy,
-        specific_isobaric_heat_capacity=vapor.specific_isobaric_heat_capacity,
+    # h = u + p / rho with the equilibrium pressure: the liquid's own p(rho', T)
+    # carries round-off of ~1e-4 Pa near the triple point.
+    liquid, vapor = (
+        replace(
+            phase,
+            pressure=solution.pressure,
+            specific_enthalpy=phase.specific_internal_energy + solution.pressure / phase.density,
+        )
+        for phase in (liquid, vapor)
     )
     return liquid, vapor
 
@@ -438,13 +440,7 @@ def _validated_temperature(temperature: ArrayLike, formulation: str) -> FloatArr
 
 
 def _check_if97_temperature(temp: FloatArray) -> None:
-    if np.any(temp > IF97_MAXIMUM_TEMPERATURE):
-        reason = (
-            "IAPWS-IF97 saturation above 623.15 K needs region 3, which is not "
-            "supported here; use formulation='IAPWS-95'"
-        )
-    else:
-        reason = "the IAPWS-IF97 saturation line starts at 273.15 K"
+    reason = _IF97_REGION3_REASON if np.any(temp > IF97_MAXIMUM_TEMPERATURE) else _IF97_LOW_REASON
     require_within(
         temp, "temperature", IF97_MINIMUM_TEMPERATURE, IF97_MAXIMUM_TEMPERATURE, "K", reason
     )
@@ -459,32 +455,17 @@ def _validated_pressure(pressure: ArrayLike, formulation: str) -> FloatArray:
         require_within(
             pres,
             "pressure",
-            _tables().minimum_pressure,
+            minimum,
             CRITICAL_PRESSURE,
             "Pa",
             "IAPWS-95 liquid-vapor saturation runs from its triple-point pressure "
             "(611.6548 Pa at 273.16 K) to the critical pressure",
         )
     else:
-        from service.core.if97 import if97_saturation_pressure
-
-        limits = np.asarray(
-            if97_saturation_pressure(
-                np.array([IF97_MINIMUM_TEMPERATURE, IF97_MAXIMUM_TEMPERATURE])
-            ),
-            dtype=np.float64,
-        )
-        pres = _snap_to_limits(
-            pres, float(limits[0]), float(limits[1]), _PRESSURE_ROUNDOFF, relative=True
-        )
-        if np.any(pres > limits[1]):
-            reason = (
-                "IAPWS-IF97 saturation above 623.15 K needs region 3, which is not "
-                "supported here; use formulation='IAPWS-95'"
-            )
-        else:
-            reason = "the IAPWS-IF97 saturation line starts at 273.15 K"
-        require_within(pres, "pressure", float(limits[0]), float(limits[1]), "Pa", reason)
+        low, high = IF97_SATURATION_MINIMUM_PRESSURE, _IF97_MAXIMUM_PRESSURE
+        pres = _snap_to_limits(pres, low, high, _PRESSURE_ROUNDOFF, relative=True)
+        reason = _IF97_REGION3_REASON if np.any(pres > high) else _IF97_LOW_REASON
+        require_within(pres, "pressure", low, high, "Pa", reason)
     return pres
 
 
@@ -512,8 +493,6 @@ def _reshape_states(states: SaturationStates, shape: tuple[int, ...]) -> Saturat
 
 
 def _if97_states(temperature: FloatArray, pressure: FloatArray) -> SaturationStates:
-    from service.core.if97 import if97_liquid_properties, if97_vapor_properties
-
     liquid = if97_liquid_properties(temperature, pressure)
     vapor = if97_vapor_properties(temperature, pressure)
     return SaturationStates(
@@ -591,10 +570,7 @@ def saturation_by_temperature(
     shape = temp.shape
     flat = temp.ravel()
     if formulation == "IAPWS-IF97":
-        from service.core.if97 import if97_saturation_pressure
-
-        pressure = np.asarray(if97_saturation_pressure(flat), dtype=np.float64)
-        return _reshape_states(_if97_states(flat, pressure), shape)
+        return _reshape_states(_if97_states(flat, if97_saturation_pressure(flat)), shape)
     return _reshape_states(_iapws95_states(flat), shape)
 
 
@@ -653,12 +629,10 @@ def saturation_by_pressure(
     shape = pres.shape
     flat = pres.ravel()
     if formulation == "IAPWS-IF97":
-        from service.core.if97 import if97_saturation_temperature
-
         # The IF97 region-4 equations are exact inverses of each other; clipping
         # only removes round-off (~1e-13 K) at the ends of the range.
         temperature = np.clip(
-            np.asarray(if97_saturation_temperature(flat), dtype=np.float64),
+            if97_saturation_temperature(flat),
             IF97_MINIMUM_TEMPERATURE,
             IF97_MAXIMUM_TEMPERATURE,
         )
@@ -666,8 +640,8 @@ def saturation_by_pressure(
     temperature = _iapws95_temperature(flat)
     states = _iapws95_states(temperature)
     # The states are at the requested pressure; the table agrees to ~1e-13.
-    liquid = _with_pressure(states.liquid, flat)
-    vapor = _with_pressure(states.vapor, flat)
+    liquid = replace(states.liquid, pressure=flat)
+    vapor = replace(states.vapor, pressure=flat)
     return _reshape_states(
         SaturationStates(
             temperature=temperature,
@@ -677,18 +651,6 @@ def saturation_by_pressure(
             latent_heat_of_vaporization=states.latent_heat_of_vaporization,
         ),
         shape,
-    )
-
-
-def _with_pressure(properties: PhaseProperties, pressure: FloatArray) -> PhaseProperties:
-    return PhaseProperties(
-        temperature=properties.temperature,
-        pressure=pressure,
-        density=properties.density,
-        specific_enthalpy=properties.specific_enthalpy,
-        specific_internal_energy=properties.specific_internal_energy,
-        specific_entropy=properties.specific_entropy,
-        specific_isobaric_heat_capacity=properties.specific_isobaric_heat_capacity,
     )
 
 
@@ -730,9 +692,7 @@ def saturation_pressure(
     temp = _validated_temperature(temperature, formulation)
     flat = temp.ravel()
     if formulation == "IAPWS-IF97":
-        from service.core.if97 import if97_saturation_pressure
-
-        return np.asarray(if97_saturation_pressure(flat), dtype=np.float64).reshape(temp.shape)
+        return if97_saturation_pressure(flat).reshape(temp.shape)
     tables = _tables()
     near_critical = flat > _TABLE_TEMPERATURE_LIMIT
     log_p = tables.log_pressure(np.minimum(flat, _TABLE_TEMPERATURE_LIMIT))[0]
@@ -779,7 +739,5 @@ def saturation_temperature(
     pres = _validated_pressure(pressure, formulation)
     flat = pres.ravel()
     if formulation == "IAPWS-IF97":
-        from service.core.if97 import if97_saturation_temperature
-
-        return np.asarray(if97_saturation_temperature(flat), dtype=np.float64).reshape(pres.shape)
+        return if97_saturation_temperature(flat).reshape(pres.shape)
     return _iapws95_temperature(flat).reshape(pres.shape)

@@ -27,12 +27,17 @@ from service.core.constants import (
     TRIPLE_POINT_TEMPERATURE,
 )
 from service.core.errors import UnsupportedStateError
-from service.core.helmholtz import fluid_properties_at
+from service.core.helmholtz import MAXIMUM_TEMPERATURE as IAPWS95_MAXIMUM_TEMPERATURE
+from service.core.helmholtz import MINIMUM_TEMPERATURE_LIQUID, fluid_properties_at
 from service.core.ice import ice_properties
+from service.core.ice_coefficients import (
+    MELTING_MINIMUM_TEMPERATURE,
+    SUBLIMATION_MINIMUM_TEMPERATURE,
+)
 from service.core.if97 import if97_liquid_properties, if97_vapor_properties
 from service.core.phase import FloatArray, PhaseProperties
 from service.core.phase_lines import melting_pressure, sublimation_pressure
-from service.core.saturation import saturation_pressure
+from service.core.saturation import Formulation, saturation_pressure
 from service.core.validation import broadcast_pair, finite_array, require_within
 
 __all__ = [
@@ -43,23 +48,30 @@ __all__ = [
     "state_at",
 ]
 
-Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
 Phase = Literal["liquid", "vapor", "ice"]
 
-MINIMUM_TEMPERATURE: Final = 50.0
-"""K. Lowest temperature served: the low end of the R14-08 sublimation curve."""
-MAXIMUM_TEMPERATURE: Final = 1273.0
-"""K. Upper validity limit of IAPWS-95 (R6-95(2018), Sec. 6.3)."""
+MINIMUM_TEMPERATURE: Final = SUBLIMATION_MINIMUM_TEMPERATURE
+"""K (50 K). Lowest temperature served: the low end of the R14-08 sublimation curve."""
+MAXIMUM_TEMPERATURE: Final = IAPWS95_MAXIMUM_TEMPERATURE
+"""K (1273 K). Upper validity limit of IAPWS-95 (R6-95(2018), range of validity;
+section number not verified)."""
 MAXIMUM_PRESSURE: Final = 100.0e6
 """Pa. Kept below the ice Ih / ice III boundary so ice Ih is the only solid."""
-SUPERCOOLED_LIQUID_MINIMUM_TEMPERATURE: Final = 235.0
-"""K. Metastable liquid is served down to about the homogeneous nucleation temperature at
-ambient pressure, where IAPWS-95 is documented to extrapolate reasonably (R6-95(2018), Sec. 7)."""
-LOWEST_MELTING_TEMPERATURE: Final = 251.165
-"""K. Ice Ih - ice III - liquid triple point, lower end of the ice Ih melting curve (R14-08)."""
+SUPERCOOLED_LIQUID_MINIMUM_TEMPERATURE: Final = MINIMUM_TEMPERATURE_LIQUID
+"""K (235 K). Metastable liquid is served down to about the homogeneous nucleation temperature
+at ambient pressure, where IAPWS-95 is documented to extrapolate reasonably (R6-95(2018), on
+extrapolation; section number not verified)."""
+LOWEST_MELTING_TEMPERATURE: Final = MELTING_MINIMUM_TEMPERATURE
+"""K (251.165 K). Ice Ih - ice III - liquid triple point, lower end of the ice Ih melting
+curve (R14-08)."""
 
 _CODES: Final = np.array(["liquid", "vapor", "ice", "supercritical"], dtype=object)
 _LIQUID, _VAPOR, _ICE, _SUPERCRITICAL = 0, 1, 2, 3
+_FLUID_BRANCHES: Final[tuple[tuple[int, Literal["liquid", "vapor"]], ...]] = (
+    (_LIQUID, "liquid"),
+    (_VAPOR, "vapor"),
+    (_SUPERCRITICAL, "liquid"),
+)
 
 
 @dataclass(frozen=True)
@@ -230,14 +242,12 @@ def state_at(
     stable = _stable_phase(t, p)
     code = _requested_codes(stable, t, phase)
     parts: list[tuple[NDArray[np.intp], PhaseProperties]] = []
-    used = []
-    for value, branch in ((_LIQUID, "liquid"), (_VAPOR, "vapor"), (_SUPERCRITICAL, "vapor")):
+    used: list[sources.PropertySource] = []
+    # Supercritical states are solved on the dense (liquid) branch of the fluid.
+    for value, branch in _FLUID_BRANCHES:
         index = np.flatnonzero(code == value)
         if index.size:
-            fluid_branch: Literal["liquid", "vapor"] = "liquid" if branch == "liquid" else "vapor"
-            if value == _SUPERCRITICAL:
-                fluid_branch = "liquid"
-            parts.append((index, _fluid(t[index], p[index], fluid_branch, formulation)))
+            parts.append((index, _fluid(t[index], p[index], branch, formulation)))
             used.append(sources.source_for(formulation))
     ice_index = np.flatnonzero(code == _ICE)
     if ice_index.size:

@@ -11,8 +11,9 @@ IAPWS-95 states its validity for the stable fluid from the melting curve
 upwards (lowest 251.165 K); the vapor on the sublimation curve below that, down
 to 50 K at about 1.9e-40 Pa, is an extrapolation (see
 :func:`service.core.helmholtz.fluid_properties_at` for how its vapor branch is
-extended). At these pressures the vapor is an ideal gas to round-off, so its
-properties come from the ideal-gas part alone. The core does not warn about
+extended). At these pressures the vapor is an ideal gas to round-off: the full
+IAPWS-95 equation is evaluated, but its residual part is negligible there and
+the properties are those of the ideal-gas part. The core does not warn about
 this; callers that need to flag it can compare the temperature with 251.165 K.
 Measured against the phase-equilibrium condition, the Gibbs energies of ice and
 vapor on the R14-08 curve differ by at most 7e-5 R T above 200 K and 1.4e-3 R T

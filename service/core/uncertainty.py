@@ -30,6 +30,7 @@ from numpy.typing import ArrayLike, NDArray
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.phase import FloatArray
 from service.core.sources import IAPWS_95, IAPWS_IF97, ICE_IH, MELTING_AND_SUBLIMATION
+from service.core.validation import broadcast_pair, finite_array
 
 __all__ = [
     "STATEMENTS",
@@ -42,7 +43,6 @@ __all__ = [
 
 Basis = Literal["release text", "from memory", "derived"]
 
-_K2: Final = "k = 2 (expanded, about 95 %), as IAPWS states its estimates"
 _K2_RECALLED: Final = "k = 2 (expanded, about 95 %) assumed: IAPWS convention, coverage recalled"
 _AMBIENT_PRESSURE_LIMIT: Final = 1.0e6  # Pa; "ambient pressure" statements are not used above
 
@@ -465,15 +465,10 @@ def stated_uncertainty(
     """
     table = _table_for(formulation, quantity)
     entries = table.entries
-    t = _finite_array(temperature, "temperature")
-    p = None if pressure is None else _finite_array(pressure, "pressure")
+    t = finite_array(temperature, "temperature")
+    p = None if pressure is None else finite_array(pressure, "pressure")
     if p is not None:
-        try:
-            t, p = (np.array(a, dtype=np.float64) for a in np.broadcast_arrays(t, p))
-        except ValueError:
-            raise InvalidInputError(
-                "temperature, pressure", f"shapes {t.shape} and {p.shape} do not broadcast"
-            ) from None
+        t, p = broadcast_pair(t, p, "pressure")
 
     # First statement, in table order, whose range holds each temperature.
     flat = t.reshape(-1, 1)
@@ -554,17 +549,3 @@ def _table_for(formulation: str, quantity: str) -> _QuantityTable:
         ),
         relative=np.array([e.relative for e in entries], dtype=np.float64),
     )
-
-
-def _finite_array(value: ArrayLike, variable: str) -> FloatArray:
-    try:
-        array = np.asarray(value, dtype=np.float64)
-    except (TypeError, ValueError):
-        raise InvalidInputError(variable, "not a number or array of numbers") from None
-    finite = np.isfinite(array)
-    if not finite.all():
-        first = int(np.flatnonzero(~finite)[0])
-        raise InvalidInputError(
-            variable, f"element {first} is not finite", float(array.reshape(-1)[first])
-        )
-    return array
