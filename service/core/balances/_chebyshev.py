@@ -10,6 +10,12 @@ round-off with a few dozen nodes.
 Method: Trefethen, L. N., *Spectral Methods in MATLAB*, SIAM (2000), ch. 6
 (differentiation) and ch. 12 (Clenshaw-Curtis quadrature); here the matrices are
 built once per node count from numpy's Chebyshev series routines.
+
+Not :mod:`service.core.chebyshev`: that module fits piecewise tables on
+first-kind points (no node at the interval ends) and evaluates them elsewhere; a
+stage needs nodes at both ends (its start and end states) and acts on values at
+the nodes with differentiation and cumulative-integration matrices, which the
+table code has no use for.
 """
 
 from __future__ import annotations

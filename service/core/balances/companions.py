@@ -17,9 +17,17 @@ from typing import Final
 import numpy as np
 from numpy.typing import ArrayLike
 
+from service.core.balances.scalars import require_scalar_within
 from service.core.errors import InvalidInputError
 
-__all__ = ["MATERIAL_SPECIFIC_HEATS", "Companion", "MaterialSpecificHeat", "companion_of"]
+__all__ = [
+    "MATERIAL_SPECIFIC_HEATS",
+    "Companion",
+    "MaterialSpecificHeat",
+    "checked_heat_capacity",
+    "companion_of",
+    "heat_capacity",
+]
 
 
 @dataclass(frozen=True)
@@ -102,3 +110,36 @@ def heat_capacity(companions: tuple[Companion, ...]) -> float:
     return float(
         sum(float(np.asarray(c.mass)) * float(np.asarray(c.specific_heat)) for c in companions)
     )
+
+
+def checked_heat_capacity(
+    companions: tuple[Companion, ...],
+    index: int | None = None,
+    *,
+    specific_heat_max: float | None = None,
+) -> float:
+    """:func:`heat_capacity` after checking every companion's fields, J/K.
+
+    Raises
+    ------
+    InvalidInputError
+        A NaN or infinite mass or specific heat.
+    OutOfRangeError
+        A negative mass, or a specific heat below 0 or above ``specific_heat_max``
+        (``None``: no upper limit), naming ``companions[i].<field>`` and the sweep
+        element ``index``.
+    """
+    for position, companion in enumerate(companions):
+        require_scalar_within(
+            companion.mass, f"companions[{position}].mass", 0.0, None, "kg", "must be >= 0", index
+        )
+        require_scalar_within(
+            companion.specific_heat,
+            f"companions[{position}].specific_heat",
+            0.0,
+            specific_heat_max,
+            "J/(kg K)",
+            "must be >= 0",
+            index,
+        )
+    return heat_capacity(companions)

@@ -35,7 +35,6 @@ mu = mu* + R T ln a_w: e.g. Atkins, P. and de Paula, J., *Physical Chemistry*,
 from __future__ import annotations
 
 from dataclasses import dataclass
-from functools import cache
 from typing import Final
 
 import numpy as np
@@ -47,7 +46,6 @@ from service.core.constants import (
 )
 from service.core.errors import NotConvergedError
 from service.core.helmholtz import fluid_properties_at
-from service.core.ice import ice_properties
 from service.core.phase import FloatArray, PhaseProperties
 from service.core.saturation import saturation_by_temperature
 from service.core.sublimation import sublimation_by_temperature
@@ -58,7 +56,6 @@ __all__ = [
     "freezing_solution_states",
     "ice_vapor_states",
     "liquid_vapor_states",
-    "triple_point_ice",
 ]
 
 _LATENT_HEAT_GUESS: Final = 2.5e6
@@ -210,9 +207,3 @@ def freezing_solution_states(temperature: FloatArray) -> FreezingSolutionStates:
         vapor=sublimation.vapor,
         log_water_activity=np.asarray(log_activity, dtype=np.float64),
     )
-
-
-@cache
-def triple_point_ice() -> PhaseProperties:
-    """Ice Ih at the triple point (273.16 K, 611.657 Pa), IAPWS R10-06(2009)."""
-    return ice_properties(TRIPLE_POINT_TEMPERATURE, TRIPLE_POINT_PRESSURE)

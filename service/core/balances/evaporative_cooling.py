@@ -37,7 +37,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from service.core.advisories import Advisory
-from service.core.balances.companions import Companion, heat_capacity
+from service.core.balances.companions import Companion, checked_heat_capacity
 from service.core.balances.equilibrium_paths import ice_vapor_states, liquid_vapor_states
 from service.core.balances.food_composition import (
     CHOI_OKOS_REFERENCE,
@@ -49,13 +49,18 @@ from service.core.balances.heat_gain import (
     HeatGain,
     solve_heat_per_evaporated_mass,
 )
+from service.core.balances.scalars import (
+    finite_scalar,
+    optional_finite_scalar,
+    require_scalar_within,
+)
 from service.core.balances.solutes import DissolvedSolids, Solute
 from service.core.balances.solution_freezing import (
     LOWEST_FREEZING_TEMPERATURE,
     lowest_log_water_activity,
     solution_freezing_point,
 )
-from service.core.balances.stages import DEGREE, interval_of
+from service.core.balances.stages import DEGREE, interval_of, solve_linear_mass
 from service.core.balances.sweeps import expand_case
 from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
@@ -237,15 +242,6 @@ class _Numbers:
     composition_rescaled: bool
 
 
-def _value(value: ArrayLike | None, name: str) -> float | None:
-    if value is None:
-        return None
-    number = float(np.asarray(value))
-    if not np.isfinite(number):
-        raise InvalidInputError(name, f"must be finite, got {number!r}", number)
-    return number
-
-
 def _freezing_point_basis(case: EvaporativeCoolingCase) -> FreezingPointBasis:
     if case.freezing_point is not None:
         return "given"
@@ -267,10 +263,9 @@ def _dissolved_solids(case: EvaporativeCoolingCase, index: int | None) -> Solute
         )
     limits = EVAPORATIVE_COOLING_LIMITS
     water = case.composition.fractions()["water"]
-    fraction = _value(solids.mass_fraction, "dissolved_solids.mass_fraction")
-    molar = _value(solids.molar_mass, "dissolved_solids.molar_mass")
-    factor = _value(solids.van_t_hoff_factor, "dissolved_solids.van_t_hoff_factor")
-    assert fraction is not None and molar is not None and factor is not None
+    fraction = finite_scalar(solids.mass_fraction, "dissolved_solids.mass_fraction")
+    molar = finite_scalar(solids.molar_mass, "dissolved_solids.molar_mass")
+    factor = finite_scalar(solids.van_t_hoff_factor, "dissolved_solids.van_t_hoff_factor")
     if not 0.0 <= fraction <= 1.0 - water + _FRACTION_SLACK:
         raise OutOfRangeError(
             "dissolved_solids.mass_fraction",
@@ -282,26 +277,24 @@ def _dissolved_solids(case: EvaporativeCoolingCase, index: int | None) -> Solute
             f"water ({water:.6g}) + dissolved solids must not exceed 1",
             index,
         )
-    if molar < limits["dissolved_solids_molar_mass_min"]:
-        raise OutOfRangeError(
-            "dissolved_solids.molar_mass",
-            molar,
-            limits["dissolved_solids_molar_mass_min"],
-            None,
-            "kg/mol",
-            "effective molar mass of the dissolved solids",
-            index,
-        )
-    if not 1.0 <= factor <= limits["dissolved_solids_van_t_hoff_factor_max"]:
-        raise OutOfRangeError(
-            "dissolved_solids.van_t_hoff_factor",
-            factor,
-            1.0,
-            limits["dissolved_solids_van_t_hoff_factor_max"],
-            "1",
-            "particles per dissolved formula unit",
-            index,
-        )
+    require_scalar_within(
+        molar,
+        "dissolved_solids.molar_mass",
+        limits["dissolved_solids_molar_mass_min"],
+        None,
+        "kg/mol",
+        "effective molar mass of the dissolved solids",
+        index,
+    )
+    require_scalar_within(
+        factor,
+        "dissolved_solids.van_t_hoff_factor",
+        1.0,
+        limits["dissolved_solids_van_t_hoff_factor_max"],
+        "1",
+        "particles per dissolved formula unit",
+        index,
+    )
     return solids.in_solution(water)
 
 
@@ -335,20 +328,18 @@ def _estimated_freezing_point(
 def _freezing_point(case: EvaporativeCoolingCase, index: int | None) -> float:
     """K: given, else estimated from the dissolved solids, else pure water's 273.16 K."""
     limits = EVAPORATIVE_COOLING_LIMITS
-    given = _value(case.freezing_point, "freezing_point")
+    given = optional_finite_scalar(case.freezing_point, "freezing_point")
     solute = _dissolved_solids(case, index)
     if given is not None:
-        if not limits["freezing_point_min"] <= given <= TRIPLE_POINT_TEMPERATURE:
-            raise OutOfRangeError(
-                "freezing_point",
-                given,
-                limits["freezing_point_min"],
-                TRIPLE_POINT_TEMPERATURE,
-                "K",
-                "a product's initial freezing point lies at or below pure water's",
-                index,
-            )
-        return given
+        return require_scalar_within(
+            given,
+            "freezing_point",
+            limits["freezing_point_min"],
+            TRIPLE_POINT_TEMPERATURE,
+            "K",
+            "a product's initial freezing point lies at or below pure water's",
+            index,
+        )
     if solute is not None:
         return _estimated_freezing_point(case, solute, index)
     return TRIPLE_POINT_TEMPERATURE
@@ -356,12 +347,12 @@ def _freezing_point(case: EvaporativeCoolingCase, index: int | None) -> float:
 
 def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
     limits = EVAPORATIVE_COOLING_LIMITS
-    mass = _value(case.product_mass, "product_mass")
-    initial = _value(case.initial_temperature, "initial_temperature")
-    final = _value(case.final_temperature, "final_temperature")
-    assert mass is not None and initial is not None and final is not None
-    if mass <= 0.0:
-        raise OutOfRangeError("product_mass", mass, 0.0, None, "kg", "must be positive", index)
+    mass = finite_scalar(case.product_mass, "product_mass")
+    initial = finite_scalar(case.initial_temperature, "initial_temperature")
+    final = finite_scalar(case.final_temperature, "final_temperature")
+    require_scalar_within(
+        mass, "product_mass", 0.0, None, "kg", "must be positive", index, exclusive_minimum=True
+    )
     freezing = _freezing_point(case, index)
     if not freezing <= initial <= limits["initial_temperature_max"]:
         raise OutOfRangeError(
@@ -398,20 +389,7 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
         )
     if (case.specific_heat is None) == (case.composition is None):
         raise InvalidInputError("specific_heat", "give exactly one of specific_heat or composition")
-    companions = heat_capacity(case.companions)
-    for position, companion in enumerate(case.companions):
-        for attribute in ("mass", "specific_heat"):
-            number = _value(getattr(companion, attribute), f"companions[{position}].{attribute}")
-            if number is None or number < 0.0:
-                raise OutOfRangeError(
-                    f"companions[{position}].{attribute}",
-                    float(number or 0.0),
-                    0.0,
-                    None,
-                    "SI",
-                    "must be >= 0",
-                    index,
-                )
+    companions = checked_heat_capacity(case.companions, index)
     gain = case.heat_gain.total() if case.heat_gain is not None else 0.0
 
     lower, upper = final, initial
@@ -435,12 +413,17 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
         hand_released_per_mass = float(h_l[-1] - h_l[0])
         hand_extra = float(interval.integral(extra))
     else:
-        specific = _value(case.specific_heat, "specific_heat")
-        assert specific is not None
-        if not 0.0 < specific <= 1e4:
-            raise OutOfRangeError(
-                "specific_heat", specific, 0.0, 1e4, "J/(kg K)", "must be positive", index
-            )
+        assert case.specific_heat is not None
+        specific = require_scalar_within(
+            case.specific_heat,
+            "specific_heat",
+            0.0,
+            1e4,
+            "J/(kg K)",
+            "must be positive",
+            index,
+            exclusive_minimum=True,
+        )
         start_mass = mass
         per_mass = np.full_like(h_l, specific)
         extra = np.full_like(h_l, companions)
@@ -455,11 +438,7 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
             )
         a = per_mass / denominator
         b = extra / denominator
-        exponent = interval.integral_from_lower(a)
-        exponent = exponent - exponent[-1]
-        source = interval.integral_from_lower(b * np.exp(-exponent))
-        source = source - source[-1]
-        current = np.exp(exponent) * (start_mass + source)
+        current = solve_linear_mass(interval, a, b, start_mass)
         if np.any(current <= 0.0):
             raise UnsupportedStateError(
                 "product_mass", "all the product's water would evaporate before the end"
@@ -501,23 +480,24 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
     prewetting = evaporated / (1.0 - free_fraction)
 
     condenser_load = None
-    trap = _value(case.trap_temperature, "trap_temperature")
+    trap = optional_finite_scalar(case.trap_temperature, "trap_temperature")
     if trap is not None:
-        if not limits["trap_temperature_min"] <= trap <= TRIPLE_POINT_TEMPERATURE:
-            raise OutOfRangeError(
-                "trap_temperature",
-                trap,
-                limits["trap_temperature_min"],
-                TRIPLE_POINT_TEMPERATURE,
-                "K",
-                "the trap collects the vapor as ice",
-                index,
-            )
+        require_scalar_within(
+            trap,
+            "trap_temperature",
+            limits["trap_temperature_min"],
+            TRIPLE_POINT_TEMPERATURE,
+            "K",
+            "the trap collects the vapor as ice",
+            index,
+        )
         trap_ice = ice_vapor_states(np.array([trap])).condensed.specific_enthalpy[0]
         condenser_load = vapor_enthalpy - evaporated * float(trap_ice)
-    time = _value(case.cooling_time, "cooling_time")
-    if time is not None and time <= 0.0:
-        raise OutOfRangeError("cooling_time", time, 0.0, None, "s", "must be positive", index)
+    time = optional_finite_scalar(case.cooling_time, "cooling_time")
+    if time is not None:
+        require_scalar_within(
+            time, "cooling_time", 0.0, None, "s", "must be positive", index, exclusive_minimum=True
+        )
     return _Numbers(
         evaporated=evaporated,
         hand_evaporated=hand,

@@ -22,7 +22,7 @@ from numpy.typing import ArrayLike
 from scipy.optimize import brentq
 
 from service.core.advisories import Advisory
-from service.core.balances.companions import Companion, heat_capacity
+from service.core.balances.companions import Companion, checked_heat_capacity
 from service.core.balances.equilibrium_paths import (
     FreezingSolutionStates,
     LiquidVaporStates,
@@ -40,6 +40,11 @@ from service.core.balances.results import (
     MethodComparison,
     StageResult,
     Trajectory,
+)
+from service.core.balances.scalars import (
+    finite_scalar,
+    optional_finite_scalar,
+    require_scalar_within,
 )
 from service.core.balances.solutes import (
     SOLUTE_MODEL_REFERENCE,
@@ -261,28 +266,6 @@ class _Path:
 # Validation
 
 
-def _scalar(value: ArrayLike | None, name: str) -> float | None:
-    if value is None:
-        return None
-    number = float(np.asarray(value))
-    if not np.isfinite(number):
-        raise InvalidInputError(name, f"must be finite, got {number!r}", number)
-    return number
-
-
-def _require(
-    value: float,
-    name: str,
-    low: float | None,
-    high: float | None,
-    unit: str,
-    reason: str,
-    index: int | None,
-) -> None:
-    if (low is not None and value < low) or (high is not None and value > high):
-        raise OutOfRangeError(name, value, low, high, unit, reason, index)
-
-
 def _freezing_temperature(log_activity: float, index: int | None) -> float:
     """Temperature at which a solution of activity exp(log_activity) is in equilibrium with ice.
 
@@ -307,36 +290,26 @@ def _freezing_temperature(log_activity: float, index: int | None) -> float:
 
 def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
     limits = FLASH_FREEZE_LIMITS
-    initial = _scalar(case.initial_temperature, "initial_temperature")
-    water = _scalar(case.water_mass, "water_mass")
-    assert initial is not None and water is not None
-    if water <= 0.0:
-        raise OutOfRangeError("water_mass", water, 0.0, None, "kg", "must be positive", index)
-    capacity = heat_capacity(case.companions)
-    for position, companion in enumerate(case.companions):
-        mass = _scalar(companion.mass, f"companions[{position}].mass")
-        specific = _scalar(companion.specific_heat, f"companions[{position}].specific_heat")
-        assert mass is not None and specific is not None
-        _require(mass, f"companions[{position}].mass", 0.0, None, "kg", "must be >= 0", index)
-        _require(
-            specific,
-            f"companions[{position}].specific_heat",
-            0.0,
-            1e5,
-            "J/(kg K)",
-            "must be >= 0",
-            index,
-        )
+    initial = finite_scalar(case.initial_temperature, "initial_temperature")
+    water = require_scalar_within(
+        case.water_mass,
+        "water_mass",
+        0.0,
+        None,
+        "kg",
+        "must be positive",
+        index,
+        exclusive_minimum=True,
+    )
+    capacity = checked_heat_capacity(case.companions, index, specific_heat_max=1e5)
     solute: _SoluteLoad | None = None
     onset = TRIPLE_POINT_TEMPERATURE
     if case.solute is not None:
-        fraction = _scalar(case.solute.mass_fraction, "solute.mass_fraction")
-        molar = _scalar(case.solute.molar_mass, "solute.molar_mass")
-        factor = _scalar(case.solute.van_t_hoff_factor, "solute.van_t_hoff_factor")
-        specific = _scalar(case.solute.specific_heat, "solute.specific_heat")
-        assert fraction is not None and molar is not None
-        assert factor is not None and specific is not None
-        _require(
+        fraction = finite_scalar(case.solute.mass_fraction, "solute.mass_fraction")
+        molar = finite_scalar(case.solute.molar_mass, "solute.molar_mass")
+        factor = finite_scalar(case.solute.van_t_hoff_factor, "solute.van_t_hoff_factor")
+        specific = finite_scalar(case.solute.specific_heat, "solute.specific_heat")
+        require_scalar_within(
             fraction,
             "solute.mass_fraction",
             0.0,
@@ -345,15 +318,21 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
             "ideal-solution model range",
             index,
         )
-        _require(molar, "solute.molar_mass", 1e-3, None, "kg/mol", "must be positive", index)
-        _require(factor, "solute.van_t_hoff_factor", 1.0, 10.0, "1", "particles per unit", index)
-        _require(specific, "solute.specific_heat", 0.0, 1e5, "J/(kg K)", "must be >= 0", index)
+        require_scalar_within(
+            molar, "solute.molar_mass", 1e-3, None, "kg/mol", "must be positive", index
+        )
+        require_scalar_within(
+            factor, "solute.van_t_hoff_factor", 1.0, 10.0, "1", "particles per unit", index
+        )
+        require_scalar_within(
+            specific, "solute.specific_heat", 0.0, 1e5, "J/(kg K)", "must be >= 0", index
+        )
         if fraction > 0.0:
             solute_mass = fraction / (1.0 - fraction) * water
             solute = _SoluteLoad(solute_mass, molar, factor)
             capacity += solute_mass * specific
             onset = _freezing_temperature(float(solute.log_activity(water)), index)
-    _require(
+    require_scalar_within(
         initial,
         "initial_temperature",
         onset,
@@ -363,7 +342,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         "boiling point",
         index,
     )
-    final = _scalar(case.final_ice_temperature, "final_ice_temperature")
+    final = optional_finite_scalar(case.final_ice_temperature, "final_ice_temperature")
     if solute is not None:
         if final is None:
             raise InvalidInputError(
@@ -371,7 +350,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
                 "required with a solute: a solution freezes progressively and needs an end "
                 "temperature",
             )
-        _require(
+        require_scalar_within(
             final,
             "final_ice_temperature",
             limits["liquid_temperature_min"],
@@ -382,7 +361,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
             index,
         )
     elif final is not None:
-        _require(
+        require_scalar_within(
             final,
             "final_ice_temperature",
             limits["final_ice_temperature_min"],
@@ -391,9 +370,9 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
             "ice cools by sublimation below the triple point",
             index,
         )
-    nucleation = _scalar(case.nucleation_temperature, "nucleation_temperature")
+    nucleation = optional_finite_scalar(case.nucleation_temperature, "nucleation_temperature")
     if nucleation is not None:
-        _require(
+        require_scalar_within(
             nucleation,
             "nucleation_temperature",
             limits["liquid_temperature_min"],
@@ -412,9 +391,9 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
                 "nucleation must happen above the final temperature",
                 index,
             )
-    trap = _scalar(case.trap_temperature, "trap_temperature")
+    trap = optional_finite_scalar(case.trap_temperature, "trap_temperature")
     if trap is not None:
-        _require(
+        require_scalar_within(
             trap,
             "trap_temperature",
             limits["trap_temperature_min"],

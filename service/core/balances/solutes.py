@@ -65,9 +65,10 @@ class Solute:
     Attributes
     ----------
     mass_fraction : array_like
-        Solute mass / (water + solute mass) of the initial load, 0 < w <= 0.5.
+        Solute mass / (water + solute mass) of the initial load; the flash-freeze balance
+        takes 0 <= w <= 0.5 (0: no solute).
     molar_mass : array_like
-        Effective molar mass, kg/mol, > 0.
+        Effective molar mass, kg/mol, > 0 (the balances take at least 0.001).
     van_t_hoff_factor : array_like
         Particles per dissolved formula unit, >= 1 (1 for sugars, about 2 for NaCl).
     specific_heat : array_like

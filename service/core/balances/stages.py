@@ -51,6 +51,7 @@ __all__ = [
     "interval_of",
     "merge_pieces",
     "single_phase_stage",
+    "solve_linear_mass",
 ]
 
 DEGREE: Final = 24
@@ -128,10 +129,13 @@ def _check_water_left(mass: FloatArray, name: str) -> None:
         )
 
 
-def _linear_solution(
+def solve_linear_mass(
     interval: ChebyshevInterval, a: FloatArray, b: FloatArray, start_mass: float
 ) -> FloatArray:
-    """Solve m' = a m + b on the nodes with m(upper) = start_mass."""
+    """Solve m' = a m + b on the nodes with m(upper) = start_mass.
+
+    m = exp(A) (start_mass + integral from upper of b exp(-A)), A = integral from upper of a.
+    """
     exponent = interval.integral_from_lower(a)
     exponent = exponent - exponent[-1]
     source = interval.integral_from_lower(b * np.exp(-exponent))
@@ -163,7 +167,7 @@ def single_phase_stage(
     _positive_denominator(denominator, name)
     a = (interval.derivative(h_c) - v_c * slope_p) / denominator
     b = heat_capacity / denominator
-    mass = _linear_solution(interval, a, b, start_mass)
+    mass = solve_linear_mass(interval, a, b, start_mass)
     _check_water_left(mass, name)
     rate = a * mass + b
     is_ice = start_ice > 0.0
@@ -333,7 +337,7 @@ def freezing_solution_stage(
         + liquid_water * (liquid_along - ice_along)
         + heat_capacity
     ) / denominator
-    mass = _linear_solution(interval, a, b, start_mass)
+    mass = solve_linear_mass(interval, a, b, start_mass)
     _check_water_left(mass, "freezing")
     rate = a * mass + b
     ice = mass - liquid_water

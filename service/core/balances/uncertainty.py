@@ -153,12 +153,12 @@ def propagate_input_uncertainty(
             span = 2.0 * safe_step
             upper = {name: np.asarray(getattr(perturbed, name))[0] for name in outputs}
             lower = {name: np.asarray(getattr(perturbed, name))[1] for name in outputs}
-        except (OutOfRangeError, TripointError):
+        except TripointError:
             try:
                 high = solve(replace_field(case, path, value + step))
                 upper = {name: np.asarray(getattr(high, name)) for name in outputs}
                 lower = {name: np.asarray(getattr(base, name)) for name in outputs}
-            except (OutOfRangeError, TripointError):
+            except TripointError:
                 low = solve(replace_field(case, path, value - step))
                 upper = {name: np.asarray(getattr(base, name)) for name in outputs}
                 lower = {name: np.asarray(getattr(low, name)) for name in outputs}

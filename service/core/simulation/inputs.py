@@ -7,17 +7,15 @@ HTTP request uses), e.g. ``"pump.nominal_speed"``.
 
 from __future__ import annotations
 
-import math
 from dataclasses import dataclass
 from typing import Final, Literal
 
-import numpy as np
-
 from service.core.balances.companions import Companion
 from service.core.balances.food_composition import Composition
+from service.core.balances.scalars import finite_scalar, require_scalar_within
 from service.core.balances.solutes import Solute
 from service.core.constants import TRIPLE_POINT_TEMPERATURE
-from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.errors import InvalidInputError
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
     LIQUID_TEMPERATURE_MAX,
@@ -225,50 +223,27 @@ class VacuumChamberCase:
     series_points: int = 200
 
 
-def _finite(value: float, name: str) -> float:
-    number = float(value)
-    if not math.isfinite(number):
-        raise InvalidInputError(name, f"must be a finite number, got {number!r}", number)
-    return number
-
-
-def _within(
-    value: float,
-    name: str,
-    minimum: float | None,
-    maximum: float | None,
-    unit: str,
-    reason: str,
-    *,
-    open_minimum: bool = False,
-) -> None:
-    number = _finite(value, name)
-    low = minimum is not None and (number <= minimum if open_minimum else number < minimum)
-    if low or (maximum is not None and number > maximum):
-        raise OutOfRangeError(name, number, minimum, maximum, unit, reason)
-
-
 def _validate_chamber(chamber: Chamber) -> None:
     limits = SIMULATION_LIMITS
-    _within(
+    require_scalar_within(
         chamber.free_volume,
         "chamber.free_volume",
         0.0,
         limits["free_volume_max"],
         "m3",
         "the chamber needs a positive free volume",
-        open_minimum=True,
+        exclusive_minimum=True,
     )
-    _within(
+    require_scalar_within(
         chamber.initial_pressure,
         "chamber.initial_pressure",
         0.0,
         limits["initial_pressure_max"],
         "Pa",
         "partial pressure of the air at the start, up to 2 bar",
-        open_minimum=True,
+        exclusive_minimum=True,
     )
-    _within(
+    require_scalar_within(
         chamber.temperature,
         "chamber.temperature",
         limits["chamber_temperature_min"],
@@ -276,8 +251,10 @@ def _validate_chamber(chamber: Chamber) -> None:
         "K",
         "the chamber gas temperature sets the vapor enthalpy at the pump and condenser",
     )
-    _within(chamber.leak_rate, "chamber.leak_rate", 0.0, None, "Pa*m3/s", "must be >= 0")
-    _within(
+    require_scalar_within(
+        chamber.leak_rate, "chamber.leak_rate", 0.0, None, "Pa*m3/s", "must be >= 0"
+    )
+    require_scalar_within(
         chamber.initial_vapor_pressure,
         "chamber.initial_vapor_pressure",
         0.0,
@@ -288,16 +265,16 @@ def _validate_chamber(chamber: Chamber) -> None:
 
 
 def _validate_pump(pump: Pump, initial_pressure: float) -> None:
-    _within(
+    require_scalar_within(
         pump.nominal_speed,
         "pump.nominal_speed",
         0.0,
         None,
         "m3/s",
         "must be > 0",
-        open_minimum=True,
+        exclusive_minimum=True,
     )
-    _within(
+    require_scalar_within(
         pump.ultimate_pressure,
         "pump.ultimate_pressure",
         0.0,
@@ -313,16 +290,18 @@ def _validate_pump(pump: Pump, initial_pressure: float) -> None:
     if pressures and len(pressures) < 2:
         raise InvalidInputError("pump.speed_curve", "needs at least two points", len(pressures))
     for index, (pressure, speed) in enumerate(zip(pressures, speeds, strict=True)):
-        _within(
+        require_scalar_within(
             pressure,
             f"pump.speed_curve[{index}].pressure",
             0.0,
             None,
             "Pa",
             "must be > 0",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
-        _within(speed, f"pump.speed_curve[{index}].speed", 0.0, None, "m3/s", "must be >= 0")
+        require_scalar_within(
+            speed, f"pump.speed_curve[{index}].speed", 0.0, None, "m3/s", "must be >= 0"
+        )
         if index and pressure <= pressures[index - 1]:
             raise InvalidInputError(
                 f"pump.speed_curve[{index}].pressure",
@@ -332,7 +311,7 @@ def _validate_pump(pump: Pump, initial_pressure: float) -> None:
 
 
 def _validate_condenser(condenser: Condenser) -> None:
-    _within(
+    require_scalar_within(
         condenser.surface_temperature,
         "condenser.surface_temperature",
         SIMULATION_LIMITS["condenser_temperature_min"],
@@ -340,40 +319,42 @@ def _validate_condenser(condenser: Condenser) -> None:
         "K",
         "the condenser collects the vapor as ice",
     )
-    _within(
+    require_scalar_within(
         condenser.vapor_conductance,
         "condenser.vapor_conductance",
         0.0,
         None,
         "m3/s",
         "must be > 0",
-        open_minimum=True,
+        exclusive_minimum=True,
     )
     if condenser.ice_capacity is not None:
-        _within(
+        require_scalar_within(
             condenser.ice_capacity,
             "condenser.ice_capacity",
             0.0,
             None,
             "kg",
             "must be > 0",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
     if condenser.refrigeration_capacity is not None:
-        _within(
+        require_scalar_within(
             condenser.refrigeration_capacity,
             "condenser.refrigeration_capacity",
             0.0,
             None,
             "W",
             "must be > 0",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
 
 
 def _validate_product(product: Product) -> None:
-    _within(product.mass, "product.mass", 0.0, None, "kg", "must be > 0", open_minimum=True)
-    _within(
+    require_scalar_within(
+        product.mass, "product.mass", 0.0, None, "kg", "must be > 0", exclusive_minimum=True
+    )
+    require_scalar_within(
         product.initial_temperature,
         "product.initial_temperature",
         LIQUID_TEMPERATURE_MIN,
@@ -382,16 +363,16 @@ def _validate_product(product: Product) -> None:
         "the product starts liquid, at most at the normal boiling point",
     )
     if product.composition is None:
-        _within(
+        require_scalar_within(
             product.water_fraction,
             "product.water_fraction",
             0.0,
             1.0,
             "1",
             "mass fraction of water",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
-        _within(
+        require_scalar_within(
             product.solids_specific_heat,
             "product.solids_specific_heat",
             0.0,
@@ -409,23 +390,23 @@ def _validate_product(product: Product) -> None:
                 "product.exposed_area",
                 "kinetic evaporation needs exposed_area and evaporation_coefficient",
             )
-        _within(
+        require_scalar_within(
             product.exposed_area,
             "product.exposed_area",
             0.0,
             None,
             "m2",
             "must be > 0",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
-        _within(
+        require_scalar_within(
             product.evaporation_coefficient,
             "product.evaporation_coefficient",
             0.0,
             1.0,
             "1",
             "fraction of the kinetic-theory flux, 0 < alpha <= 1",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
 
 
@@ -446,16 +427,16 @@ def validate_case(case: VacuumChamberCase) -> None:
         _validate_condenser(case.condenser)
     _validate_product(case.product)
     for index, companion in enumerate(case.companions):
-        _within(
-            float(np.asarray(companion.mass)),
+        require_scalar_within(
+            companion.mass,
             f"companions[{index}].mass",
             0.0,
             None,
             "kg",
             "must be >= 0",
         )
-        _within(
-            float(np.asarray(companion.specific_heat)),
+        require_scalar_within(
+            companion.specific_heat,
             f"companions[{index}].specific_heat",
             0.0,
             limits["specific_heat_max"],
@@ -463,12 +444,12 @@ def validate_case(case: VacuumChamberCase) -> None:
             "must be >= 0",
         )
     if case.heat_gain is not None:
-        _finite(case.heat_gain.power, "heat_gain.power")
-        _within(
+        finite_scalar(case.heat_gain.power, "heat_gain.power")
+        require_scalar_within(
             case.heat_gain.conductance, "heat_gain.conductance", 0.0, None, "W/K", "must be >= 0"
         )
         if case.heat_gain.surroundings_temperature is not None:
-            _within(
+            require_scalar_within(
                 case.heat_gain.surroundings_temperature,
                 "heat_gain.surroundings_temperature",
                 150.0,
@@ -476,17 +457,17 @@ def validate_case(case: VacuumChamberCase) -> None:
                 "K",
                 "temperature of the surroundings the product exchanges heat with",
             )
-    _within(
+    require_scalar_within(
         case.end_time,
         "end_time",
         0.0,
         limits["end_time_max"],
         "s",
         "the simulated time, up to 30 days",
-        open_minimum=True,
+        exclusive_minimum=True,
     )
     if case.target_temperature is not None:
-        _within(
+        require_scalar_within(
             case.target_temperature,
             "target_temperature",
             ICE_TEMPERATURE_MIN,
@@ -495,16 +476,16 @@ def validate_case(case: VacuumChamberCase) -> None:
             "the target lies below the product's initial temperature, above 173.15 K",
         )
     for index, limit in enumerate(case.schedule):
-        _within(
+        require_scalar_within(
             limit.time,
             f"schedule[{index}].time",
             0.0,
             case.end_time,
             "s",
             "within the simulated time",
-            open_minimum=True,
+            exclusive_minimum=True,
         )
-        _within(
+        require_scalar_within(
             limit.temperature,
             f"schedule[{index}].temperature",
             ICE_TEMPERATURE_MIN,

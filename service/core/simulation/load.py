@@ -25,6 +25,7 @@ import numpy as np
 
 from service.core.balances.companions import Companion, heat_capacity
 from service.core.balances.food_composition import solids_specific_heat
+from service.core.balances.scalars import require_scalar_within
 from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.simulation.inputs import Product
@@ -86,18 +87,25 @@ def _solute_constant(product: Product, water: float) -> tuple[float | None, floa
     solute = product.solute
     if solute is None:
         return None, 0.0
-    fraction = float(np.asarray(solute.mass_fraction))
-    molar = float(np.asarray(solute.molar_mass))
-    factor = float(np.asarray(solute.van_t_hoff_factor))
-    for name, value, low, high, unit, reason in (
-        ("product.solute.mass_fraction", fraction, 0.0, 0.5, "1", "ideal-solution model range"),
-        ("product.solute.molar_mass", molar, 1e-3, None, "kg/mol", "must be positive"),
-        ("product.solute.van_t_hoff_factor", factor, 1.0, 10.0, "1", "particles per unit"),
-    ):
-        if not math.isfinite(value):
-            raise InvalidInputError(name, "must be a finite number", value)
-        if value < low or (high is not None and value > high):
-            raise OutOfRangeError(name, value, low, high, unit, reason)
+    fraction = require_scalar_within(
+        solute.mass_fraction,
+        "product.solute.mass_fraction",
+        0.0,
+        0.5,
+        "1",
+        "ideal-solution model range",
+    )
+    molar = require_scalar_within(
+        solute.molar_mass, "product.solute.molar_mass", 1e-3, None, "kg/mol", "must be positive"
+    )
+    factor = require_scalar_within(
+        solute.van_t_hoff_factor,
+        "product.solute.van_t_hoff_factor",
+        1.0,
+        10.0,
+        "1",
+        "particles per unit",
+    )
     if fraction == 0.0:
         return None, 0.0
     solute_mass = fraction / (1.0 - fraction) * water

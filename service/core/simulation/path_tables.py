@@ -39,6 +39,7 @@ import numpy as np
 from numpy.polynomial import chebyshev
 
 from service.core.balances.equilibrium_paths import (
+    LiquidVaporStates,
     freezing_solution_states,
     ice_vapor_states,
     liquid_vapor_states,
@@ -164,8 +165,8 @@ class PathTables:
     solution: ScalarSeries
 
 
-def _liquid_columns(temperature: FloatArray) -> FloatArray:
-    states = liquid_vapor_states(temperature)
+def _condensed_vapor_columns(states: LiquidVaporStates) -> FloatArray:
+    """(h_condensed, ln p, h_vapor) of a liquid or ice path, shape (3, points)."""
     return np.stack(
         [
             states.condensed.specific_enthalpy,
@@ -173,17 +174,14 @@ def _liquid_columns(temperature: FloatArray) -> FloatArray:
             states.vapor.specific_enthalpy,
         ]
     )
+
+
+def _liquid_columns(temperature: FloatArray) -> FloatArray:
+    return _condensed_vapor_columns(liquid_vapor_states(temperature))
 
 
 def _ice_columns(temperature: FloatArray) -> FloatArray:
-    states = ice_vapor_states(temperature)
-    return np.stack(
-        [
-            states.condensed.specific_enthalpy,
-            np.log(states.pressure),
-            states.vapor.specific_enthalpy,
-        ]
-    )
+    return _condensed_vapor_columns(ice_vapor_states(temperature))
 
 
 def _solution_columns(temperature: FloatArray) -> FloatArray:

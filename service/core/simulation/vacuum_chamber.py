@@ -464,6 +464,7 @@ def _warnings(
     series: ChamberStates,
     checks: list[ScheduleCheck],
     drift: float,
+    condenser: CondenserCapture | None,
 ) -> tuple[Advisory, ...]:
     items: list[Advisory] = []
     names = {event[0] for event in run.events}
@@ -536,18 +537,14 @@ def _warnings(
                 "vapor condenses onto the product.",
             )
         )
-    if case.condenser is not None:
-        condenser_pressure = CondenserCapture(
-            case.condenser, case.chamber.temperature, 0.0
-        ).surface_pressure
-        if condenser_pressure >= float(series.vapor_pressure[-1]):
-            items.append(
-                Advisory(
-                    "condenser-too-warm",
-                    "The condenser's sublimation pressure is not below the final chamber vapor "
-                    "pressure: it no longer captures vapor at the end.",
-                )
+    if condenser is not None and condenser.surface_pressure >= float(series.vapor_pressure[-1]):
+        items.append(
+            Advisory(
+                "condenser-too-warm",
+                "The condenser's sublimation pressure is not below the final chamber vapor "
+                "pressure: it no longer captures vapor at the end.",
             )
+        )
     if drift > _DRIFT_WARNING:
         items.append(
             Advisory(
@@ -732,7 +729,7 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         balance=balance,
         schedule=tuple(checks),
         assumptions=_assumptions(case),
-        warnings=_warnings(case, load, run, series, checks, drift),
+        warnings=_warnings(case, load, run, series, checks, drift, model.condenser),
         references=REFERENCES,
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
         property_uncertainties=tuple(path_uncertainties(series.product_temperature)),
