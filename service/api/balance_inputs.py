@@ -10,13 +10,14 @@ lengths (a one-element array or a single value repeats).
 
 from __future__ import annotations
 
+from collections.abc import Iterable
 from dataclasses import dataclass, field, replace
 from typing import Any, Generic, TypeVar
 
 import numpy as np
 from numpy.typing import ArrayLike
 
-from service.api.quantities import ParsedQuantity, read_quantity
+from service.api.quantities import ParsedQuantity, read_quantity, require_exactly_one
 from service.api.schemas.balances import (
     CompanionInput,
     DissolvedSolidsInput,
@@ -39,7 +40,13 @@ from service.core.balances import (
 )
 from service.core.errors import InvalidInputError
 
-__all__ = ["BalanceInputs", "read_evaporative_cooling", "read_flash_freeze"]
+__all__ = [
+    "BalanceInputs",
+    "check_companion",
+    "material_assumptions",
+    "read_evaporative_cooling",
+    "read_flash_freeze",
+]
 
 CaseT = TypeVar("CaseT")
 
@@ -164,22 +171,43 @@ class _CompanionPaths:
     name: str
 
 
+def check_companion(item: CompanionInput, prefix: str) -> None:
+    """Refuse a companion with both or neither of specific heat and material, or a material
+    not in :data:`MATERIAL_SPECIFIC_HEATS`.
+
+    Raises
+    ------
+    InvalidInputError
+        Naming the offending fields under ``prefix`` (e.g. ``companions[0].``).
+    """
+    require_exactly_one(
+        ("specific_heat", item.specific_heat), ("material", item.material), prefix=prefix
+    )
+    if item.material is not None and item.material not in MATERIAL_SPECIFIC_HEATS:
+        known = ", ".join(sorted(MATERIAL_SPECIFIC_HEATS))
+        raise InvalidInputError(
+            f"{prefix}material",
+            f"unknown material {item.material!r}; known: {known}",
+            item.material,
+        )
+
+
+def material_assumptions(materials: Iterable[str | None]) -> tuple[str, ...]:
+    """The assumption stating each companion material's specific heat and source, once."""
+    return tuple(
+        f"Companion material {name!r}: specific heat "
+        f"{MATERIAL_SPECIFIC_HEATS[name].specific_heat:g} J/(kg K), "
+        f"{MATERIAL_SPECIFIC_HEATS[name].source}."
+        for name in dict.fromkeys(materials)
+        if name is not None
+    )
+
+
 def _read_companions(reader: _Reader, companions: list[CompanionInput]) -> list[_CompanionPaths]:
     paths = []
     for position, item in enumerate(companions):
         prefix = f"companions[{position}]"
-        if (item.specific_heat is None) == (item.material is None):
-            raise InvalidInputError(
-                f"{prefix}.specific_heat, {prefix}.material",
-                "give exactly one of specific_heat or material",
-            )
-        if item.material is not None and item.material not in MATERIAL_SPECIFIC_HEATS:
-            known = ", ".join(sorted(MATERIAL_SPECIFIC_HEATS))
-            raise InvalidInputError(
-                f"{prefix}.material",
-                f"unknown material {item.material!r}; known: {known}",
-                item.material,
-            )
+        check_companion(item, f"{prefix}.")
         paths.append(
             _CompanionPaths(
                 mass=reader.read(item.mass, f"{prefix}.mass", Dimension.MASS),
@@ -204,17 +232,6 @@ def _companions(reader: _Reader, paths: list[_CompanionPaths]) -> tuple[Companio
             Companion(mass=reader.value(item.mass), specific_heat=specific_heat, name=item.name)
         )
     return tuple(companions)
-
-
-def _material_assumptions(paths: list[_CompanionPaths]) -> tuple[str, ...]:
-    used = dict.fromkeys(item.material for item in paths if item.material is not None)
-    return tuple(
-        f"Companion material {name!r}: specific heat "
-        f"{MATERIAL_SPECIFIC_HEATS[name].specific_heat:g} J/(kg K), "
-        f"{MATERIAL_SPECIFIC_HEATS[name].source}."
-        for name in used
-        if name is not None
-    )
 
 
 def _read_heat_gain(reader: _Reader, gain: HeatGainInput | None) -> tuple[str | None, ...] | None:
@@ -381,7 +398,7 @@ def read_flash_freeze(body: FlashFreezeCreate) -> BalanceInputs[FlashFreezeCase]
         trap_temperature=reader.maybe(trap),
         trajectory_points=body.trajectory_points,
     )
-    return reader.finish(case, _material_assumptions(companions))
+    return reader.finish(case, material_assumptions(item.material for item in companions))
 
 
 def read_evaporative_cooling(
@@ -395,12 +412,7 @@ def read_evaporative_cooling(
         Unreadable quantity, unequal sweep lengths, both or neither of ``specific_heat``
         and ``composition``, conflicting or unknown options.
     """
-    if (body.specific_heat is None) == (body.composition is None):
-        given = "both" if body.specific_heat is not None else "neither"
-        raise InvalidInputError(
-            "specific_heat, composition",
-            f"give exactly one of specific_heat or composition ({given} given)",
-        )
+    require_exactly_one(("specific_heat", body.specific_heat), ("composition", body.composition))
     reader = _Reader()
     mass = reader.read(body.product_mass, "product_mass", Dimension.MASS)
     initial = reader.read(body.initial_temperature, "initial_temperature", Dimension.TEMPERATURE)
@@ -437,4 +449,4 @@ def read_evaporative_cooling(
         cooling_time=reader.maybe(time),
         dissolved_solids=_dissolved_solids(reader, body.dissolved_solids, solids),
     )
-    return reader.finish(case, _material_assumptions(companions))
+    return reader.finish(case, material_assumptions(item.material for item in companions))

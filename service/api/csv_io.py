@@ -37,7 +37,7 @@ from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.negotiation import accept_qualities, json_quality
 from service.api.problem_asgi import send_problem
-from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError
+from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
 
 __all__ = [
     "CSV_MEDIA_TYPE",
@@ -663,13 +663,7 @@ def document_csv(schema: dict[str, Any], routes: Sequence[CsvRoute]) -> None:
                     }
                 }
                 operation.setdefault("responses", {}).setdefault(
-                    "400",
-                    {
-                        "description": "Malformed CSV body (encoding, header, ragged rows).",
-                        "content": {
-                            PROBLEM_MEDIA_TYPE: {"schema": {"$ref": "#/components/schemas/Problem"}}
-                        },
-                    },
+                    "400", problem_answer("Malformed CSV body (encoding, header, ragged rows).")
                 )
             answer = operation.get("responses", {}).get("200")
             if answer is not None:

@@ -1,6 +1,5 @@
-"""Request limits enforced around the routes: body size (413) and computation time (503).
-
-The batch-point limit (413) lives with the routes that count points.
+"""Request limits: body size (413) and computation time (503) enforced around the routes;
+the batch-size check (413) that the routes which count points or cases call.
 """
 
 from __future__ import annotations
@@ -12,12 +11,28 @@ from typing import Any
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.problem_asgi import send_problem
-from service.api.problems import FieldError
+from service.api.problems import FieldError, ProblemError, problem_answer
 from service.api.security import is_protected
 
-__all__ = ["BodySizeLimit", "ComputationTimeLimit", "document_time_limit"]
+__all__ = ["BodySizeLimit", "ComputationTimeLimit", "check_batch_size", "document_time_limit"]
 
 _log = logging.getLogger("tripoint.limits")
+
+
+def check_batch_size(count: int, limit: int, *, noun: str, setting: str) -> None:
+    """Raise a 413 problem when a request asks for more than ``limit`` points or cases.
+
+    ``noun`` names what is counted (``points``, ``cases``); ``setting`` is the environment
+    variable that sets ``limit``.
+    """
+    if count > limit:
+        raise ProblemError(
+            413,
+            "too-many-points",
+            "Batch too large",
+            f"The request asks for {count} {noun}; the limit is {limit} (setting {setting}).",
+            [FieldError(field="values", message="too many points", value=count, maximum=limit)],
+        )
 
 
 class BodySizeLimit:
@@ -165,19 +180,11 @@ def document_time_limit(schema: dict[str, Any], seconds: float) -> None:
         if not is_protected(path):
             continue
         for operation in operations.values():
-            responses = operation.setdefault("responses", {})
-            responses.setdefault(
+            operation.setdefault("responses", {}).setdefault(
                 "503",
-                {
-                    "description": (
-                        f"Computation longer than {seconds:g} s (TRIPOINT_MAX_REQUEST_SECONDS), "
-                        "or the calculation record could not be stored "
-                        "(TRIPOINT_STORE_FAILURE_POLICY=fail)."
-                    ),
-                    "content": {
-                        "application/problem+json": {
-                            "schema": {"$ref": "#/components/schemas/Problem"}
-                        }
-                    },
-                },
+                problem_answer(
+                    f"Computation longer than {seconds:g} s (TRIPOINT_MAX_REQUEST_SECONDS), "
+                    "or the calculation record could not be stored "
+                    "(TRIPOINT_STORE_FAILURE_POLICY=fail)."
+                ),
             )

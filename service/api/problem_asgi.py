@@ -5,11 +5,9 @@ from __future__ import annotations
 import orjson
 from starlette.types import Scope, Send
 
-from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError, Problem
+from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError, make_problem, problem_body
 
 __all__ = ["send_problem"]
-
-_TYPE_PREFIX = "urn:tripoint:problem:"
 
 
 async def send_problem(
@@ -23,16 +21,9 @@ async def send_problem(
     errors: list[FieldError] | None = None,
     headers: dict[str, str] | None = None,
 ) -> None:
-    """Answer with an RFC 9457 document shaped like the exception handlers' ones."""
-    problem = Problem(
-        type=_TYPE_PREFIX + slug,
-        title=title,
-        status=status,
-        detail=detail,
-        instance=scope.get("path"),
-        errors=errors or [],
-    )
-    body = orjson.dumps(problem.model_dump())
+    """Answer with an RFC 9457 document built as the exception handlers build theirs."""
+    problem = make_problem(status, slug, title, detail, errors)
+    body = orjson.dumps(problem_body(problem, scope.get("path")))
     raw_headers = [
         (b"content-type", PROBLEM_MEDIA_TYPE.encode()),
         (b"content-length", str(len(body)).encode()),

@@ -3,7 +3,6 @@
 from __future__ import annotations
 
 import json
-import logging
 import math
 from typing import Any
 
@@ -27,12 +26,24 @@ __all__ = [
     "ProblemError",
     "document_validation_problems",
     "install_problem_handlers",
+    "make_problem",
+    "problem_answer",
+    "problem_body",
     "problem_responses",
 ]
 
 PROBLEM_MEDIA_TYPE = "application/problem+json"
 _TYPE_PREFIX = "urn:tripoint:problem:"
-_log = logging.getLogger("tripoint.problems")
+_PROBLEM_SCHEMA_REF = "#/components/schemas/Problem"
+_DESCRIPTIONS = {
+    400: "Malformed request.",
+    401: "Missing or wrong API key.",
+    404: "Not found.",
+    413: "Request too large (body or batch points).",
+    415: "Unsupported media type.",
+    422: "Invalid or out-of-range input; the problem names the field and the valid range.",
+    503: "Temporarily unavailable.",
+}
 
 
 class FieldError(BaseModel):
@@ -79,23 +90,54 @@ class ProblemError(Exception):
         self.headers = headers
 
 
+_JSON_INTEGER_RANGE = range(-(2**63), 2**64)
+"""Integers the JSON renderer (orjson) writes as numbers; others are echoed as text."""
+
+
+def _finite_or_none(value: object) -> object:
+    """The received value as JSON can carry it: non-finite floats and huge integers as text."""
+    if isinstance(value, float) and not math.isfinite(value):
+        return str(value)
+    if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
+        return str(value)
+    return value
+
+
+def make_problem(
+    status: int, slug: str, title: str, detail: str, errors: list[FieldError] | None = None
+) -> Problem:
+    """A problem document of type ``urn:tripoint:problem:<slug>``."""
+    return Problem(
+        type=_TYPE_PREFIX + slug, title=title, status=status, detail=detail, errors=errors or []
+    )
+
+
+def problem_body(problem: Problem, instance: str | None) -> dict[str, Any]:
+    """The JSON body of ``problem`` answered at ``instance`` (the request path).
+
+    Received values JSON cannot carry as numbers (non-finite floats, huge integers) are
+    echoed as text.
+    """
+    body = problem.model_dump()
+    body["instance"] = instance
+    for error in body["errors"]:
+        error["value"] = _finite_or_none(error["value"])
+    return body
+
+
+def _problem_content() -> dict[str, Any]:
+    return {PROBLEM_MEDIA_TYPE: {"schema": {"$ref": _PROBLEM_SCHEMA_REF}}}
+
+
+def problem_answer(description: str) -> dict[str, Any]:
+    """An OpenAPI response object: ``description`` and a problem document as content."""
+    return {"description": description, "content": _problem_content()}
+
+
 def problem_responses(*statuses: int) -> dict[int | str, dict[str, Any]]:
     """OpenAPI ``responses=`` entries declaring the problem schema for ``statuses``."""
-    descriptions = {
-        400: "Malformed request.",
-        401: "Missing or wrong API key.",
-        404: "Not found.",
-        413: "Request too large (body or batch points).",
-        415: "Unsupported media type.",
-        422: "Invalid or out-of-range input; the problem names the field and the valid range.",
-        503: "Temporarily unavailable.",
-    }
     return {
-        status: {
-            "model": Problem,
-            "description": descriptions.get(status, "Problem"),
-            "content": {PROBLEM_MEDIA_TYPE: {"schema": {"$ref": "#/components/schemas/Problem"}}},
-        }
+        status: {"model": Problem, **problem_answer(_DESCRIPTIONS.get(status, "Problem"))}
         for status in statuses
     }
 
@@ -108,18 +150,14 @@ def document_validation_problems(schema: dict[str, Any]) -> None:
     ``application/problem+json`` :class:`Problem` documents instead (see
     :func:`install_problem_handlers`). The unused validation-error schemas are dropped.
     """
-    problem = {"$ref": "#/components/schemas/Problem"}
     for operations in schema.get("paths", {}).values():
         for operation in operations.values():
             answer = operation.get("responses", {}).get("422")
             if answer is None:
                 continue
-            answer["content"] = {PROBLEM_MEDIA_TYPE: {"schema": problem}}
+            answer["content"] = _problem_content()
             if answer.get("description") == "Validation Error":
-                answer["description"] = (
-                    "Invalid or out-of-range input; the problem names the field and the valid "
-                    "range."
-                )
+                answer["description"] = _DESCRIPTIONS[422]
     components = schema.get("components", {}).get("schemas", {})
     if "Problem" not in components:
         components["Problem"] = Problem.model_json_schema(
@@ -134,39 +172,25 @@ def document_validation_problems(schema: dict[str, Any]) -> None:
                 components[name] = {"type": "object"}  # still referenced: keep a stand-in
 
 
-_JSON_INTEGER_RANGE = range(-(2**63), 2**64)
-"""Integers the JSON renderer (orjson) writes as numbers; others are echoed as text."""
-
-
-def _finite_or_none(value: object) -> object:
-    """The received value as JSON can carry it: non-finite floats and huge integers as text."""
-    if isinstance(value, float) and not math.isfinite(value):
-        return str(value)
-    if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
-        return str(value)
-    return value
-
-
 def _render(
     request: Request, problem: Problem, headers: dict[str, str] | None = None
 ) -> FastJSONResponse:
-    problem.instance = request.url.path
-    body = problem.model_dump()
-    for error in body["errors"]:
-        error["value"] = _finite_or_none(error["value"])
     return FastJSONResponse(
-        body, status_code=problem.status, media_type=PROBLEM_MEDIA_TYPE, headers=headers
+        problem_body(problem, request.url.path),
+        status_code=problem.status,
+        media_type=PROBLEM_MEDIA_TYPE,
+        headers=headers,
     )
 
 
 def _from_core(error: Exception) -> Problem:
     if isinstance(error, OutOfRangeError):
-        return Problem(
-            type=_TYPE_PREFIX + "out-of-range",
-            title="Input outside the valid range",
-            status=422,
-            detail=str(error),
-            errors=[
+        return make_problem(
+            422,
+            "out-of-range",
+            "Input outside the valid range",
+            str(error),
+            [
                 FieldError(
                     field=error.variable,
                     message=str(error),
@@ -188,19 +212,19 @@ def _from_core(error: Exception) -> Problem:
         value = (
             error.value if isinstance(error.value, str | int | float | None) else str(error.value)
         )
-        return Problem(
-            type=_TYPE_PREFIX + slug,
-            title=title,
-            status=422,
-            detail=str(error),
-            errors=[FieldError(field=error.variable, message=error.detail, value=value)],
+        return make_problem(
+            422,
+            slug,
+            title,
+            str(error),
+            [FieldError(field=error.variable, message=error.detail, value=value)],
         )
     assert isinstance(error, NotConvergedError)
-    return Problem(
-        type=_TYPE_PREFIX + "not-converged",
-        title="Calculation did not converge",
-        status=422,
-        detail=f"{error}. The inputs are likely at the edge of the formulation's range.",
+    return make_problem(
+        422,
+        "not-converged",
+        "Calculation did not converge",
+        f"{error}. The inputs are likely at the edge of the formulation's range.",
     )
 
 
@@ -214,13 +238,7 @@ def install_problem_handlers(app: FastAPI) -> None:
 
     async def on_problem(request: Request, error: Exception) -> FastJSONResponse:
         assert isinstance(error, ProblemError)
-        problem = Problem(
-            type=_TYPE_PREFIX + error.slug,
-            title=error.title,
-            status=error.status,
-            detail=error.detail,
-            errors=error.errors,
-        )
+        problem = make_problem(error.status, error.slug, error.title, error.detail, error.errors)
         return _render(request, problem, error.headers)
 
     async def on_core(request: Request, error: Exception) -> FastJSONResponse:
@@ -247,12 +265,12 @@ def install_problem_handlers(app: FastAPI) -> None:
                 )
             )
         fields = ", ".join(sorted({entry.field for entry in errors}))
-        problem = Problem(
-            type=_TYPE_PREFIX + "invalid-request",
-            title="Request does not match the schema",
-            status=422,
-            detail=f"Invalid or missing field(s): {fields}.",
-            errors=errors,
+        problem = make_problem(
+            422,
+            "invalid-request",
+            "Request does not match the schema",
+            f"Invalid or missing field(s): {fields}.",
+            errors,
         )
         return _render(request, problem)
 

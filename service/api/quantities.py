@@ -19,7 +19,13 @@ from service.api.units import (
 from service.core.errors import InvalidInputError
 from service.core.phase import FloatArray
 
-__all__ = ["ParsedQuantity", "quantity_output", "read_quantity"]
+__all__ = [
+    "ParsedQuantity",
+    "quantity_output",
+    "read_quantity",
+    "require_exactly_one",
+    "scalar_output",
+]
 
 _DIFFERENCE_OF = {Dimension.TEMPERATURE: Dimension.TEMPERATURE_DIFFERENCE}
 
@@ -36,6 +42,26 @@ class ParsedQuantity:
     def size(self) -> int:
         """Number of points."""
         return int(self.si.size)
+
+
+def require_exactly_one(
+    first: tuple[str, object], second: tuple[str, object], *, prefix: str = ""
+) -> None:
+    """Refuse both or neither of two alternative inputs, each given as ``(name, value)``.
+
+    Raises
+    ------
+    InvalidInputError
+        Naming both fields (under ``prefix``) and whether both or neither were given.
+    """
+    (first_name, first_value), (second_name, second_value) = first, second
+    if (first_value is None) != (second_value is None):
+        return
+    given = "both" if first_value is not None else "neither"
+    raise InvalidInputError(
+        f"{prefix}{first_name}, {prefix}{second_name}",
+        f"give exactly one of {first_name} or {second_name} ({given} given)",
+    )
 
 
 def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuantity:
@@ -116,3 +142,12 @@ def quantity_output(
     if as_array:
         return {"values": values, "unit": unit}
     return {"value": float(converted.reshape(-1)[0]), "unit": unit}
+
+
+def scalar_output(
+    si_value: float | None, dimension: Dimension, unit_set: UnitSet
+) -> dict[str, Any] | None:
+    """One SI number as ``{"value": ..., "unit": ...}`` in ``unit_set``; ``None`` stays None."""
+    if si_value is None:
+        return None
+    return quantity_output(np.array([float(si_value)]), dimension, unit_set, as_array=False)

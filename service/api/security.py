@@ -16,6 +16,7 @@ from typing import Any
 from starlette.types import ASGIApp, Receive, Scope, Send
 
 from service.api.problem_asgi import send_problem
+from service.api.problems import problem_answer
 
 __all__ = ["PROTECTED_PREFIX", "ApiKeyGuard", "document_security", "is_protected", "key_id"]
 
@@ -110,13 +111,5 @@ def document_security(schema: dict[str, Any]) -> None:
         for operation in operations.values():
             operation["security"] = [{_SCHEME_NAME: []}]
             operation.setdefault("responses", {}).setdefault(
-                "401",
-                {
-                    "description": "Missing or wrong API key.",
-                    "content": {
-                        "application/problem+json": {
-                            "schema": {"$ref": "#/components/schemas/Problem"}
-                        }
-                    },
-                },
+                "401", problem_answer("Missing or wrong API key.")
             )

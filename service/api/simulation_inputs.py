@@ -10,6 +10,7 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Any
 
+from service.api.balance_inputs import check_companion, material_assumptions
 from service.api.quantities import read_quantity
 from service.api.schemas.balances import CompanionInput, CompositionInput, SoluteInput
 from service.api.schemas.simulations import (
@@ -155,23 +156,11 @@ def _product(product: ProductInput) -> Product:
 
 def _companions(companions: list[CompanionInput]) -> tuple[tuple[Companion, ...], tuple[str, ...]]:
     items = []
-    used: dict[str, None] = {}
     for position, item in enumerate(companions):
         prefix = f"companions[{position}]"
-        if (item.specific_heat is None) == (item.material is None):
-            raise InvalidInputError(
-                f"{prefix}.specific_heat", "give exactly one of specific_heat or material"
-            )
+        check_companion(item, f"{prefix}.")
         if item.material is not None:
-            if item.material not in MATERIAL_SPECIFIC_HEATS:
-                known = ", ".join(sorted(MATERIAL_SPECIFIC_HEATS))
-                raise InvalidInputError(
-                    f"{prefix}.material",
-                    f"unknown material {item.material!r}; known: {known}",
-                    item.material,
-                )
             specific_heat = MATERIAL_SPECIFIC_HEATS[item.material].specific_heat
-            used[item.material] = None
         else:
             specific_heat = _one(
                 item.specific_heat, f"{prefix}.specific_heat", Dimension.SPECIFIC_ENTROPY
@@ -183,13 +172,7 @@ def _companions(companions: list[CompanionInput]) -> tuple[tuple[Companion, ...]
                 name=item.name or item.material or f"companion {position}",
             )
         )
-    notes = tuple(
-        f"Companion material {name!r}: specific heat "
-        f"{MATERIAL_SPECIFIC_HEATS[name].specific_heat:g} J/(kg K), "
-        f"{MATERIAL_SPECIFIC_HEATS[name].source}."
-        for name in used
-    )
-    return tuple(items), notes
+    return tuple(items), material_assumptions(item.material for item in companions)
 
 
 def read_vacuum_chamber(

@@ -4,9 +4,7 @@ from __future__ import annotations
 
 from typing import Any, Final
 
-import numpy as np
-
-from service.api.quantities import quantity_output
+from service.api.quantities import quantity_output, scalar_output
 from service.api.shaping import envelope
 from service.api.units import Dimension, UnitSet
 from service.core.simulation import ChamberStates, VacuumChamberResult
@@ -71,12 +69,6 @@ _BALANCE: Final[tuple[tuple[str, Dimension], ...]] = (
 )
 
 
-def _scalar(value: float | None, dimension: Dimension, unit_set: UnitSet) -> dict[str, Any] | None:
-    if value is None:
-        return None
-    return quantity_output(np.array([float(value)]), dimension, unit_set, as_array=False)
-
-
 def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict[str, Any]:
     return {
         name: quantity_output(getattr(states, name), dimension, unit_set, as_array=as_array)
@@ -94,7 +86,7 @@ def simulation_answer(
         "summary": {
             "end_reason": summary.end_reason,
             **{
-                name: _scalar(getattr(summary, name), dimension, unit_set)
+                name: scalar_output(getattr(summary, name), dimension, unit_set)
                 for name, dimension in _SUMMARY
             },
             "schedule_met": summary.schedule_met,
@@ -104,7 +96,7 @@ def simulation_answer(
         "events": [
             {
                 "name": event.name,
-                "time": _scalar(event.time, Dimension.TIME, unit_set),
+                "time": scalar_output(event.time, Dimension.TIME, unit_set),
                 "detail": event.detail,
                 "state": _states(event.state, unit_set, as_array=False),
             }
@@ -113,11 +105,11 @@ def simulation_answer(
         "series": _states(result.series, unit_set, as_array=True),
         "schedule": [
             {
-                "time": _scalar(check.time, Dimension.TIME, unit_set),
-                "temperature_limit": _scalar(
+                "time": scalar_output(check.time, Dimension.TIME, unit_set),
+                "temperature_limit": scalar_output(
                     check.temperature_limit, Dimension.TEMPERATURE, unit_set
                 ),
-                "product_temperature": _scalar(
+                "product_temperature": scalar_output(
                     check.product_temperature, Dimension.TEMPERATURE, unit_set
                 ),
                 "met": check.met,
@@ -125,7 +117,7 @@ def simulation_answer(
             for check in result.schedule
         ],
         "balance": {
-            name: _scalar(getattr(balance, name), dimension, unit_set)
+            name: scalar_output(getattr(balance, name), dimension, unit_set)
             for name, dimension in _BALANCE
         },
         "model_references": list(result.references),

@@ -24,6 +24,7 @@ from service.api.balance_outputs import (
     evaporative_cooling_answer,
     flash_freeze_answer,
 )
+from service.api.limits import check_batch_size
 from service.api.problems import FieldError, ProblemError, problem_responses
 from service.api.recording import record_calculation
 from service.api.responses import FastJSONResponse
@@ -52,18 +53,11 @@ _ERRORS = problem_responses(413, 422)
 CaseT = TypeVar("CaseT")
 
 
-def _check_points(request: Request, points: int) -> None:
+def _check_cases(request: Request, cases: int) -> None:
     settings: Settings = request.app.state.settings
-    limit = settings.max_sweep_cases
-    if points > limit:
-        raise ProblemError(
-            413,
-            "too-many-points",
-            "Batch too large",
-            f"The request asks for {points} cases; the limit is {limit} "
-            "(setting TRIPOINT_MAX_SWEEP_CASES).",
-            [FieldError(field="values", message="too many points", value=points, maximum=limit)],
-        )
+    check_batch_size(
+        cases, settings.max_sweep_cases, noun="cases", setting="TRIPOINT_MAX_SWEEP_CASES"
+    )
 
 
 def _propagate(
@@ -113,7 +107,7 @@ def post_flash_freeze(request: Request, body: FlashFreezeCreate) -> Any:
     water (or a watery load) cooled and frozen by its own evaporation, integrated with
     IAPWS properties, beside the mean-vapor-enthalpy hand method."""
     inputs = read_flash_freeze(body)
-    _check_points(request, inputs.points)
+    _check_cases(request, inputs.points)
     result = flash_freeze(inputs.case)
     answer = flash_freeze_answer(
         result,
@@ -137,7 +131,7 @@ def post_evaporative_cooling(request: Request, body: EvaporativeCoolingCreate) -
     removed, condenser load, vapor volume and mean flows of a product cooled under vacuum
     by its own evaporation (above its freezing point)."""
     inputs = read_evaporative_cooling(body)
-    _check_points(request, inputs.points)
+    _check_cases(request, inputs.points)
     try:
         result = evaporative_cooling(inputs.case)
     except UnsupportedStateError as error:

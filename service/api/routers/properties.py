@@ -17,8 +17,15 @@ from typing import Annotated, Any
 
 from fastapi import APIRouter, Query, Request
 
-from service.api.problems import FieldError, ProblemError, problem_responses
-from service.api.quantities import ParsedQuantity, quantity_output, read_quantity
+from service.api.limits import check_batch_size
+from service.api.problems import problem_responses
+from service.api.quantities import (
+    ParsedQuantity,
+    quantity_output,
+    read_quantity,
+    require_exactly_one,
+    scalar_output,
+)
 from service.api.responses import FastJSONResponse
 from service.api.schemas.properties import (
     ConstantsPublic,
@@ -55,33 +62,20 @@ UnitsQuery = Annotated[UnitSet, Query(description=_UNITS_QUERY)]
 FormulationQuery = Annotated[Formulation, Query(description=_FORMULATION_QUERY)]
 
 
-def _settings(request: Request) -> Settings:
-    settings: Settings = request.app.state.settings
-    return settings
-
-
 def _check_points(request: Request, *parsed: ParsedQuantity) -> None:
-    limit = _settings(request).max_batch_points
-    points = max(item.size for item in parsed)
-    if points > limit:
-        raise ProblemError(
-            413,
-            "too-many-points",
-            "Batch too large",
-            f"The request asks for {points} points; the limit is {limit} "
-            "(setting TRIPOINT_MAX_BATCH_POINTS).",
-            [FieldError(field="values", message="too many points", value=points, maximum=limit)],
-        )
+    settings: Settings = request.app.state.settings
+    check_batch_size(
+        max(item.size for item in parsed),
+        settings.max_batch_points,
+        noun="points",
+        setting="TRIPOINT_MAX_BATCH_POINTS",
+    )
 
 
 def _one_of(
     request: Request, temperature: Any, pressure: Any
 ) -> tuple[ParsedQuantity | None, ParsedQuantity | None]:
-    if (temperature is None) == (pressure is None):
-        given = "both" if temperature is not None else "neither"
-        raise InvalidInputError(
-            "temperature, pressure", f"give exactly one of temperature or pressure ({given} given)"
-        )
+    require_exactly_one(("temperature", temperature), ("pressure", pressure))
     if temperature is not None:
         parsed = read_quantity(temperature, field="temperature", dimension=Dimension.TEMPERATURE)
         _check_points(request, parsed)
@@ -354,8 +348,8 @@ async def get_constants(output_units: UnitsQuery = UnitSet.SI) -> Any:
     result = lookups.constants_lookup()
     values = result.states
 
-    def scalar(value: float, dimension: Dimension) -> dict[str, Any]:
-        return quantity_output(value, dimension, output_units, as_array=False)  # type: ignore[arg-type]
+    def scalar(value: float, dimension: Dimension) -> dict[str, Any] | None:
+        return scalar_output(value, dimension, output_units)
 
     content = {
         "triple_point": {
