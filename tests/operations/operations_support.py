@@ -6,17 +6,15 @@ envelope and store it with ``record_calculation``, exactly as a balance route do
 
 from __future__ import annotations
 
-import os
 import threading
-import uuid
 from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
 from typing import Any
 
-import pytest
 from fastapi import APIRouter, Request
 from fastapi.testclient import TestClient
+from server_support import POSTGRES_URL, postgres_schema
 
 from service.api.app import CSV_ROUTES, create_app
 from service.api.csv_io import CsvRoute
@@ -42,9 +40,6 @@ __all__ = [
 
 KEY = "test-key-0123456789abcdef"
 OTHER_KEY = "another-key-abcdefghijklmnop"
-POSTGRES_URL = os.environ.get(
-    "TRIPOINT_TEST_POSTGRES_URL", "postgresql+psycopg://postgres@127.0.0.1:5432/test"
-)
 SLOW_RELEASE = threading.Event()
 """Set it to let the slow test route finish."""
 
@@ -109,28 +104,3 @@ def running_client(
     app.include_router(_router)
     with TestClient(app) as client:
         yield client
-
-
-@contextmanager
-def postgres_schema() -> Iterator[str]:
-    """A fresh schema in the test database, dropped afterwards.
-
-    Under ``CI=true`` an unreachable server fails the test; elsewhere it skips.
-    """
-    import psycopg
-
-    plain_url = POSTGRES_URL.replace("postgresql+psycopg://", "postgresql://")
-    try:
-        connection = psycopg.connect(plain_url, autocommit=True, connect_timeout=5)
-    except psycopg.OperationalError as error:
-        message = f"PostgreSQL at {POSTGRES_URL} is not reachable: {error}"
-        if os.environ.get("CI") == "true":
-            pytest.fail(message)
-        pytest.skip(message)
-    schema = f"tripoint_test_{uuid.uuid4().hex[:12]}"
-    with connection:
-        connection.execute(f'CREATE SCHEMA "{schema}"')
-        try:
-            yield schema
-        finally:
-            connection.execute(f'DROP SCHEMA "{schema}" CASCADE')

@@ -12,7 +12,6 @@ import json
 import os
 import shutil
 import signal
-import socket
 import subprocess
 import sys
 import time
@@ -24,6 +23,7 @@ from pathlib import Path
 from typing import Any
 
 import pytest
+from server_support import free_port
 
 KEY = "live-server-key-0123456789"
 SATURATION_SUMMARY = "Liquid-vapor saturation at a temperature or a pressure"
@@ -34,13 +34,6 @@ _START_SECONDS = 90.0
 class LiveServer:
     origin: str
     log: Path
-
-
-def _free_port() -> int:
-    with socket.socket() as probe:
-        probe.bind(("127.0.0.1", 0))
-        port: int = probe.getsockname()[1]
-        return port
 
 
 def _get(url: str, headers: dict[str, str] | None = None) -> tuple[int, dict[str, str], bytes]:
@@ -59,7 +52,7 @@ def _lower(items: Any) -> dict[str, str]:
 @pytest.fixture(scope="module")
 def live_server(tmp_path_factory: pytest.TempPathFactory) -> Iterator[LiveServer]:
     folder = tmp_path_factory.mktemp("live")
-    port = _free_port()
+    port = free_port()
     log = folder / "server.log"
     environment = {
         **os.environ,

@@ -26,21 +26,19 @@ import threading
 import time
 import urllib.error
 import urllib.request
-import uuid
 from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
 import pytest
 from fastapi.testclient import TestClient
+from server_support import POSTGRES_URL, free_port
+from server_support import postgres_schema as shared_postgres_schema
 
 from service.api.app import create_app
 from service.records import RecordStore
 from service.settings import Settings
 
-POSTGRES_URL = os.environ.get(
-    "TRIPOINT_TEST_POSTGRES_URL", "postgresql+psycopg://postgres@127.0.0.1:5432/test"
-)
 _BALANCE = "/v1/balances/flash-freeze"
 
 
@@ -114,23 +112,8 @@ class CuttableProxy:
 @pytest.fixture
 def postgres_schema() -> Iterator[str]:
     """A fresh schema in the test database, dropped afterwards."""
-    import psycopg
-
-    plain_url = POSTGRES_URL.replace("postgresql+psycopg://", "postgresql://")
-    try:
-        connection = psycopg.connect(plain_url, autocommit=True, connect_timeout=5)
-    except psycopg.OperationalError as error:
-        message = f"PostgreSQL at {POSTGRES_URL} is not reachable: {error}"
-        if os.environ.get("CI") == "true":
-            pytest.fail(message)
-        pytest.skip(message)
-    schema = f"tripoint_faults_{uuid.uuid4().hex[:12]}"
-    with connection:
-        connection.execute(f'CREATE SCHEMA "{schema}"')
-        try:
-            yield schema
-        finally:
-            connection.execute(f'DROP SCHEMA "{schema}" CASCADE')
+    with shared_postgres_schema("tripoint_faults") as schema:
+        yield schema
 
 
 def _through(proxy: CuttableProxy) -> str:
@@ -205,16 +188,9 @@ def test_store_cut_mid_run_then_restored_loses_no_committed_record(
 # -- SIGTERM --------------------------------------------------------------------------------
 
 
-def _free_port() -> int:
-    with socket.socket() as probe:
-        probe.bind(("127.0.0.1", 0))
-        port: int = probe.getsockname()[1]
-        return port
-
-
 @pytest.fixture
 def live_server(tmp_path: Path) -> Iterator[tuple[subprocess.Popen[bytes], int]]:
-    port = _free_port()
+    port = free_port()
     environment = {
         **os.environ,
         "TRIPOINT_DATABASE_URL": f"sqlite:///{tmp_path / 'records.sqlite3'}",
