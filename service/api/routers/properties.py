@@ -13,6 +13,8 @@ batch neither blocks other requests nor escapes the computation time limit.
 
 from __future__ import annotations
 
+import functools
+from collections.abc import Callable
 from typing import Annotated, Any
 
 from fastapi import APIRouter, Query, Request
@@ -45,6 +47,10 @@ from service.api.units import Dimension, UnitSet
 from service.core import lookups
 from service.core.errors import InvalidInputError
 from service.settings import Settings
+
+_VAPORIZATION = "latent_heat_of_vaporization"
+_SUBLIMATION = "latent_heat_of_sublimation"
+_FUSION = "latent_heat_of_fusion"
 
 router = APIRouter(prefix="/v1/properties", tags=["properties"])
 
@@ -115,41 +121,42 @@ def _line_answer(
     }
 
 
+def _line(
+    request: Request,
+    temperature: Any,
+    pressure: Any,
+    unit_set: UnitSet,
+    lookup: Callable[..., lookups.LineLookup],
+    phases: tuple[str, str],
+    latent_name: str,
+) -> dict[str, Any]:
+    """Read exactly one of temperature or pressure, run a phase-line lookup, shape it."""
+    t, p = _one_of(request, temperature, pressure)
+    result = lookup(temperature=None if t is None else t.si, pressure=None if p is None else p.si)
+    as_array = (t or p).is_array  # type: ignore[union-attr]
+    return _line_answer(result, unit_set, as_array, phases, latent_name)
+
+
 def _saturation(
     request: Request, temperature: Any, pressure: Any, formulation: Formulation, unit_set: UnitSet
 ) -> dict[str, Any]:
-    t, p = _one_of(request, temperature, pressure)
-    result = lookups.saturation_lookup(
-        temperature=None if t is None else t.si,
-        pressure=None if p is None else p.si,
-        formulation=formulation,
-    )
-    as_array = (t or p).is_array  # type: ignore[union-attr]
-    return _line_answer(
-        result, unit_set, as_array, ("liquid", "vapor"), "latent_heat_of_vaporization"
-    )
+    lookup = functools.partial(lookups.saturation_lookup, formulation=formulation)
+    phases = ("liquid", "vapor")
+    return _line(request, temperature, pressure, unit_set, lookup, phases, _VAPORIZATION)
 
 
 def _sublimation(
     request: Request, temperature: Any, pressure: Any, unit_set: UnitSet
 ) -> dict[str, Any]:
-    t, p = _one_of(request, temperature, pressure)
-    result = lookups.sublimation_lookup(
-        temperature=None if t is None else t.si, pressure=None if p is None else p.si
-    )
-    as_array = (t or p).is_array  # type: ignore[union-attr]
-    return _line_answer(result, unit_set, as_array, ("ice", "vapor"), "latent_heat_of_sublimation")
+    lookup = lookups.sublimation_lookup
+    return _line(request, temperature, pressure, unit_set, lookup, ("ice", "vapor"), _SUBLIMATION)
 
 
 def _melting(
     request: Request, temperature: Any, pressure: Any, unit_set: UnitSet
 ) -> dict[str, Any]:
-    t, p = _one_of(request, temperature, pressure)
-    result = lookups.melting_lookup(
-        temperature=None if t is None else t.si, pressure=None if p is None else p.si
-    )
-    as_array = (t or p).is_array  # type: ignore[union-attr]
-    return _line_answer(result, unit_set, as_array, ("ice", "liquid"), "latent_heat_of_fusion")
+    lookup = lookups.melting_lookup
+    return _line(request, temperature, pressure, unit_set, lookup, ("ice", "liquid"), _FUSION)
 
 
 def _state(

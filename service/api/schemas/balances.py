@@ -246,19 +246,24 @@ class TrajectoryOut(ApiModel):
     stage: list[int] = Field(description="Index into `stages` of each point's stage.")
 
 
-class FlashFreezeComparisonOut(ApiModel):
+class EvaporativeComparisonOut(ApiModel):
     """The integrated and hand (mean vapor enthalpy) answers side by side."""
 
     integrated_evaporated_mass: QuantityOutput
     mean_vapor_enthalpy_evaporated_mass: QuantityOutput
-    integrated_ice_mass: QuantityOutput
-    mean_vapor_enthalpy_ice_mass: QuantityOutput
     evaporated_mass_difference: QuantityOutput = Field(
         description="Hand minus integrated evaporated mass."
     )
     relative_difference: QuantityOutput = Field(
         description="(hand - integrated) / integrated evaporated mass (unit 1)."
     )
+
+
+class FlashFreezeComparisonOut(EvaporativeComparisonOut):
+    """The integrated and hand (mean vapor enthalpy) answers side by side, ice included."""
+
+    integrated_ice_mass: QuantityOutput
+    mean_vapor_enthalpy_ice_mass: QuantityOutput
 
 
 class FlashFreezeEnergyBalanceOut(ApiModel):
@@ -457,19 +462,6 @@ class EvaporativeCoolingCreate(ApiModel):
         ),
     )
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
-
-
-class EvaporativeComparisonOut(ApiModel):
-    """The integrated and hand (mean vapor enthalpy) answers side by side."""
-
-    integrated_evaporated_mass: QuantityOutput
-    mean_vapor_enthalpy_evaporated_mass: QuantityOutput
-    evaporated_mass_difference: QuantityOutput = Field(
-        description="Hand minus integrated evaporated mass."
-    )
-    relative_difference: QuantityOutput = Field(
-        description="(hand - integrated) / integrated evaporated mass (unit 1)."
-    )
 
 
 class EvaporativeEnergyBalanceOut(ApiModel):
