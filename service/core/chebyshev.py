@@ -4,7 +4,9 @@ A smooth function of one variable, possibly with several outputs, is fitted on
 an interval split into equal segments, each carrying a Chebyshev series of
 fixed degree. Evaluation finds the segment of every point directly (no search:
 ``floor((x - lower) / width)``) and sums the series with Clenshaw's recurrence,
-all vectorized over points and outputs. An optional monotone variable transform
+all vectorized over points and outputs; one point is summed with the same recurrence
+on Python floats, which avoids numpy's per-call cost and gives bit-identical
+results. An optional monotone variable transform
 (for example ``x = ln(T_c - T)``) turns functions that are steep in the
 physical variable into smooth ones in the fitted variable.
 
@@ -16,8 +18,10 @@ splines.
 
 from __future__ import annotations
 
+import math
 from collections.abc import Callable
 from dataclasses import dataclass
+from functools import cached_property
 
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
@@ -114,6 +118,47 @@ class PiecewiseChebyshev:
         b0 += gathered
         return b0
 
+    @cached_property
+    def _segment_series(self) -> tuple[list[list[list[float]]], list[list[list[float]]]]:
+        """Per segment and output, the value and derivative series as Python floats."""
+        return (
+            self.coefficients.transpose(2, 1, 0).tolist(),
+            self.derivative_coefficients.transpose(2, 1, 0).tolist(),
+        )
+
+    def _one_point(self, x: float, series: list[list[list[float]]]) -> list[float]:
+        """Clenshaw's recurrence at one fitted x on Python floats.
+
+        The operations and their order are those of :meth:`_locate` and
+        :meth:`_clenshaw`, so the results equal the vectorized ones bit for bit.
+        """
+        count = self.segment_count
+        width = (self.upper - self.lower) / count
+        position = (x - self.lower) / width
+        segment = min(max(float(math.floor(position)), 0.0), float(count - 1))
+        local = 2.0 * (position - segment) - 1.0
+        twice = 2.0 * local
+        results = []
+        for row in series[int(segment)]:
+            degree = len(row) - 1
+            if degree == 0:
+                results.append(row[0])
+                continue
+            b1 = row[degree]
+            b2 = 0.0
+            for k in range(degree - 1, 0, -1):
+                b1, b2 = b1 * twice - b2 + row[k], b1
+            results.append(b1 * local - b2 + row[0])
+        return results
+
+    def at_point(self, value: float) -> list[float]:
+        """Evaluate all outputs at one point of the caller's variable, as Python floats.
+
+        Equal bit for bit to ``self(value)``; for callers that work on one state.
+        """
+        x = float(self.fitted_variable(value))
+        return self._one_point(x, self._segment_series[0])
+
     def __call__(self, value: ArrayLike) -> FloatArray:
         """Evaluate all outputs at ``value``.
 
@@ -129,6 +174,9 @@ class PiecewiseChebyshev:
         ndarray, shape (outputs,) + value.shape
         """
         x = self.fitted_variable(value)
+        if x.size == 1:
+            one = self._one_point(float(x.reshape(-1)[0]), self._segment_series[0])
+            return np.array(one).reshape((self.output_count, *x.shape))
         index, local = self._locate(x)
         result = self._clenshaw(self.coefficients, index, local)
         return result.reshape((self.output_count, *x.shape))
@@ -144,6 +192,9 @@ class PiecewiseChebyshev:
         ndarray, shape (outputs,) + value.shape
         """
         x = self.fitted_variable(value)
+        if x.size == 1:
+            one = self._one_point(float(x.reshape(-1)[0]), self._segment_series[1])
+            return np.array(one).reshape((self.output_count, *x.shape))
         index, local = self._locate(x)
         result = self._clenshaw(self.derivative_coefficients, index, local)
         return result.reshape((self.output_count, *x.shape))

@@ -8,21 +8,29 @@ returned, advisories and modelling assumptions. It knows nothing of HTTP.
 from __future__ import annotations
 
 import functools
+import math
 from dataclasses import dataclass
 from typing import Final, Generic, Literal, TypeVar
 
 import numpy as np
 
 from service.core import constants, sources
-from service.core.advisories import Advisory, advise_where, near_critical_point
+from service.core.advisories import (
+    NEAR_CRITICAL_TEMPERATURE_BAND,
+    Advisory,
+    advise_where,
+    near_critical_point,
+)
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.melting import MeltingStates, melting_by_pressure, melting_by_temperature
 from service.core.phase import FloatArray
 from service.core.saturation import (
     Formulation,
+    SaturationPoint,
     SaturationStates,
     saturation_by_pressure,
     saturation_by_temperature,
+    saturation_point_by_temperature,
 )
 from service.core.state import PointStates, state_at
 from service.core.sublimation import (
@@ -30,7 +38,7 @@ from service.core.sublimation import (
     sublimation_by_pressure,
     sublimation_by_temperature,
 )
-from service.core.uncertainty import stated_uncertainty
+from service.core.uncertainty import StatedUncertainty, stated_uncertainty, statement_at
 
 __all__ = [
     "ConstantValues",
@@ -40,6 +48,7 @@ __all__ = [
     "melting_lookup",
     "path_uncertainties",
     "saturation_lookup",
+    "saturation_point_lookup",
     "state_lookup",
     "sublimation_lookup",
 ]
@@ -98,7 +107,12 @@ class ConstantValues:
     latent_heat_of_fusion: float
 
 
-LineLookup = Lookup[SaturationStates] | Lookup[SublimationStates] | Lookup[MeltingStates]
+LineLookup = (
+    Lookup[SaturationStates]
+    | Lookup[SaturationPoint]
+    | Lookup[SublimationStates]
+    | Lookup[MeltingStates]
+)
 
 
 def _report(
@@ -113,26 +127,43 @@ def _report(
     try:
         lookup = stated_uncertainty(formulation, quantity, temperature, pressure)
     except OutOfRangeError as error:
-        return ReportedUncertainty(
-            quantity=name,
-            relative=None,
-            coverage="not stated",
-            statement=(
-                f"No uncertainty statement of {formulation} covers every state asked: {error}"
-            ),
-            source="",
-            basis="",
-        )
+        return _not_stated(name, formulation, error)
     worst = lookup.statements[
         int(lookup.statement_index.ravel()[np.argmax(lookup.relative_uncertainty)])
     ]
+    return _reported(name, worst)
+
+
+def _report_point(
+    formulation: str, quantity: str, temperature: float, *, label: str
+) -> ReportedUncertainty:
+    """:func:`_report` for one state."""
+    try:
+        statement = statement_at(formulation, quantity, temperature)
+    except OutOfRangeError as error:
+        return _not_stated(label, formulation, error)
+    return _reported(label, statement)
+
+
+def _reported(name: str, statement: StatedUncertainty) -> ReportedUncertainty:
     return ReportedUncertainty(
         quantity=name,
-        relative=float(np.max(lookup.relative_uncertainty)),
-        coverage=worst.coverage,
-        statement=worst.statement,
-        source=worst.section,
-        basis=worst.basis,
+        relative=statement.relative,
+        coverage=statement.coverage,
+        statement=statement.statement,
+        source=statement.section,
+        basis=statement.basis,
+    )
+
+
+def _not_stated(name: str, formulation: str, error: OutOfRangeError) -> ReportedUncertainty:
+    return ReportedUncertainty(
+        quantity=name,
+        relative=None,
+        coverage="not stated",
+        statement=f"No uncertainty statement of {formulation} covers every state asked: {error}",
+        source="",
+        basis="",
     )
 
 
@@ -182,6 +213,22 @@ def _batch(*arrays: FloatArray | None) -> bool:
     return any(array is not None and np.ndim(array) > 0 and np.size(array) > 1 for array in arrays)
 
 
+_SATURATION_REPORTS: Final = (
+    # quantity in the uncertainty table, field of the answer it is reported for
+    ("saturation_pressure", "pressure"),
+    ("saturated_liquid_density", "liquid.density"),
+    ("saturated_vapor_density", "vapor.density"),
+    ("enthalpy_of_vaporization", "latent_heat_of_vaporization"),
+)
+_DIVERGES: Final = (
+    "At the critical point the isobaric heat capacity is infinite; it is reported as null."
+)
+_NEAR_CRITICAL: Final = (
+    "Within 1 K of the critical point: liquid and vapor properties converge, heat "
+    "capacities grow without bound and uncertainties are larger."
+)
+
+
 def saturation_lookup(
     *,
     temperature: FloatArray | None = None,
@@ -196,27 +243,51 @@ def saturation_lookup(
     t = states.temperature
     batch = _batch(temperature, pressure)
     uncertainties = [
-        _report(formulation, "saturation_pressure", t, label="pressure"),
-        _report(formulation, "saturated_liquid_density", t, label="liquid.density"),
-        _report(formulation, "saturated_vapor_density", t, label="vapor.density"),
-        _report(formulation, "enthalpy_of_vaporization", t, label="latent_heat_of_vaporization"),
+        _report(formulation, quantity, t, label=label) for quantity, label in _SATURATION_REPORTS
     ]
     advisories = advise_where(
         np.isposinf(states.liquid.specific_isobaric_heat_capacity)
         | np.isposinf(states.vapor.specific_isobaric_heat_capacity),
         "diverges",
-        "At the critical point the isobaric heat capacity is infinite; it is reported as null.",
+        _DIVERGES,
         batch=batch,
     )
     advisories += advise_where(
-        near_critical_point(t),
-        "near-critical-point",
-        "Within 1 K of the critical point: liquid and vapor properties converge, heat "
-        "capacities grow without bound and uncertainties are larger.",
-        batch=batch,
+        near_critical_point(t), "near-critical-point", _NEAR_CRITICAL, batch=batch
     )
     return Lookup(
         states=states,
+        sources=(sources.source_for(formulation),),
+        uncertainties=uncertainties,
+        advisories=advisories,
+        assumptions=[_PURE_WATER, _FLAT, _ABSOLUTE],
+    )
+
+
+def saturation_point_lookup(
+    *, temperature: float, formulation: Formulation = "IAPWS-95"
+) -> Lookup[SaturationPoint]:
+    """:func:`saturation_lookup` for one temperature (K), on floats.
+
+    The same states, uncertainties, advisories and sources as ``saturation_lookup``
+    for a one-element temperature, built without arrays (see
+    :func:`service.core.saturation.saturation_point_by_temperature`).
+    """
+    point = saturation_point_by_temperature(temperature, formulation=formulation)
+    t = point.temperature
+    uncertainties = [
+        _report_point(formulation, quantity, t, label=label)
+        for quantity, label in _SATURATION_REPORTS
+    ]
+    advisories = []
+    if math.isinf(point.liquid.specific_isobaric_heat_capacity) or math.isinf(
+        point.vapor.specific_isobaric_heat_capacity
+    ):
+        advisories.append(Advisory(code="diverges", message=_DIVERGES))
+    if abs(t - constants.CRITICAL_TEMPERATURE) <= NEAR_CRITICAL_TEMPERATURE_BAND:
+        advisories.append(Advisory(code="near-critical-point", message=_NEAR_CRITICAL))
+    return Lookup(
+        states=point,
         sources=(sources.source_for(formulation),),
         uncertainties=uncertainties,
         advisories=advisories,

@@ -15,7 +15,7 @@ from numpy.typing import NDArray
 
 FloatArray = NDArray[np.float64]
 
-__all__ = ["FloatArray", "PhaseProperties"]
+__all__ = ["FloatArray", "PhasePoint", "PhaseProperties"]
 
 
 @dataclass(frozen=True)
@@ -58,4 +58,36 @@ class PhaseProperties:
             specific_internal_energy=self.specific_internal_energy[index],
             specific_entropy=self.specific_entropy[index],
             specific_isobaric_heat_capacity=self.specific_isobaric_heat_capacity[index],
+        )
+
+
+@dataclass(frozen=True)
+class PhasePoint:
+    """The properties of :class:`PhaseProperties` at one state, as Python floats (SI).
+
+    One-state answers are built from these: a float costs nothing to read, where every
+    numpy operation on a one-element array costs about a microsecond.
+    """
+
+    temperature: float
+    pressure: float
+    density: float
+    specific_enthalpy: float
+    specific_internal_energy: float
+    specific_entropy: float
+    specific_isobaric_heat_capacity: float
+
+    @classmethod
+    def first_of(cls, properties: PhaseProperties) -> PhasePoint:
+        """The first state of ``properties``."""
+        return cls(
+            temperature=float(properties.temperature.flat[0]),
+            pressure=float(properties.pressure.flat[0]),
+            density=float(properties.density.flat[0]),
+            specific_enthalpy=float(properties.specific_enthalpy.flat[0]),
+            specific_internal_energy=float(properties.specific_internal_energy.flat[0]),
+            specific_entropy=float(properties.specific_entropy.flat[0]),
+            specific_isobaric_heat_capacity=float(
+                properties.specific_isobaric_heat_capacity.flat[0]
+            ),
         )

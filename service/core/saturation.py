@@ -54,15 +54,17 @@ from service.core.if97 import (
     if97_vapor_properties,
 )
 from service.core.if97 import IF97_REGION1_MAXIMUM_TEMPERATURE as IF97_MAXIMUM_TEMPERATURE
-from service.core.phase import FloatArray, PhaseProperties
+from service.core.phase import FloatArray, PhasePoint, PhaseProperties
 from service.core.validation import finite_array, require_within
 
 __all__ = [
     "CRITICAL_FALLBACK_BAND",
     "Formulation",
+    "SaturationPoint",
     "SaturationStates",
     "saturation_by_pressure",
     "saturation_by_temperature",
+    "saturation_point_by_temperature",
     "saturation_pressure",
     "saturation_temperature",
 ]
@@ -115,6 +117,31 @@ class SaturationStates:
     liquid: PhaseProperties
     vapor: PhaseProperties
     latent_heat_of_vaporization: FloatArray
+
+
+@dataclass(frozen=True)
+class SaturationPoint:
+    """Coexisting liquid and vapor at one saturation state, as Python floats (SI).
+
+    The fields of :class:`SaturationStates`, for one state.
+    """
+
+    temperature: float
+    pressure: float
+    liquid: PhasePoint
+    vapor: PhasePoint
+    latent_heat_of_vaporization: float
+
+    @classmethod
+    def first_of(cls, states: SaturationStates) -> SaturationPoint:
+        """The first state of ``states``."""
+        return cls(
+            temperature=float(states.temperature.flat[0]),
+            pressure=float(states.pressure.flat[0]),
+            liquid=PhasePoint.first_of(states.liquid),
+            vapor=PhasePoint.first_of(states.vapor),
+            latent_heat_of_vaporization=float(states.latent_heat_of_vaporization.flat[0]),
+        )
 
 
 # ---------------------------------------------------------------------------------------
@@ -295,6 +322,38 @@ def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> Satura
         specific_isobaric_heat_capacity=columns[8],
     )
     return SaturationStates(
+        temperature=temperature,
+        pressure=pressure,
+        liquid=liquid,
+        vapor=vapor,
+        latent_heat_of_vaporization=columns[4] - columns[3],
+    )
+
+
+def _point_from_columns(temperature: float, columns: list[float]) -> SaturationPoint:
+    """:func:`_states_from_columns` for one state, on floats (numpy's exp, as there)."""
+    pressure = min(float(np.exp(columns[0])), CRITICAL_PRESSURE)
+    liquid_density = columns[1]
+    vapor_density = float(np.exp(columns[2]))
+    liquid = PhasePoint(
+        temperature=temperature,
+        pressure=pressure,
+        density=liquid_density,
+        specific_enthalpy=columns[3],
+        specific_internal_energy=columns[3] - pressure / liquid_density,
+        specific_entropy=columns[5],
+        specific_isobaric_heat_capacity=columns[7],
+    )
+    vapor = PhasePoint(
+        temperature=temperature,
+        pressure=pressure,
+        density=vapor_density,
+        specific_enthalpy=columns[4],
+        specific_internal_energy=columns[4] - pressure / vapor_density,
+        specific_entropy=columns[6],
+        specific_isobaric_heat_capacity=columns[8],
+    )
+    return SaturationPoint(
         temperature=temperature,
         pressure=pressure,
         liquid=liquid,
@@ -572,6 +631,51 @@ def saturation_by_temperature(
     if formulation == "IAPWS-IF97":
         return _reshape_states(_if97_states(flat, if97_saturation_pressure(flat)), shape)
     return _reshape_states(_iapws95_states(flat), shape)
+
+
+def saturation_point_by_temperature(
+    temperature: float, *, formulation: Formulation = "IAPWS-95"
+) -> SaturationPoint:
+    """Saturated liquid and vapor at one temperature, as floats.
+
+    The same states as :func:`saturation_by_temperature`, equal to them bit for
+    bit, for callers that answer one state: inside the IAPWS-95 table range the
+    table is summed on Python floats, which takes a few microseconds where the
+    array path takes tens; every other case (IAPWS-IF97, the critical band,
+    round-off at the range ends, invalid input) goes through
+    :func:`saturation_by_temperature` and its checks.
+
+    Parameters
+    ----------
+    temperature : float
+        Saturation temperature, K; range as :func:`saturation_by_temperature`.
+    formulation : {"IAPWS-95", "IAPWS-IF97"}
+
+    Returns
+    -------
+    SaturationPoint
+
+    Raises
+    ------
+    InvalidInputError, OutOfRangeError, NotConvergedError
+        As :func:`saturation_by_temperature`.
+
+    References
+    ----------
+    IAPWS R6-95(2018); IAPWS G13-15 (SBTL, table method); IAPWS R7-97(2012).
+
+    Examples
+    --------
+    >>> round(saturation_point_by_temperature(373.15).pressure, 1)
+    101418.0
+    """
+    if (
+        formulation == "IAPWS-95"
+        and type(temperature) is float
+        and TRIPLE_POINT_TEMPERATURE <= temperature <= _TABLE_TEMPERATURE_LIMIT
+    ):
+        return _point_from_columns(temperature, _tables().properties.at_point(temperature))
+    return SaturationPoint.first_of(saturation_by_temperature(temperature, formulation=formulation))
 
 
 def saturation_by_pressure(

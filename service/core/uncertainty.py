@@ -39,6 +39,7 @@ __all__ = [
     "UncertaintyLookup",
     "covered_quantities",
     "stated_uncertainty",
+    "statement_at",
 ]
 
 Basis = Literal["release text", "from memory", "derived"]
@@ -511,6 +512,48 @@ def stated_uncertainty(
         statement_index=np.asarray(remap[index], dtype=np.intp),
         statements=tuple(entries[int(k)] for k in used),
     )
+
+
+def statement_at(
+    formulation: str, quantity: str, temperature: float, pressure: float | None = None
+) -> StatedUncertainty:
+    """The statement that applies to one state.
+
+    What :func:`stated_uncertainty` applies to a single state (the first statement
+    in table order whose range holds it), found without arrays.
+
+    Parameters
+    ----------
+    formulation, quantity : str
+        As :func:`stated_uncertainty`.
+    temperature : float
+        Temperature, K.
+    pressure : float, optional
+        Pressure, Pa, as in :func:`stated_uncertainty`.
+
+    Returns
+    -------
+    StatedUncertainty
+
+    Raises
+    ------
+    InvalidInputError, OutOfRangeError
+        As :func:`stated_uncertainty` (no statement covers the temperature, or it is
+        not finite).
+
+    Examples
+    --------
+    >>> statement_at("IAPWS-95", "saturation_pressure", 300.0).relative
+    0.00025
+    """
+    for entry in _table_for(formulation, quantity).entries:
+        if entry.minimum_temperature <= temperature <= entry.maximum_temperature:
+            limit = entry.maximum_pressure
+            if limit is None or (pressure is not None and pressure <= limit):
+                return entry
+            break
+    # Not covered, NaN, or a pressure to check: the array lookup decides, or raises.
+    return stated_uncertainty(formulation, quantity, temperature, pressure).statements[0]
 
 
 @dataclass(frozen=True)
