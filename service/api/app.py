@@ -17,7 +17,7 @@ from service import __version__
 from service.api.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.docs_assets import install_offline_docs
 from service.api.examples import add_examples_to_openapi, default_examples_folder, load_examples
-from service.api.limits import BodySizeLimit, ComputationTimeLimit, document_time_limit
+from service.api.limits import BodySizeLimit, document_time_limit
 from service.api.observability import Metrics, RequestObservation
 from service.api.problems import document_validation_problems, install_problem_handlers
 from service.api.quantities import read_quantity
@@ -164,11 +164,6 @@ def create_app(
 
     # Added inner to outer: the last one added sees the request first.
     app.add_middleware(CsvAdapter, routes=csv_routes, max_rows=settings.max_batch_points)
-    app.add_middleware(
-        ComputationTimeLimit,
-        seconds=settings.max_request_seconds,
-        pending=app.state.pending_computations,
-    )
     app.add_middleware(BodySizeLimit, max_bytes=settings.max_body_bytes)
     app.add_middleware(ApiKeyGuard, keys=[key.get_secret_value() for key in settings.api_keys])
     if settings.cors_origins:

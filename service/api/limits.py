@@ -1,20 +1,26 @@
-"""Request limits: body size (413) and computation time (503) enforced around the routes;
-the batch-size check (413) that the routes which count points or cases call.
+"""Request limits: body size (413) around the routes, computation time (503) in the
+routes' class, and the batch-size check (413) that the routes which count points or cases
+call.
 """
 
 from __future__ import annotations
 
 import asyncio
+import functools
+import inspect
 import logging
+from collections.abc import Callable, Coroutine
 from typing import Any
 
+from fastapi import Request, Response
+from fastapi.routing import APIRoute
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.problem_asgi import send_problem
 from service.api.problems import FieldError, ProblemError, problem_answer
 from service.api.security import is_protected
 
-__all__ = ["BodySizeLimit", "ComputationTimeLimit", "check_batch_size", "document_time_limit"]
+__all__ = ["BodySizeLimit", "TimeLimitedRoute", "check_batch_size", "document_time_limit"]
 
 _log = logging.getLogger("tripoint.limits")
 
@@ -109,69 +115,56 @@ class BodySizeLimit:
         )
 
 
-class ComputationTimeLimit:
-    """Answer 503 (problem+json) when a ``/v1`` request runs longer than ``seconds``.
+class TimeLimitedRoute(APIRoute):
+    """A route whose synchronous endpoint answers 503 (problem+json) past the time limit.
 
-    The route runs as its own task; when the time is up before the response has started,
-    the client gets the 503 at once and whatever the route sends later is dropped. A
-    computation already running in a worker thread cannot be stopped from outside: it runs
-    to its end and its result is discarded. ``pending`` holds such abandoned tasks so that
-    shutdown can wait for them.
+    FastAPI runs a synchronous endpoint in a worker thread. Here the whole handler (body,
+    validation, endpoint, response) runs as its own task; when ``TRIPOINT_MAX_REQUEST_SECONDS``
+    is up before it ends, the client gets the 503 at once. A computation in a worker thread
+    cannot be stopped from outside: it runs to its end and its answer is discarded. Such
+    abandoned tasks are kept in ``app.state.pending_computations`` so that shutdown can
+    wait for them.
+
+    An ``async`` endpoint runs on the event loop, where no timer fires while it computes:
+    the limit could never interrupt it, and a task, a future and a timer per request would
+    cost about 15 microseconds for nothing (profiled). Such endpoints (the one-point GET
+    lookups) are kept short by what they accept, and are not wrapped.
     """
 
-    def __init__(self, app: ASGIApp, seconds: float, pending: set[asyncio.Task[Any]]) -> None:
-        self.app = app
-        self.seconds = seconds
-        self.pending = pending
+    def get_route_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
+        handler = super().get_route_handler()
+        if inspect.iscoroutinefunction(self.endpoint):
+            return handler
 
-    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
-        if scope["type"] != "http" or not is_protected(scope["path"]):
-            await self.app(scope, receive, send)
-            return
-        response_started = False
-        abandoned = False
-
-        async def guarded_send(message: Message) -> None:
-            nonlocal response_started
-            if abandoned:
-                return
-            if message["type"] == "http.response.start":
-                response_started = True
-            await send(message)
-
-        task = asyncio.ensure_future(self.app(scope, receive, guarded_send))
-        done, _ = await asyncio.wait({task}, timeout=self.seconds)
-        if done or response_started:
-            # Finished, or already streaming its answer: let it complete.
-            await task
-            return
-        abandoned = True
-        self.pending.add(task)
-        task.add_done_callback(self._forget)
-        _log.warning(
-            "computation time limit reached",
-            extra={"fields": {"path": scope["path"], "limit_seconds": self.seconds}},
-        )
-        await send_problem(
-            scope,
-            send,
-            status=503,
-            slug="time-limit",
-            title="Computation took too long",
-            detail=(
-                f"The computation did not finish within {self.seconds:g} s (setting "
-                "TRIPOINT_MAX_REQUEST_SECONDS). Ask for fewer points, or retry later."
-            ),
-            headers={"Retry-After": "1"},
-        )
-
-    def _forget(self, task: asyncio.Task[Any]) -> None:
-        self.pending.discard(task)
-        if not task.cancelled() and task.exception() is not None:
-            _log.error(
-                "abandoned computation failed",
-                exc_info=task.exception(),
+        async def limited(request: Request) -> Response:
+            seconds: float = request.app.state.settings.max_request_seconds
+            task = asyncio.ensure_future(handler(request))
+            done, _ = await asyncio.wait({task}, timeout=seconds)
+            if done:
+                return task.result()
+            pending: set[asyncio.Task[Any]] = request.app.state.pending_computations
+            pending.add(task)
+            task.add_done_callback(functools.partial(_forget, pending))
+            _log.warning(
+                "computation time limit reached",
+                extra={"fields": {"path": request.url.path, "limit_seconds": seconds}},
             )
+            raise ProblemError(
+                503,
+                "time-limit",
+                "Computation took too long",
+                f"The computation did not finish within {seconds:g} s (setting "
+                "TRIPOINT_MAX_REQUEST_SECONDS). Ask for fewer points, or retry later.",
+                headers={"Retry-After": "1"},
+            )
+
+        return limited
+
+
+def _forget(pending: set[asyncio.Task[Any]], task: asyncio.Task[Any]) -> None:
+    pending.discard(task)
+    if not task.cancelled() and task.exception() is not None:
+        _log.error("abandoned computation failed", exc_info=task.exception())
 
 
 def document_time_limit(schema: dict[str, Any], seconds: float) -> None:

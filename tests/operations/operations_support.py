@@ -18,6 +18,7 @@ from server_support import POSTGRES_URL, postgres_schema
 
 from service.api.app import CSV_ROUTES, create_app
 from service.api.csv_io import CsvRoute
+from service.api.limits import TimeLimitedRoute
 from service.api.quantities import quantity_output, read_quantity
 from service.api.recording import record_calculation
 from service.api.responses import FastJSONResponse
@@ -43,7 +44,7 @@ OTHER_KEY = "another-key-abcdefghijklmnop"
 SLOW_RELEASE = threading.Event()
 """Set it to let the slow test route finish."""
 
-_router = APIRouter(prefix="/v1/testing")
+_router = APIRouter(prefix="/v1/testing", route_class=TimeLimitedRoute)
 
 
 class RecordedCreate(ApiModel):

@@ -3,11 +3,18 @@ computation time 503."""
 
 from __future__ import annotations
 
+import importlib
+import inspect
+import pkgutil
 import time
 from collections.abc import Iterator
 from pathlib import Path
 
+from fastapi.routing import APIRoute
 from operations_support import SLOW_RELEASE, running_client
+
+from service.api import routers
+from service.api.limits import TimeLimitedRoute
 
 
 def test_overrunning_computation_is_503_at_the_limit(tmp_path: Path) -> None:
@@ -88,3 +95,28 @@ def test_chunked_body_over_the_limit_is_413_not_400(tmp_path: Path) -> None:
     assert response.status_code == 413
     assert response.json()["type"] == "urn:tripoint:problem:body-too-large"
     assert small.status_code == 200, small.text
+
+
+def _v1_routes() -> list[APIRoute]:
+    """Every /v1 route of every router module in service.api.routers."""
+    found = []
+    for module_info in pkgutil.iter_modules(routers.__path__):
+        module = importlib.import_module(f"{routers.__name__}.{module_info.name}")
+        router = getattr(module, "router", None)
+        if router is None:
+            continue
+        found += [
+            route
+            for route in router.routes
+            if isinstance(route, APIRoute) and route.path.startswith("/v1/")
+        ]
+    return found
+
+
+def test_every_v1_route_that_runs_in_a_thread_is_time_limited() -> None:
+    # The limit lives in the route class: a /v1 router that forgot it would escape it.
+    routes = _v1_routes()
+    threaded = [route for route in routes if not inspect.iscoroutinefunction(route.endpoint)]
+    assert len(threaded) >= 8
+    escaped = [route.path for route in routes if not isinstance(route, TimeLimitedRoute)]
+    assert escaped == []

@@ -24,7 +24,7 @@ from service.api.balance_outputs import (
     evaporative_cooling_answer,
     flash_freeze_answer,
 )
-from service.api.limits import check_batch_size
+from service.api.limits import TimeLimitedRoute, check_batch_size
 from service.api.problems import FieldError, ProblemError, problem_responses
 from service.api.recording import record_calculation
 from service.api.responses import FastJSONResponse
@@ -45,7 +45,7 @@ from service.core.balances import (
 from service.core.errors import UnsupportedStateError
 from service.settings import Settings
 
-router = APIRouter(prefix="/v1/balances", tags=["balances"])
+router = APIRouter(prefix="/v1/balances", tags=["balances"], route_class=TimeLimitedRoute)
 
 FLASH_FREEZE_PATH = "/v1/balances/flash-freeze"
 _ERRORS = problem_responses(413, 422)

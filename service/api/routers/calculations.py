@@ -9,6 +9,7 @@ from typing import Annotated, Any
 from fastapi import APIRouter, Path, Query, Request
 from pydantic import BeforeValidator
 
+from service.api.limits import TimeLimitedRoute
 from service.api.problems import FieldError, ProblemError, problem_responses
 from service.api.recording import RecordKeeper
 from service.api.schemas.calculations import (
@@ -18,7 +19,7 @@ from service.api.schemas.calculations import (
 )
 from service.records import InvalidCursorError, RecordSummary, StoreUnavailableError
 
-router = APIRouter(prefix="/v1/calculations", tags=["calculations"])
+router = APIRouter(prefix="/v1/calculations", tags=["calculations"], route_class=TimeLimitedRoute)
 
 _MAX_PAGE = 1000
 

@@ -19,7 +19,7 @@ from typing import Annotated, Any
 
 from fastapi import APIRouter, Query, Request
 
-from service.api.limits import check_batch_size
+from service.api.limits import TimeLimitedRoute, check_batch_size
 from service.api.problems import problem_responses
 from service.api.quantities import (
     ParsedQuantity,
@@ -52,7 +52,7 @@ _VAPORIZATION = "latent_heat_of_vaporization"
 _SUBLIMATION = "latent_heat_of_sublimation"
 _FUSION = "latent_heat_of_fusion"
 
-router = APIRouter(prefix="/v1/properties", tags=["properties"])
+router = APIRouter(prefix="/v1/properties", tags=["properties"], route_class=TimeLimitedRoute)
 
 _ERRORS = problem_responses(413, 422)
 _TEMPERATURE_QUERY = (

@@ -12,6 +12,7 @@ from typing import Any
 from fastapi import APIRouter, Request
 from starlette.responses import Response
 
+from service.api.limits import TimeLimitedRoute
 from service.api.plotting import PLOT_MEDIA_TYPES, plot_format_for, plot_simulation
 from service.api.problems import problem_responses
 from service.api.recording import record_calculation
@@ -24,7 +25,7 @@ from service.api.simulation_inputs import read_vacuum_chamber
 from service.api.simulation_outputs import simulation_answer
 from service.core.simulation import simulate_vacuum_chamber
 
-router = APIRouter(prefix="/v1/simulations", tags=["simulations"])
+router = APIRouter(prefix="/v1/simulations", tags=["simulations"], route_class=TimeLimitedRoute)
 
 _RESPONSES: dict[int | str, dict[str, Any]] = {
     200: {
