@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import math
 from dataclasses import dataclass
 from typing import Any
 
@@ -13,6 +14,7 @@ from service.api.units import (
     UnitSet,
     convert_from_si,
     convert_to_si,
+    number_from_si,
     output_unit,
     parse_quantity_text,
 )
@@ -119,7 +121,7 @@ def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuanti
 
 
 def quantity_output(
-    si_values: FloatArray,
+    si_values: FloatArray | float,
     dimension: Dimension,
     unit_set: UnitSet,
     *,
@@ -128,10 +130,16 @@ def quantity_output(
 ) -> dict[str, Any]:
     """Shape SI results as ``{"value"|"values": ..., "unit": ...}`` in ``unit_set``.
 
-    ``divergent_as_null`` is for quantities that physically diverge (isobaric heat
-    capacity at the critical point): +infinity is reported as ``null``. Any other
-    non-finite value is left for the response renderer to refuse as a defect.
+    ``si_values`` is an array, or one Python float (a one-state answer, shaped as a
+    ``value``). ``divergent_as_null`` is for quantities that physically diverge
+    (isobaric heat capacity at the critical point): +infinity is reported as ``null``.
+    Any other non-finite value is left for the response renderer to refuse as a defect.
     """
+    if type(si_values) is float and not as_array:
+        unit = output_unit(dimension, unit_set)
+        if divergent_as_null and si_values == math.inf:
+            return {"value": None, "unit": unit}
+        return {"value": number_from_si(si_values, dimension, unit_set), "unit": unit}
     converted = convert_from_si(np.asarray(si_values, dtype=np.float64), dimension, unit_set)
     unit = output_unit(dimension, unit_set)
     values: Any = converted
@@ -150,4 +158,4 @@ def scalar_output(
     """One SI number as ``{"value": ..., "unit": ...}`` in ``unit_set``; ``None`` stays None."""
     if si_value is None:
         return None
-    return quantity_output(np.array([float(si_value)]), dimension, unit_set, as_array=False)
+    return quantity_output(float(si_value), dimension, unit_set, as_array=False)

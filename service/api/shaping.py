@@ -12,7 +12,7 @@ from service.api.quantities import quantity_output
 from service.api.units import Dimension, UnitSet
 from service.core.advisories import Advisory
 from service.core.lookups import ReportedUncertainty
-from service.core.phase import PhaseProperties
+from service.core.phase import PhasePoint, PhaseProperties
 from service.core.reference_state import REFERENCE_STATE
 from service.core.sources import PropertySource
 
@@ -29,9 +29,9 @@ _PHASE_FIELDS: tuple[tuple[str, Dimension, bool], ...] = (
 
 
 def phase_output(
-    properties: PhaseProperties, unit_set: UnitSet, *, as_array: bool
+    properties: PhaseProperties | PhasePoint, unit_set: UnitSet, *, as_array: bool
 ) -> dict[str, Any]:
-    """The five phase properties of the API, in ``unit_set``."""
+    """The five phase properties of the API, in ``unit_set`` (arrays, or one state)."""
     return {
         name: quantity_output(
             getattr(properties, name),

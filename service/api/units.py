@@ -32,6 +32,7 @@ __all__ = [
     "UnitSet",
     "convert_from_si",
     "convert_to_si",
+    "number_from_si",
     "output_unit",
     "parse_quantity_text",
 ]
@@ -252,6 +253,16 @@ def convert_from_si(values: FloatArray, dimension: Dimension, unit_set: UnitSet)
         return values
     result: FloatArray = (values - linear.offset) / linear.scale
     return result
+
+
+def number_from_si(value: float, dimension: Dimension, unit_set: UnitSet) -> float:
+    """:func:`convert_from_si` for one Python float (same arithmetic, no array)."""
+    if unit_set is UnitSet.SI:
+        return value
+    linear = _linear_map(_OUTPUT_UNITS[unit_set][dimension], dimension)
+    if linear.scale == 1.0 and linear.offset == 0.0:
+        return value
+    return (value - linear.offset) / linear.scale
 
 
 def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:

@@ -44,6 +44,36 @@ def test_health(client: TestClient) -> None:
     assert response.json()["status"] == "ok"
 
 
+@pytest.mark.parametrize("output_units", ["SI", "engineering", "US"])
+@pytest.mark.parametrize("temperature", ["0.01 degC", "26.85 degC", "300", "640 K", "647.096"])
+def test_one_temperature_answers_as_a_one_element_batch(
+    client: TestClient, temperature: str, output_units: str
+) -> None:
+    # A single temperature takes the core's one-state path, a list the array path:
+    # the numbers and everything stated beside them must be the same, exactly.
+    single = client.get(
+        "/v1/properties/saturation",
+        params={"temperature": temperature, "output_units": output_units},
+    ).json()
+    number, _, unit = temperature.partition(" ")
+    batch = client.post(
+        "/v1/properties/saturation",
+        json={
+            "temperature": {"values": [float(number)], "unit": unit or None},
+            "output_units": output_units,
+        },
+    ).json()
+
+    def as_batch(item: Any) -> Any:
+        if isinstance(item, dict):
+            if "value" in item and "unit" in item:
+                return {"values": [item["value"]], "unit": item["unit"]}
+            return {key: as_batch(value) for key, value in item.items() if key != "meta"}
+        return item
+
+    assert as_batch(single) == {key: value for key, value in batch.items() if key != "meta"}
+
+
 def test_saturation_get_with_celsius(client: TestClient) -> None:
     # Saturation pressure of water at 100 degC: 101.418 kPa, IAPWS-95
     # (W. Wagner, A. Pruss, J. Phys. Chem. Ref. Data 31, 387 (2002), Table 13.1; from memory).

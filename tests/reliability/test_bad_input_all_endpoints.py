@@ -98,6 +98,14 @@ CASES: list[Case] = [
         "formulation",
         query={"temperature": "300", "formulation": "x"},
     ),
+    Case(
+        "sat-misspelt-query",
+        "GET",
+        _SAT,
+        422,
+        "output_unit",
+        query={"temperature": "300", "output_unit": "US"},
+    ),
     Case("sat-body-bool", "POST", _SAT, 422, "temperature", body={"temperature": True}),
     Case(
         "sat-body-bool-in-list",

@@ -15,9 +15,9 @@ from __future__ import annotations
 
 import functools
 from collections.abc import Callable
-from typing import Annotated, Any
+from typing import Any
 
-from fastapi import APIRouter, Query, Request
+from fastapi import APIRouter, Request
 
 from service.api.limits import TimeLimitedRoute, check_batch_size
 from service.api.problems import problem_responses
@@ -28,19 +28,25 @@ from service.api.quantities import (
     require_exactly_one,
     scalar_output,
 )
+from service.api.query import query_parameters, read_query
 from service.api.responses import FastJSONResponse
 from service.api.schemas.properties import (
     ConstantsPublic,
+    ConstantsQuery,
     Formulation,
     MeltingCreate,
     MeltingPublic,
+    MeltingQuery,
     RequestedPhase,
     SaturationCreate,
     SaturationPublic,
+    SaturationQuery,
     StateCreate,
     StatePublic,
+    StateQuery,
     SublimationCreate,
     SublimationPublic,
+    SublimationQuery,
 )
 from service.api.shaping import envelope, phase_output
 from service.api.units import Dimension, UnitSet
@@ -55,19 +61,6 @@ _FUSION = "latent_heat_of_fusion"
 router = APIRouter(prefix="/v1/properties", tags=["properties"], route_class=TimeLimitedRoute)
 
 _ERRORS = problem_responses(413, 422)
-_TEMPERATURE_QUERY = (
-    "Temperature: a number in K, or a number with a unit, e.g. `25 degC`, `77 degF`, `298.15 K`."
-)
-_PRESSURE_QUERY = "Absolute pressure: a number in Pa, or with a unit, e.g. `2 kPa`, `0.3 psi`."
-_UNITS_QUERY = "Unit set of the results: `SI`, `engineering` or `US`."
-_FORMULATION_QUERY = "`IAPWS-95` (default) or `IAPWS-IF97`."
-
-TemperatureQuery = Annotated[str | None, Query(description=_TEMPERATURE_QUERY)]
-PressureQuery = Annotated[str | None, Query(description=_PRESSURE_QUERY)]
-UnitsQuery = Annotated[UnitSet, Query(description=_UNITS_QUERY)]
-FormulationQuery = Annotated[Formulation, Query(description=_FORMULATION_QUERY)]
-
-
 def _check_points(request: Request, *parsed: ParsedQuantity) -> None:
     settings: Settings = request.app.state.settings
     check_batch_size(
@@ -129,9 +122,17 @@ def _line(
     lookup: Callable[..., lookups.LineLookup],
     phases: tuple[str, str],
     latent_name: str,
+    point_lookup: Callable[..., lookups.LineLookup] | None = None,
 ) -> dict[str, Any]:
-    """Read exactly one of temperature or pressure, run a phase-line lookup, shape it."""
+    """Read exactly one of temperature or pressure, run a phase-line lookup, shape it.
+
+    ``point_lookup``, where a line has one, answers a single temperature (not sent as
+    an array) with the same numbers as ``lookup``, without arrays.
+    """
     t, p = _one_of(request, temperature, pressure)
+    if point_lookup is not None and t is not None and not t.is_array:
+        single = point_lookup(temperature=float(t.si[0]))
+        return _line_answer(single, unit_set, False, phases, latent_name)
     result = lookup(temperature=None if t is None else t.si, pressure=None if p is None else p.si)
     as_array = (t or p).is_array  # type: ignore[union-attr]
     return _line_answer(result, unit_set, as_array, phases, latent_name)
@@ -141,8 +142,11 @@ def _saturation(
     request: Request, temperature: Any, pressure: Any, formulation: Formulation, unit_set: UnitSet
 ) -> dict[str, Any]:
     lookup = functools.partial(lookups.saturation_lookup, formulation=formulation)
+    point_lookup = functools.partial(lookups.saturation_point_lookup, formulation=formulation)
     phases = ("liquid", "vapor")
-    return _line(request, temperature, pressure, unit_set, lookup, phases, _VAPORIZATION)
+    return _line(
+        request, temperature, pressure, unit_set, lookup, phases, _VAPORIZATION, point_lookup
+    )
 
 
 def _sublimation(
@@ -206,17 +210,17 @@ def _state(
     response_model=SaturationPublic,
     responses=_ERRORS,
     summary="Liquid-vapor saturation at a temperature or a pressure",
+    openapi_extra=query_parameters(SaturationQuery),
 )
-async def get_saturation(
-    request: Request,
-    temperature: TemperatureQuery = None,
-    pressure: PressureQuery = None,
-    formulation: FormulationQuery = "IAPWS-95",
-    output_units: UnitsQuery = UnitSet.SI,
-) -> Any:
+async def get_saturation(request: Request) -> Any:
     """Saturated liquid and vapor (triple point to critical point): pressure or temperature,
     density, enthalpy, internal energy, entropy, isobaric heat capacity, latent heat."""
-    return FastJSONResponse(_saturation(request, temperature, pressure, formulation, output_units))
+    query = read_query(request, SaturationQuery)
+    return FastJSONResponse(
+        _saturation(
+            request, query.temperature, query.pressure, query.formulation, query.output_units
+        )
+    )
 
 
 @router.post(
@@ -239,16 +243,15 @@ def post_saturation(request: Request, body: SaturationCreate) -> Any:
     response_model=SublimationPublic,
     responses=_ERRORS,
     summary="Ice Ih-vapor sublimation at a temperature or a pressure",
+    openapi_extra=query_parameters(SublimationQuery),
 )
-async def get_sublimation(
-    request: Request,
-    temperature: TemperatureQuery = None,
-    pressure: PressureQuery = None,
-    output_units: UnitsQuery = UnitSet.SI,
-) -> Any:
+async def get_sublimation(request: Request) -> Any:
     """Ice Ih and vapor in equilibrium (50 K to 273.16 K): pressure, ice and vapor properties,
     latent heat of sublimation."""
-    return FastJSONResponse(_sublimation(request, temperature, pressure, output_units))
+    query = read_query(request, SublimationQuery)
+    return FastJSONResponse(
+        _sublimation(request, query.temperature, query.pressure, query.output_units)
+    )
 
 
 @router.post(
@@ -271,16 +274,15 @@ def post_sublimation(request: Request, body: SublimationCreate) -> Any:
     response_model=MeltingPublic,
     responses=_ERRORS,
     summary="Ice Ih-liquid melting at a temperature or a pressure",
+    openapi_extra=query_parameters(MeltingQuery),
 )
-async def get_melting(
-    request: Request,
-    temperature: TemperatureQuery = None,
-    pressure: PressureQuery = None,
-    output_units: UnitsQuery = UnitSet.SI,
-) -> Any:
+async def get_melting(request: Request) -> Any:
     """Ice Ih and liquid in equilibrium (251.165 K to 273.16 K): pressure, ice and liquid
     properties, latent heat of fusion."""
-    return FastJSONResponse(_melting(request, temperature, pressure, output_units))
+    query = read_query(request, MeltingQuery)
+    return FastJSONResponse(
+        _melting(request, query.temperature, query.pressure, query.output_units)
+    )
 
 
 @router.post(
@@ -301,24 +303,21 @@ def post_melting(request: Request, body: MeltingCreate) -> Any:
     response_model=StatePublic,
     responses=_ERRORS,
     summary="Phase and properties at a temperature and pressure",
+    openapi_extra=query_parameters(StateQuery),
 )
-async def get_state(
-    request: Request,
-    temperature: Annotated[str, Query(description=_TEMPERATURE_QUERY)],
-    pressure: Annotated[str, Query(description=_PRESSURE_QUERY)],
-    phase: Annotated[
-        RequestedPhase | None,
-        Query(
-            description="Omit for the stable phase; `liquid`/`vapor`/`ice` for a metastable one."
-        ),
-    ] = None,
-    formulation: FormulationQuery = "IAPWS-95",
-    output_units: UnitsQuery = UnitSet.SI,
-) -> Any:
+async def get_state(request: Request) -> Any:
     """Stable phase (liquid, vapor, ice Ih, supercritical) and its properties; or a requested
     metastable phase, with a warning."""
+    query = read_query(request, StateQuery)
     return FastJSONResponse(
-        _state(request, temperature, pressure, phase, formulation, output_units)
+        _state(
+            request,
+            query.temperature,
+            query.pressure,
+            query.phase,
+            query.formulation,
+            query.output_units,
+        )
     )
 
 
@@ -349,9 +348,11 @@ def post_state(request: Request, body: StateCreate) -> Any:
     response_model=ConstantsPublic,
     responses=problem_responses(422),
     summary="Triple point, critical point and constants",
+    openapi_extra=query_parameters(ConstantsQuery),
 )
-async def get_constants(output_units: UnitsQuery = UnitSet.SI) -> Any:
+async def get_constants(request: Request) -> Any:
     """Fixed points of water substance and the latent heats at the triple point."""
+    output_units = read_query(request, ConstantsQuery).output_units
     result = lookups.constants_lookup()
     values = result.states
 

@@ -11,16 +11,21 @@ from service.api.units import UnitSet
 
 __all__ = [
     "ConstantsPublic",
+    "ConstantsQuery",
     "Formulation",
     "MeltingCreate",
     "MeltingPublic",
+    "MeltingQuery",
     "PhaseOut",
     "SaturationCreate",
     "SaturationPublic",
+    "SaturationQuery",
     "StateCreate",
     "StatePublic",
+    "StateQuery",
     "SublimationCreate",
     "SublimationPublic",
+    "SublimationQuery",
 ]
 
 Formulation = Literal["IAPWS-95", "IAPWS-IF97"]
@@ -79,6 +84,54 @@ class StateCreate(ApiModel):
     )
     formulation: Formulation = Field("IAPWS-95", description=_FORMULATION)
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
+
+
+# ----------------------------------------------------------------- GET query strings
+_TEMPERATURE_QUERY = (
+    "Temperature: a number in K, or a number with a unit, e.g. `25 degC`, `77 degF`, `298.15 K`."
+)
+_PRESSURE_QUERY = "Absolute pressure: a number in Pa, or with a unit, e.g. `2 kPa`, `0.3 psi`."
+_UNITS_QUERY = "Unit set of the results: `SI`, `engineering` or `US`."
+_FORMULATION_QUERY = "`IAPWS-95` (default) or `IAPWS-IF97`."
+
+
+class ConstantsQuery(ApiModel):
+    """Query string of GET /v1/properties/constants."""
+
+    output_units: UnitSet = Field(UnitSet.SI, description=_UNITS_QUERY)
+
+
+class _LineQuery(ApiModel):
+    temperature: str | None = Field(None, description=_TEMPERATURE_QUERY)
+    pressure: str | None = Field(None, description=_PRESSURE_QUERY)
+    output_units: UnitSet = Field(UnitSet.SI, description=_UNITS_QUERY)
+
+
+class SublimationQuery(_LineQuery):
+    """Query string of GET /v1/properties/sublimation: one of temperature or pressure."""
+
+
+class MeltingQuery(_LineQuery):
+    """Query string of GET /v1/properties/melting: one of temperature or pressure."""
+
+
+class SaturationQuery(_LineQuery):
+    """Query string of GET /v1/properties/saturation: one of temperature or pressure."""
+
+    formulation: Formulation = Field("IAPWS-95", description=_FORMULATION_QUERY)
+
+
+class StateQuery(ApiModel):
+    """Query string of GET /v1/properties/state: temperature and pressure."""
+
+    temperature: str = Field(description=_TEMPERATURE_QUERY)
+    pressure: str = Field(description=_PRESSURE_QUERY)
+    phase: RequestedPhase | None = Field(
+        None,
+        description="Omit for the stable phase; `liquid`/`vapor`/`ice` for a metastable one.",
+    )
+    formulation: Formulation = Field("IAPWS-95", description=_FORMULATION_QUERY)
+    output_units: UnitSet = Field(UnitSet.SI, description=_UNITS_QUERY)
 
 
 class PhaseOut(ApiModel):
