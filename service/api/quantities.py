@@ -15,6 +15,7 @@ from service.api.units import (
     convert_from_si,
     convert_to_si,
     number_from_si,
+    number_to_si,
     output_unit,
     parse_quantity_text,
 )
@@ -102,6 +103,12 @@ def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuanti
         values, unit, is_array = raw, None, True
     else:
         raise InvalidInputError(field, f"unsupported input of type {type(raw).__name__}", None)
+    if not is_array and uncertainty is None:
+        # One number: the same conversion on a float, then one array (no numpy checks).
+        if not math.isfinite(values):
+            raise InvalidInputError(field, "values must be finite numbers", None)
+        si_value = number_to_si(float(values), unit, dimension, field=field)
+        return ParsedQuantity(si=np.array([si_value]), is_array=False)
     array = np.atleast_1d(np.asarray(values, dtype=np.float64))
     if array.ndim != 1:
         raise InvalidInputError(field, "arrays must be flat lists of numbers", None)

@@ -78,13 +78,14 @@ class RecordKeeper:
         if not isinstance(meta, dict) or not meta.get("calculation_id"):
             raise ValueError("a recorded answer must carry meta.calculation_id")
         calculation_id = str(meta["calculation_id"])
-        sources = result.get("property_sources") or []
+        stored = _plain_json(result)
+        sources = stored.get("property_sources") or []
         record = CalculationRecord(
             calculation_id=calculation_id,
             kind=kind,
             created_at=_created_at(meta),
             inputs=_plain_json(dict(inputs)),
-            result=_plain_json(result),
+            result=stored,
             service_version=str(meta.get("service_version") or __version__),
             formulations=[
                 {"formulation": source.get("formulation"), "release": source.get("release")}

@@ -2,13 +2,18 @@
 
 from __future__ import annotations
 
+import functools
+import math
 import uuid
 from collections.abc import Iterable, Sequence
 from datetime import UTC, datetime
 from typing import Any
 
+import orjson
+
 from service import __version__
 from service.api.quantities import quantity_output
+from service.api.responses import NonFiniteResultError
 from service.api.units import Dimension, UnitSet
 from service.core.advisories import Advisory
 from service.core.lookups import ReportedUncertainty
@@ -56,6 +61,40 @@ def _uncertainty_output(item: ReportedUncertainty) -> dict[str, Any]:
     }
 
 
+def _source_output(source: PropertySource) -> dict[str, Any]:
+    return {
+        "formulation": source.formulation,
+        "release": source.release,
+        "year": source.year,
+        "title": source.title,
+        "scope": source.scope,
+    }
+
+
+# The texts an answer states beside its numbers repeat from one answer to the next:
+# each is rendered to JSON once and embedded as is (orjson.Fragment), which spares
+# every response building, checking and serializing about 3 kB of the same text.
+_REPEATED_TEXTS = 512
+
+
+@functools.lru_cache(maxsize=_REPEATED_TEXTS)
+def _assumptions_json(assumptions: tuple[str, ...]) -> orjson.Fragment:
+    return orjson.Fragment(orjson.dumps(list(assumptions)))
+
+
+@functools.lru_cache(maxsize=_REPEATED_TEXTS)
+def _sources_json(sources: tuple[PropertySource, ...]) -> orjson.Fragment:
+    return orjson.Fragment(orjson.dumps([_source_output(source) for source in sources]))
+
+
+@functools.lru_cache(maxsize=_REPEATED_TEXTS)
+def _uncertainties_json(uncertainties: tuple[ReportedUncertainty, ...]) -> orjson.Fragment:
+    items = [_uncertainty_output(item) for item in uncertainties]
+    if any(item["relative"] is not None and not math.isfinite(item["relative"]) for item in items):
+        raise NonFiniteResultError("non-finite relative uncertainty")
+    return orjson.Fragment(orjson.dumps(items))
+
+
 def envelope(
     *,
     unit_set: UnitSet,
@@ -64,21 +103,16 @@ def envelope(
     uncertainties: Iterable[ReportedUncertainty],
     advisories: Iterable[Advisory],
 ) -> dict[str, Any]:
-    """The envelope every calculation response carries."""
+    """The envelope every calculation response carries.
+
+    ``assumptions``, ``property_sources`` and ``uncertainty`` are pre-rendered JSON
+    (``orjson.Fragment``), which the response renderer embeds as they are.
+    """
     return {
         "reference_state": REFERENCE_STATE,
-        "assumptions": list(assumptions),
-        "property_sources": [
-            {
-                "formulation": source.formulation,
-                "release": source.release,
-                "year": source.year,
-                "title": source.title,
-                "scope": source.scope,
-            }
-            for source in sources
-        ],
-        "uncertainty": [_uncertainty_output(item) for item in uncertainties],
+        "assumptions": _assumptions_json(tuple(assumptions)),
+        "property_sources": _sources_json(tuple(sources)),
+        "uncertainty": _uncertainties_json(tuple(uncertainties)),
         "warnings": [
             {
                 "code": advisory.code,

@@ -33,6 +33,7 @@ __all__ = [
     "convert_from_si",
     "convert_to_si",
     "number_from_si",
+    "number_to_si",
     "output_unit",
     "parse_quantity_text",
 ]
@@ -227,16 +228,30 @@ def convert_to_si(
         If the unit is unknown or of the wrong dimension; names ``field``.
     """
     array = np.asarray(values, dtype=np.float64)
-    if unit is None or unit.strip() == _SI_LABEL[dimension]:
+    linear = _input_map(unit, dimension, field=field)
+    if linear is None:
         return array
+    result: FloatArray = array * linear.scale + linear.offset
+    return result
+
+
+def number_to_si(value: float, unit: str | None, dimension: Dimension, *, field: str) -> float:
+    """:func:`convert_to_si` for one Python float (same arithmetic, no array)."""
+    linear = _input_map(unit, dimension, field=field)
+    return value if linear is None else value * linear.scale + linear.offset
+
+
+def _input_map(unit: str | None, dimension: Dimension, *, field: str) -> _Linear | None:
+    """The (scale, offset) taking ``unit`` to SI; ``None`` where it is SI already."""
+    if unit is None or unit.strip() == _SI_LABEL[dimension]:
+        return None
     try:
         linear = _linear_map(unit.strip(), dimension)
     except ValueError as error:
         raise InvalidInputError(field, str(error), unit) from None
     if linear.scale == 1.0 and linear.offset == 0.0:
-        return array
-    result: FloatArray = array * linear.scale + linear.offset
-    return result
+        return None
+    return linear
 
 
 def output_unit(dimension: Dimension, unit_set: UnitSet) -> str:

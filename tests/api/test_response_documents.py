@@ -5,10 +5,15 @@ from __future__ import annotations
 from typing import Any
 
 import numpy as np
+import orjson
 import pytest
 from fastapi.testclient import TestClient
 
 from service.api.responses import FastJSONResponse, NonFiniteResultError
+from service.api.shaping import envelope
+from service.api.units import UnitSet
+from service.core.lookups import ReportedUncertainty
+from service.core.sources import IAPWS_95
 
 FINITE: list[tuple[str, Any]] = [
     ("nested", {"a": {"value": 1.5, "unit": "K"}, "b": [1, "x", None, True]}),
@@ -36,6 +41,40 @@ def test_finite_content_is_rendered(name: str, content: Any) -> None:
 def test_non_finite_content_is_refused(name: str, content: Any) -> None:
     with pytest.raises(NonFiniteResultError):
         FastJSONResponse(content)
+
+
+def _reported(relative: float | None) -> ReportedUncertainty:
+    return ReportedUncertainty("pressure", relative, "k = 2", "a statement", "R6-95", "derived")
+
+
+def test_envelope_texts_render_as_plain_json() -> None:
+    # The envelope's repeated texts are pre-rendered fragments: the document sent must
+    # be the plain JSON they stand for.
+    content = envelope(
+        unit_set=UnitSet.SI,
+        assumptions=["Pure water."],
+        sources=[IAPWS_95],
+        uncertainties=[_reported(0.00025), _reported(None)],
+        advisories=[],
+    )
+    sent = orjson.loads(FastJSONResponse(content).body)
+    assert sent["assumptions"] == ["Pure water."]
+    assert sent["property_sources"][0]["formulation"] == "IAPWS-95"
+    assert sent["property_sources"][0]["release"] == IAPWS_95.release
+    assert [item["relative"] for item in sent["uncertainty"]] == [0.00025, None]
+    assert sent["uncertainty"][0]["source"] == "R6-95"
+
+
+@pytest.mark.parametrize("bad", [float("nan"), float("inf")])
+def test_non_finite_uncertainty_in_the_envelope_is_refused(bad: float) -> None:
+    with pytest.raises(NonFiniteResultError):
+        envelope(
+            unit_set=UnitSet.SI,
+            assumptions=[],
+            sources=[IAPWS_95],
+            uncertainties=[_reported(bad)],
+            advisories=[],
+        )
 
 
 def test_every_422_is_documented_as_a_problem_document(client: TestClient) -> None:
