@@ -5,8 +5,11 @@ worker) on a free loopback port, then:
 
 - drives it with ``wrk`` (Debian's C load generator; an async httpx client when wrk is
   absent) for median and p99 latency and requests/s at concurrency 1, 16 and 64 on
-  ``/health``, a saturation lookup (GET) and a flash-freeze balance (POST);
+  ``/health``, a saturation lookup (GET, a different temperature from one request to the
+  next, 199 in turn) and a flash-freeze balance (POST);
 - compares the lookup's median with ``/health``'s at each concurrency (goal <= 1.3);
+- splits that ratio on a second server (``reference_server.py``): ``/health``, a /v1 route
+  answering a saved 4 kB saturation answer without computing, and the real lookup;
 - times a 10,000-point saturation batch over HTTP (JSON both ways: the client encodes
   the request and decodes the answer, with orjson) against CoolProp's in-process
   vectorized ``PropsSI`` calls for the same points and properties (goal <= 0.5).
@@ -19,14 +22,18 @@ from __future__ import annotations
 
 import os
 import statistics
+import sys
+import tempfile
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
+from pathlib import Path
 from typing import Any
 
 import httpx
 import numpy as np
 import orjson
 from loopback import LoadResult, Request, drive, load_generator, running_server
+from reference_server import ANSWER_VARIABLE
 
 SECONDS_PER_SCENARIO = float(os.environ.get("TRIPOINT_BENCH_SECONDS", "5"))
 CONCURRENCY = (1, 16, 64)
@@ -34,15 +41,25 @@ BATCH_POINTS = 10_000
 LOOKUP_GOAL = 1.3
 BATCH_GOAL = 0.5
 
-SCENARIOS: dict[str, Request] = {
-    "health": Request("GET", "/health"),
-    "saturation lookup": Request("GET", "/v1/properties/saturation?temperature=300"),
-    "flash-freeze balance": Request(
-        "POST",
-        "/v1/balances/flash-freeze",
-        {"initial_temperature": "20 degC", "water_mass": "1 kg"},
-    ),
+LOOKUP_TEMPERATURES = np.round(np.linspace(0.5, 99.5, 199), 1)
+"""degC. The lookup scenario asks for these in turn: no two requests in a row alike."""
+
+SCENARIOS: dict[str, list[Request]] = {
+    "health": [Request("GET", "/health")],
+    "saturation lookup": [
+        Request("GET", f"/v1/properties/saturation?temperature={value:g}%20degC")
+        for value in LOOKUP_TEMPERATURES
+    ],
+    "flash-freeze balance": [
+        Request(
+            "POST",
+            "/v1/balances/flash-freeze",
+            {"initial_temperature": "20 degC", "water_mass": "1 kg"},
+        )
+    ],
 }
+REFERENCE_CONCURRENCY = (1, 16)
+REFERENCE_SERVER = [sys.executable, str(Path(__file__).resolve().parent / "reference_server.py")]
 
 
 def _median_time(function: Callable[[], object], repeats: int) -> float:
@@ -85,6 +102,45 @@ def _http_batch(base_url: str, temperature: np.ndarray[Any, np.dtype[np.float64]
         return _median_time(run, repeats=9)
 
 
+def _measure(base_url: str, name: str, shapes: Sequence[Request], concurrency: int) -> LoadResult:
+    drive(base_url, shapes, concurrency=concurrency, seconds=1)  # warm up
+    result = drive(base_url, shapes, concurrency=concurrency, seconds=SECONDS_PER_SCENARIO)
+    _print_row(name, concurrency, result)
+    return result
+
+
+def _decomposition(answer: bytes) -> None:
+    """Health, a fixed 4 kB /v1 answer and the real lookup, side by side on one server."""
+    with tempfile.NamedTemporaryFile(suffix=".json", delete=False) as file:
+        file.write(answer)
+    try:
+        with running_server(REFERENCE_SERVER, **{ANSWER_VARIABLE: file.name}) as server:
+            print()
+            print(
+                "decomposition (bench/reference_server.py: the same app plus one route that "
+                "answers a saved saturation answer, computing nothing)"
+            )
+            shapes = {
+                "health": SCENARIOS["health"],
+                "fixed 4 kB /v1 answer": [Request("GET", "/v1/reference/fixed-answer")],
+                "saturation lookup": SCENARIOS["saturation lookup"],
+            }
+            for concurrency in REFERENCE_CONCURRENCY:
+                measured = {
+                    name: _measure(server.base_url, name, requests, concurrency).median
+                    for name, requests in shapes.items()
+                }
+                health = measured["health"]
+                print(
+                    f"  concurrency {concurrency:>2}: fixed answer / health "
+                    f"{measured['fixed 4 kB /v1 answer'] / health:.2f}, lookup / health "
+                    f"{measured['saturation lookup'] / health:.2f}, lookup / fixed answer "
+                    f"{measured['saturation lookup'] / measured['fixed 4 kB /v1 answer']:.2f}"
+                )
+    finally:
+        os.unlink(file.name)
+
+
 def _print_row(name: str, concurrency: int, result: LoadResult) -> None:
     print(
         f"{name:22} {concurrency:>4} {result.median * 1e3:>10.3f} {result.p99 * 1e3:>9.3f}"
@@ -102,13 +158,8 @@ def main() -> None:
             f" {'requests':>8} {'errs':>5}"
         )
         for concurrency in CONCURRENCY:
-            for name, shape in SCENARIOS.items():
-                drive(server.base_url, [shape], concurrency=concurrency, seconds=1)  # warm up
-                result = drive(
-                    server.base_url, [shape], concurrency=concurrency, seconds=SECONDS_PER_SCENARIO
-                )
-                results[(name, concurrency)] = result
-                _print_row(name, concurrency, result)
+            for name, shapes in SCENARIOS.items():
+                results[(name, concurrency)] = _measure(server.base_url, name, shapes, concurrency)
         print()
         for concurrency in CONCURRENCY:
             ratio = (
@@ -123,6 +174,8 @@ def main() -> None:
 
         temperature = np.linspace(275.0, 640.0, BATCH_POINTS)
         http_batch = _http_batch(server.base_url, temperature)
+        answer = httpx.get(server.base_url + SCENARIOS["saturation lookup"][0].path).content
+    _decomposition(answer)
     coolprop = _coolprop_batch(temperature)
     print()
     print(

@@ -1,7 +1,8 @@
 """Shared by the HTTP benches: the real server on loopback, a load generator, the machine.
 
-- :func:`running_server` starts ``python -m service`` on a free 127.0.0.1 port with its
-  records in a temporary SQLite file, and stops it (SIGTERM) afterwards.
+- :func:`running_server` starts ``python -m service`` (or another command) on a free
+  127.0.0.1 port with its records in a temporary SQLite file, and stops it (SIGTERM)
+  afterwards.
 - :func:`drive` sends a fixed list of requests, round robin, from ``concurrency``
   keep-alive connections for a bounded time: with Debian's ``wrk`` when it is on the PATH
   (a C load generator that leaves the cores to the server), otherwise with an async httpx
@@ -89,8 +90,11 @@ def _free_port() -> int:
 
 
 @contextmanager
-def running_server(**environment: str) -> Iterator[Server]:
-    """Run ``python -m service`` on loopback until the block ends; ``TRIPOINT_*`` overrides."""
+def running_server(command: Sequence[str] | None = None, **environment: str) -> Iterator[Server]:
+    """Run ``python -m service`` on loopback until the block ends; ``TRIPOINT_*`` overrides.
+
+    ``command`` replaces ``python -m service`` (it gets ``--host`` and ``--port`` appended).
+    """
     folder = Path(tempfile.mkdtemp(prefix="tripoint-bench-"))
     port = _free_port()
     settings = {
@@ -99,7 +103,13 @@ def running_server(**environment: str) -> Iterator[Server]:
         **environment,
     }
     process = subprocess.Popen(
-        [sys.executable, "-m", "service", "--host", "127.0.0.1", "--port", str(port)],
+        [
+            *(command or [sys.executable, "-m", "service"]),
+            "--host",
+            "127.0.0.1",
+            "--port",
+            str(port),
+        ],
         env={**os.environ, **settings},
         stdout=subprocess.DEVNULL,
         stderr=subprocess.DEVNULL,
