@@ -14,7 +14,6 @@ from service.api.units import (
     UnitSet,
     convert_from_si,
     convert_to_si,
-    number_from_si,
     number_to_si,
     output_unit,
     parse_quantity_text,
@@ -146,7 +145,7 @@ def quantity_output(
         unit = output_unit(dimension, unit_set)
         if divergent_as_null and si_values == math.inf:
             return {"value": None, "unit": unit}
-        return {"value": number_from_si(si_values, dimension, unit_set), "unit": unit}
+        return {"value": convert_from_si(si_values, dimension, unit_set), "unit": unit}
     converted = convert_from_si(np.asarray(si_values, dtype=np.float64), dimension, unit_set)
     unit = output_unit(dimension, unit_set)
     values: Any = converted

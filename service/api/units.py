@@ -19,7 +19,7 @@ import re
 from dataclasses import dataclass
 from enum import Enum, StrEnum
 from functools import cache
-from typing import Any
+from typing import Any, overload
 
 import numpy as np
 import pint
@@ -32,7 +32,6 @@ __all__ = [
     "UnitSet",
     "convert_from_si",
     "convert_to_si",
-    "number_from_si",
     "number_to_si",
     "output_unit",
     "parse_quantity_text",
@@ -259,25 +258,25 @@ def output_unit(dimension: Dimension, unit_set: UnitSet) -> str:
     return _OUTPUT_UNITS[unit_set][dimension]
 
 
-def convert_from_si(values: FloatArray, dimension: Dimension, unit_set: UnitSet) -> FloatArray:
-    """Express SI ``values`` in the unit ``unit_set`` uses for ``dimension``."""
+@overload
+def convert_from_si(values: float, dimension: Dimension, unit_set: UnitSet) -> float: ...
+
+
+@overload
+def convert_from_si(values: FloatArray, dimension: Dimension, unit_set: UnitSet) -> FloatArray: ...
+
+
+def convert_from_si(
+    values: FloatArray | float, dimension: Dimension, unit_set: UnitSet
+) -> FloatArray | float:
+    """Express SI ``values`` (an array, or one float) in the unit ``unit_set`` uses for
+    ``dimension``."""
     if unit_set is UnitSet.SI:
         return values
     linear = _linear_map(_OUTPUT_UNITS[unit_set][dimension], dimension)
     if linear.scale == 1.0 and linear.offset == 0.0:
         return values
-    result: FloatArray = (values - linear.offset) / linear.scale
-    return result
-
-
-def number_from_si(value: float, dimension: Dimension, unit_set: UnitSet) -> float:
-    """:func:`convert_from_si` for one Python float (same arithmetic, no array)."""
-    if unit_set is UnitSet.SI:
-        return value
-    linear = _linear_map(_OUTPUT_UNITS[unit_set][dimension], dimension)
-    if linear.scale == 1.0 and linear.offset == 0.0:
-        return value
-    return (value - linear.offset) / linear.scale
+    return (values - linear.offset) / linear.scale
 
 
 def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:
