@@ -65,3 +65,24 @@ def test_every_quantity_field_names_its_unit(client: TestClient) -> None:
         and "fraction" not in spec.get("description", "").lower()
     ]
     assert silent == []
+
+
+def test_every_get_query_parameter_is_documented(client: TestClient) -> None:
+    # The GET lookups read their query with one model each (service.api.query); OpenAPI
+    # must still list every parameter, described, with its schema.
+    schema = client.get("/openapi.json").json()
+    saturation = schema["paths"]["/v1/properties/saturation"]["get"]["parameters"]
+    assert {item["name"] for item in saturation} == {
+        "temperature",
+        "pressure",
+        "formulation",
+        "output_units",
+    }
+    state = schema["paths"]["/v1/properties/state"]["get"]["parameters"]
+    assert {item["name"] for item in state if item["required"]} == {"temperature", "pressure"}
+    for path, methods in schema["paths"].items():
+        for parameter in methods.get("get", {}).get("parameters", []):
+            assert parameter["in"] in ("query", "path"), (path, parameter)
+            assert parameter.get("description"), (path, parameter["name"])
+            # a model's own definitions are inlined: OpenAPI has no "#/$defs/..." to point at
+            assert "#/$defs/" not in str(parameter["schema"]), (path, parameter["name"])

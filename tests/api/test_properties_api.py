@@ -273,3 +273,12 @@ def test_responses_validate_against_their_models(client: TestClient) -> None:
     for model, path, params in checks:
         body = client.get(path, params=params).json()
         model.model_validate(body)
+
+
+def test_query_parameter_given_twice_takes_the_last_value(client: TestClient) -> None:
+    # As FastAPI's own query parameters do (and as service.api.query documents).
+    response = client.get(
+        "/v1/properties/saturation?temperature=300&output_units=US&output_units=engineering"
+    )
+    assert response.status_code == 200, response.text
+    assert response.json()["meta"]["output_units"] == "engineering"
