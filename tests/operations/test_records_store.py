@@ -8,6 +8,7 @@ from __future__ import annotations
 
 import uuid
 from collections.abc import Iterator
+from concurrent.futures import ThreadPoolExecutor
 from datetime import UTC, datetime, timedelta
 from pathlib import Path
 
@@ -152,6 +153,17 @@ def test_prune_removes_only_older_records(store: RecordStore) -> None:
     assert store.prune(NOW - timedelta(days=30)) == 1
     assert store.get(drop.calculation_id) is None
     assert store.get(keep.calculation_id) is not None
+
+
+def test_concurrent_writers_lose_no_record(store: RecordStore) -> None:
+    # Balance routes write from worker threads; on SQLite they queue on the store's own
+    # lock, on PostgreSQL they write side by side. Either way every record must land.
+    records = [_record(age=timedelta(seconds=number)) for number in range(96)]
+    with ThreadPoolExecutor(max_workers=16) as pool:
+        list(pool.map(store.add, records))
+    stored = store.list_records(limit=200)
+    assert {item.calculation_id for item in stored.items} == {r.calculation_id for r in records}
+    assert store.prune(NOW - timedelta(seconds=47.5)) == 48
 
 
 def test_schema_is_versioned_and_idempotent(store: RecordStore) -> None:
