@@ -4,11 +4,13 @@ Each lookup answers GET (query parameters, one point) and POST (JSON body, any i
 may be a batch). Handlers read inputs to SI, call one core function and shape the answer.
 
 The GET handlers are ``async``: a query string holds one point, computed in well under
-10 ms (about 0.1 ms on the table path), so it runs on the event loop; handing it to a
-worker thread cost more than the computation (profiled: the hop and the thread switch
-under the GIL doubled the lookup's time). The POST handlers take batches of up to
-``TRIPOINT_MAX_BATCH_POINTS`` and stay synchronous, in worker threads, so that a long
-batch neither blocks other requests nor escapes the computation time limit.
+10 ms (tens of microseconds for saturation, on the core's one-state path), so it runs on
+the event loop; handing it to a worker thread cost more than the computation (profiled:
+the hop and the thread switch under the GIL doubled the lookup's time). They read their
+query string with one model each (:mod:`service.api.query`). The POST handlers take
+batches of up to ``TRIPOINT_MAX_BATCH_POINTS`` and stay synchronous, in worker threads,
+so that a long batch neither blocks other requests nor escapes the computation time
+limit (:class:`~service.api.limits.TimeLimitedRoute`).
 """
 
 from __future__ import annotations
@@ -61,6 +63,8 @@ _FUSION = "latent_heat_of_fusion"
 router = APIRouter(prefix="/v1/properties", tags=["properties"], route_class=TimeLimitedRoute)
 
 _ERRORS = problem_responses(413, 422)
+
+
 def _check_points(request: Request, *parsed: ParsedQuantity) -> None:
     settings: Settings = request.app.state.settings
     check_batch_size(
