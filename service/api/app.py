@@ -33,7 +33,7 @@ from service.api.routers import (
 )
 from service.api.security import ApiKeyGuard, document_security
 from service.api.units import Dimension
-from service.core.saturation import saturation_pressure
+from service.core.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
 
@@ -67,9 +67,9 @@ keys, every `/v1` route needs `Authorization: Bearer <key>`.
 
 def _warm_up() -> None:
     """Build the per-process caches a first request would otherwise pay for (about 0.3 s):
-    the unit registry and the saturation tables."""
+    the unit registry, the saturation tables and their one-point form."""
     read_quantity("25 degC", field="temperature", dimension=Dimension.TEMPERATURE)
-    saturation_pressure(300.0)
+    saturation_point_lookup(temperature=300.0)
 
 
 @contextlib.asynccontextmanager
