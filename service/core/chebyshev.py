@@ -130,11 +130,14 @@ class PiecewiseChebyshev:
         """Clenshaw's recurrence at one fitted x on Python floats.
 
         The operations and their order are those of :meth:`_locate` and
-        :meth:`_clenshaw`, so the results equal the vectorized ones bit for bit.
+        :meth:`_clenshaw`, so the results equal the vectorized ones bit for bit. A
+        non-finite x (callers validate first) gives NaN for every output.
         """
         count = self.segment_count
         width = (self.upper - self.lower) / count
         position = (x - self.lower) / width
+        if not math.isfinite(position):
+            return [math.nan] * len(series[0])
         segment = min(max(float(math.floor(position)), 0.0), float(count - 1))
         local = 2.0 * (position - segment) - 1.0
         twice = 2.0 * local

@@ -54,6 +54,15 @@ def test_table_one_point_sum_equals_the_vectorized_sum() -> None:
         assert np.array_equal(one_element_slopes, slopes)
 
 
+@pytest.mark.parametrize("bad", [float("nan"), float("inf"), float("-inf")])
+def test_table_one_point_of_a_non_finite_value_is_nan_not_an_exception(bad: float) -> None:
+    # Callers validate first; a table asked anyway answers NaN, as arrays propagate it.
+    with np.errstate(invalid="ignore"):
+        values = _tables().properties(np.array([bad]))
+    assert values.shape == (9, 1)
+    assert np.isnan(values).all()
+
+
 @pytest.mark.parametrize("formulation", ["IAPWS-95", "IAPWS-IF97"])
 def test_one_state_equals_the_array_path(formulation: Formulation) -> None:
     upper = CRITICAL_TEMPERATURE if formulation == "IAPWS-95" else 623.15
