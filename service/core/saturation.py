@@ -32,7 +32,7 @@ from __future__ import annotations
 
 import functools
 from dataclasses import dataclass, replace
-from typing import Final, Literal
+from typing import Any, Final, Literal, TypeVar
 
 import numpy as np
 from numpy.typing import ArrayLike
@@ -298,12 +298,20 @@ def _log_pressure_residual(
     return step
 
 
-def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> SaturationStates:
-    # exp(ln p_c) may round one unit above p_c; the critical pressure is the maximum.
-    pressure = np.minimum(np.exp(columns[0]), CRITICAL_PRESSURE)
+_PhaseT = TypeVar("_PhaseT", PhaseProperties, PhasePoint)
+
+
+def _phases_from_columns(
+    make: type[_PhaseT],
+    temperature: Any,
+    pressure: Any,
+    columns: Any,
+    vapor_density: Any,
+) -> tuple[_PhaseT, _PhaseT]:
+    """Saturated liquid and vapor from the table's rows (see :func:`_exact_columns`), for
+    arrays (``PhaseProperties``) or one state's floats (``PhasePoint``) alike."""
     liquid_density = columns[1]
-    vapor_density = np.exp(columns[2])
-    liquid = PhaseProperties(
+    liquid = make(
         temperature=temperature,
         pressure=pressure,
         density=liquid_density,
@@ -312,7 +320,7 @@ def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> Satura
         specific_entropy=columns[5],
         specific_isobaric_heat_capacity=columns[7],
     )
-    vapor = PhaseProperties(
+    vapor = make(
         temperature=temperature,
         pressure=pressure,
         density=vapor_density,
@@ -320,6 +328,15 @@ def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> Satura
         specific_internal_energy=columns[4] - pressure / vapor_density,
         specific_entropy=columns[6],
         specific_isobaric_heat_capacity=columns[8],
+    )
+    return liquid, vapor
+
+
+def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> SaturationStates:
+    # exp(ln p_c) may round one unit above p_c; the critical pressure is the maximum.
+    pressure = np.minimum(np.exp(columns[0]), CRITICAL_PRESSURE)
+    liquid, vapor = _phases_from_columns(
+        PhaseProperties, temperature, pressure, columns, np.exp(columns[2])
     )
     return SaturationStates(
         temperature=temperature,
@@ -333,25 +350,8 @@ def _states_from_columns(temperature: FloatArray, columns: FloatArray) -> Satura
 def _point_from_columns(temperature: float, columns: list[float]) -> SaturationPoint:
     """:func:`_states_from_columns` for one state, on floats (numpy's exp, as there)."""
     pressure = min(float(np.exp(columns[0])), CRITICAL_PRESSURE)
-    liquid_density = columns[1]
-    vapor_density = float(np.exp(columns[2]))
-    liquid = PhasePoint(
-        temperature=temperature,
-        pressure=pressure,
-        density=liquid_density,
-        specific_enthalpy=columns[3],
-        specific_internal_energy=columns[3] - pressure / liquid_density,
-        specific_entropy=columns[5],
-        specific_isobaric_heat_capacity=columns[7],
-    )
-    vapor = PhasePoint(
-        temperature=temperature,
-        pressure=pressure,
-        density=vapor_density,
-        specific_enthalpy=columns[4],
-        specific_internal_energy=columns[4] - pressure / vapor_density,
-        specific_entropy=columns[6],
-        specific_isobaric_heat_capacity=columns[8],
+    liquid, vapor = _phases_from_columns(
+        PhasePoint, temperature, pressure, columns, float(np.exp(columns[2]))
     )
     return SaturationPoint(
         temperature=temperature,
