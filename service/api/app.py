@@ -163,7 +163,13 @@ def create_app(
     app.include_router(calculations.router)
 
     # Added inner to outer: the last one added sees the request first.
-    app.add_middleware(CsvAdapter, routes=csv_routes, max_rows=settings.max_batch_points)
+    app.add_middleware(
+        CsvAdapter,
+        routes=csv_routes,
+        max_rows=settings.max_batch_points,
+        seconds=settings.max_request_seconds,
+        pending=app.state.pending_computations,
+    )
     app.add_middleware(BodySizeLimit, max_bytes=settings.max_body_bytes)
     app.add_middleware(ApiKeyGuard, keys=[key.get_secret_value() for key in settings.api_keys])
     if settings.cors_origins:

@@ -24,6 +24,7 @@ JSON gets a JSON array of the answers.
 
 from __future__ import annotations
 
+import asyncio
 import csv
 import io
 import math
@@ -35,6 +36,7 @@ from typing import Any
 import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
+from service.api.limits import TimeLimitExceededError, run_within_limit
 from service.api.negotiation import accept_qualities, json_quality
 from service.api.problem_asgi import send_problem
 from service.api.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
@@ -454,18 +456,34 @@ def _with_headers(
 class CsvAdapter:
     """ASGI middleware turning CSV bodies into JSON requests and JSON answers into CSV.
 
+    A CSV request is held to the computation time limit as a whole, however many route
+    calls its rows make (503 at the limit, as one route call would answer).
+
     Parameters
     ----------
     routes
         Which paths speak CSV, and how.
     max_rows
         Most rows one CSV body may hold (413 above; setting TRIPOINT_MAX_BATCH_POINTS).
+    seconds
+        Computation time allowed per request (setting TRIPOINT_MAX_REQUEST_SECONDS).
+    pending
+        Where computations abandoned at the limit are kept for shutdown to wait for.
     """
 
-    def __init__(self, app: ASGIApp, routes: Sequence[CsvRoute], max_rows: int) -> None:
+    def __init__(
+        self,
+        app: ASGIApp,
+        routes: Sequence[CsvRoute],
+        max_rows: int,
+        seconds: float,
+        pending: set[asyncio.Task[Any]],
+    ) -> None:
         self.app = app
         self.routes = tuple(routes)
         self.max_rows = max_rows
+        self.seconds = seconds
+        self.pending = pending
 
     def _route(self, path: str) -> CsvRoute | None:
         return next((route for route in self.routes if route.matches(path)), None)
@@ -481,6 +499,41 @@ class CsvAdapter:
         if not sends_csv and not wants_csv:
             await self.app(scope, receive, send)
             return
+        abandoned = False
+
+        async def send_unless_abandoned(message: Message) -> None:
+            if not abandoned:
+                await send(message)
+
+        try:
+            await run_within_limit(
+                self._convert(scope, receive, send_unless_abandoned, route, sends_csv, wants_csv),
+                seconds=self.seconds,
+                pending=self.pending,
+                path=scope["path"],
+            )
+        except TimeLimitExceededError as late:
+            abandoned = True
+            await send_problem(
+                scope,
+                send,
+                status=late.status,
+                slug=late.slug,
+                title=late.title,
+                detail=late.detail,
+                headers=late.headers,
+            )
+
+    async def _convert(
+        self,
+        scope: Scope,
+        receive: Receive,
+        send: Send,
+        route: CsvRoute,
+        sends_csv: bool,
+        wants_csv: bool,
+    ) -> None:
+        """Run the route for the CSV body (once, or once per row) and answer in kind."""
         if not sends_csv:
             captured = await self._call(scope, receive, None)
             await self._answer(send, [captured], route, wants_csv=True)

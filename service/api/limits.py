@@ -10,19 +10,30 @@ import functools
 import inspect
 import logging
 from collections.abc import Callable, Coroutine
-from typing import Any
+from typing import Any, TypeVar
 
 from fastapi import Request, Response
 from fastapi.routing import APIRoute
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.problem_asgi import send_problem
-from service.api.problems import FieldError, ProblemError, problem_answer
-from service.api.security import is_protected
+from service.api.problems import FieldError, Problem, ProblemError, problem_answer
 
-__all__ = ["BodySizeLimit", "TimeLimitedRoute", "check_batch_size", "document_time_limit"]
+__all__ = [
+    "BodySizeLimit",
+    "TimeLimitExceededError",
+    "TimeLimitedRoute",
+    "check_batch_size",
+    "document_time_limit",
+    "run_within_limit",
+]
 
 _log = logging.getLogger("tripoint.limits")
+_Result = TypeVar("_Result")
+_TIME_LIMIT_ANSWER = (
+    "Computation longer than TRIPOINT_MAX_REQUEST_SECONDS, or the calculation record "
+    "could not be stored (TRIPOINT_STORE_FAILURE_POLICY=fail)."
+)
 
 
 def check_batch_size(count: int, limit: int, *, noun: str, setting: str) -> None:
@@ -115,47 +126,85 @@ class BodySizeLimit:
         )
 
 
+class TimeLimitExceededError(ProblemError):
+    """The 503 answer of a computation that ran past ``TRIPOINT_MAX_REQUEST_SECONDS``."""
+
+    def __init__(self, seconds: float) -> None:
+        super().__init__(
+            503,
+            "time-limit",
+            "Computation took too long",
+            f"The computation did not finish within {seconds:g} s (setting "
+            "TRIPOINT_MAX_REQUEST_SECONDS). Ask for fewer points, or retry later.",
+            headers={"Retry-After": "1"},
+        )
+
+
+async def run_within_limit(
+    work: Coroutine[Any, Any, _Result],
+    *,
+    seconds: float,
+    pending: set[asyncio.Task[Any]],
+    path: str,
+) -> _Result:
+    """Await ``work`` as a task of its own for at most ``seconds``.
+
+    Past the limit the task goes on (a computation in a worker thread cannot be stopped
+    from outside; its result is discarded), is kept in ``pending`` so that shutdown can
+    wait for it, and :class:`TimeLimitExceededError` is raised at once.
+    """
+    task = asyncio.ensure_future(work)
+    done, _ = await asyncio.wait({task}, timeout=seconds)
+    if done:
+        return task.result()
+    pending.add(task)
+    task.add_done_callback(functools.partial(_forget, pending))
+    _log.warning(
+        "computation time limit reached",
+        extra={"fields": {"path": path, "limit_seconds": seconds}},
+    )
+    raise TimeLimitExceededError(seconds)
+
+
 class TimeLimitedRoute(APIRoute):
     """A route whose synchronous endpoint answers 503 (problem+json) past the time limit.
 
     FastAPI runs a synchronous endpoint in a worker thread. Here the whole handler (body,
-    validation, endpoint, response) runs as its own task; when ``TRIPOINT_MAX_REQUEST_SECONDS``
-    is up before it ends, the client gets the 503 at once. A computation in a worker thread
-    cannot be stopped from outside: it runs to its end and its answer is discarded. Such
-    abandoned tasks are kept in ``app.state.pending_computations`` so that shutdown can
-    wait for them.
+    validation, endpoint, response) runs within :func:`run_within_limit`, with
+    ``TRIPOINT_MAX_REQUEST_SECONDS`` and ``app.state.pending_computations``.
 
     An ``async`` endpoint runs on the event loop, where no timer fires while it computes:
     the limit could never interrupt it, and a task, a future and a timer per request would
     cost about 15 microseconds for nothing (profiled). Such endpoints (the one-point GET
-    lookups) are kept short by what they accept, and are not wrapped.
+    lookups) are kept short by what they accept, and are not wrapped (:attr:`limited`).
+    A CSV request that runs a route once per row is held to the limit as a whole by
+    :class:`service.api.csv_io.CsvAdapter`.
     """
+
+    def __init__(self, path: str, endpoint: Callable[..., Any], **options: Any) -> None:
+        if not inspect.iscoroutinefunction(endpoint):
+            # The route that can answer 503 says so; document_time_limit adds the seconds.
+            responses = dict(options.get("responses") or {})
+            responses.setdefault(503, {"model": Problem, **problem_answer(_TIME_LIMIT_ANSWER)})
+            options["responses"] = responses
+        super().__init__(path, endpoint, **options)
+
+    @property
+    def limited(self) -> bool:
+        """Whether this route is held to the time limit (its endpoint is synchronous)."""
+        return not inspect.iscoroutinefunction(self.endpoint)
 
     def get_route_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
         handler = super().get_route_handler()
-        if inspect.iscoroutinefunction(self.endpoint):
+        if not self.limited:
             return handler
 
         async def limited(request: Request) -> Response:
-            seconds: float = request.app.state.settings.max_request_seconds
-            task = asyncio.ensure_future(handler(request))
-            done, _ = await asyncio.wait({task}, timeout=seconds)
-            if done:
-                return task.result()
-            pending: set[asyncio.Task[Any]] = request.app.state.pending_computations
-            pending.add(task)
-            task.add_done_callback(functools.partial(_forget, pending))
-            _log.warning(
-                "computation time limit reached",
-                extra={"fields": {"path": request.url.path, "limit_seconds": seconds}},
-            )
-            raise ProblemError(
-                503,
-                "time-limit",
-                "Computation took too long",
-                f"The computation did not finish within {seconds:g} s (setting "
-                "TRIPOINT_MAX_REQUEST_SECONDS). Ask for fewer points, or retry later.",
-                headers={"Retry-After": "1"},
+            return await run_within_limit(
+                handler(request),
+                seconds=request.app.state.settings.max_request_seconds,
+                pending=request.app.state.pending_computations,
+                path=request.url.path,
             )
 
         return limited
@@ -168,16 +217,13 @@ def _forget(pending: set[asyncio.Task[Any]], task: asyncio.Task[Any]) -> None:
 
 
 def document_time_limit(schema: dict[str, Any], seconds: float) -> None:
-    """Declare the 503 answer on every ``/v1`` operation."""
-    for path, operations in schema.get("paths", {}).items():
-        if not is_protected(path):
-            continue
+    """Put the limit's seconds into the 503 answer the time-limited routes declare."""
+    for operations in schema.get("paths", {}).values():
         for operation in operations.values():
-            operation.setdefault("responses", {}).setdefault(
-                "503",
-                problem_answer(
-                    f"Computation longer than {seconds:g} s (TRIPOINT_MAX_REQUEST_SECONDS), "
-                    "or the calculation record could not be stored "
-                    "(TRIPOINT_STORE_FAILURE_POLICY=fail)."
-                ),
-            )
+            answer = operation.get("responses", {}).get("503")
+            if answer is not None and answer.get("description") == _TIME_LIMIT_ANSWER:
+                answer["description"] = _TIME_LIMIT_ANSWER.replace(
+                    "TRIPOINT_MAX_REQUEST_SECONDS",
+                    f"{seconds:g} s (TRIPOINT_MAX_REQUEST_SECONDS)",
+                    1,
+                )

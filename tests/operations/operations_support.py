@@ -7,6 +7,7 @@ envelope and store it with ``record_calculation``, exactly as a balance route do
 from __future__ import annotations
 
 import threading
+import time
 from collections.abc import Iterator
 from contextlib import contextmanager
 from pathlib import Path
@@ -32,6 +33,7 @@ from service.settings import Settings
 
 __all__ = [
     "KEY",
+    "NAP_SECONDS",
     "OTHER_KEY",
     "POSTGRES_URL",
     "SLOW_RELEASE",
@@ -76,6 +78,17 @@ def recorded(request: Request, body: RecordedCreate) -> Any:
         ),
     }
     return FastJSONResponse(record_calculation(request, "testing.recorded", body, result))
+
+
+NAP_SECONDS = 0.1
+"""How long the napping test route takes per call."""
+
+
+@_router.post("/nap", operation_id="testing_nap")
+def nap(body: RecordedCreate) -> Any:
+    """Take NAP_SECONDS, then answer: a row of a CSV request that is slow only in sum."""
+    time.sleep(NAP_SECONDS)
+    return {"note": body.note}
 
 
 @_router.get("/slow", operation_id="testing_slow")

@@ -11,7 +11,7 @@ from collections.abc import Iterator
 from pathlib import Path
 
 from fastapi.routing import APIRoute
-from operations_support import SLOW_RELEASE, running_client
+from operations_support import NAP_SECONDS, SLOW_RELEASE, running_client
 
 from service.api import routers
 from service.api.limits import TimeLimitedRoute
@@ -36,6 +36,33 @@ def test_overrunning_computation_is_503_at_the_limit(tmp_path: Path) -> None:
     assert elapsed < 2.0, "the 503 comes at the limit, not when the computation ends"
     assert after.status_code == 200
     assert 'route="/v1/testing/slow",status="503"' in metrics
+
+
+def test_csv_request_is_limited_as_a_whole_not_per_row(tmp_path: Path) -> None:
+    # Each row's call takes NAP_SECONDS, well inside the limit; twelve of them do not.
+    rows = 12
+    body = "temperature[degC],note\n" + "".join(f"{20 + row},row {row}\n" for row in range(rows))
+    limit = 0.3
+    assert NAP_SECONDS < limit < rows * NAP_SECONDS / 2
+    with running_client(tmp_path, max_request_seconds=limit) as client:
+        started = time.perf_counter()
+        response = client.post(
+            "/v1/testing/nap", content=body, headers={"content-type": "text/csv"}
+        )
+        elapsed = time.perf_counter() - started
+        time.sleep(rows * NAP_SECONDS)  # let the abandoned rows end before shutdown
+    assert response.status_code == 503
+    assert response.headers["content-type"] == "application/problem+json"
+    assert response.json()["type"] == "urn:tripoint:problem:time-limit"
+    assert elapsed < rows * NAP_SECONDS, "the 503 comes at the limit, not after every row"
+
+
+def test_get_lookups_do_not_document_a_time_limit(tmp_path: Path) -> None:
+    # GET lookups compute on the event loop and are not timed: OpenAPI must not promise a 503.
+    with running_client(tmp_path) as client:
+        schema = client.get("/openapi.json").json()
+    assert "503" not in schema["paths"]["/v1/properties/saturation"]["get"]["responses"]
+    assert "503" in schema["paths"]["/v1/balances/flash-freeze"]["post"]["responses"]
 
 
 def test_fast_requests_are_untouched_by_the_time_limit(tmp_path: Path) -> None:
