@@ -16,7 +16,7 @@ from collections.abc import Callable
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
-from typing import Any
+from typing import Any, Final
 
 import orjson
 from sqlalchemy import (
@@ -141,6 +141,31 @@ def _decode_cursor(cursor: str) -> tuple[datetime, str]:
     return created_at, calculation_id
 
 
+_SQLITE_BUSY_SECONDS: Final = 15.0
+"""How long an SQLite write waits for its turn: in this process's queue, then for the file."""
+
+
+class _WriteQueue:
+    """One writer at a time, each waiting at most ``seconds`` for its turn.
+
+    A writer that does not get its turn in time fails like a busy database, with
+    :class:`StoreUnavailableError`, instead of waiting behind every writer before it.
+    """
+
+    def __init__(self, seconds: float) -> None:
+        self._lock = threading.Lock()
+        self._seconds = seconds
+
+    def __enter__(self) -> None:
+        if not self._lock.acquire(timeout=self._seconds):
+            raise StoreUnavailableError(
+                f"record store busy: no turn to write within {self._seconds:g} s"
+            )
+
+    def __exit__(self, *_: object) -> None:
+        self._lock.release()
+
+
 class RecordStore:
     """Calculation records in an SQL database.
 
@@ -164,7 +189,7 @@ class RecordStore:
         if self.backend == "sqlite":
             if parsed.database:
                 Path(parsed.database).expanduser().parent.mkdir(parents=True, exist_ok=True)
-            options["connect_args"] = {"timeout": 15}
+            options["connect_args"] = {"timeout": _SQLITE_BUSY_SECONDS}
         else:
             # A server restarts and drops pooled connections; a local file does not (a
             # ping per checkout cost 6 % of a balance request on SQLite, profiled).
@@ -185,7 +210,9 @@ class RecordStore:
         # profiled with py-spy under wrk). Other processes (--workers N) still meet the
         # busy timeout. PostgreSQL writes concurrently.
         self._writes: contextlib.AbstractContextManager[Any] = (
-            threading.Lock() if self.backend == "sqlite" else contextlib.nullcontext()
+            _WriteQueue(_SQLITE_BUSY_SECONDS)
+            if self.backend == "sqlite"
+            else contextlib.nullcontext()
         )
 
     # -- schema -----------------------------------------------------------------------

@@ -6,6 +6,8 @@ unreachable server fails them instead of skipping.
 
 from __future__ import annotations
 
+import sqlite3
+import time
 import uuid
 from collections.abc import Iterator
 from concurrent.futures import ThreadPoolExecutor
@@ -24,6 +26,7 @@ from service.records import (
     SchemaVersionError,
     StoreUnavailableError,
 )
+from service.records import store as store_module
 from service.records.tables import schema_version
 
 NOW = datetime(2026, 3, 1, 12, 0, 0, tzinfo=UTC)
@@ -164,6 +167,35 @@ def test_concurrent_writers_lose_no_record(store: RecordStore) -> None:
     stored = store.list_records(limit=200)
     assert {item.calculation_id for item in stored.items} == {r.calculation_id for r in records}
     assert store.prune(NOW - timedelta(seconds=47.5)) == 48
+
+
+def test_sqlite_writers_behind_a_held_lock_fail_in_bounded_time(
+    tmp_path: Path, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    # Another process holds the file's write lock. Queued writers of this process must
+    # each fail after about the busy time, not one busy time after the writer before them.
+    busy = 0.4
+    monkeypatch.setattr(store_module, "_SQLITE_BUSY_SECONDS", busy)
+    path = tmp_path / "records.sqlite3"
+    sqlite_store = RecordStore(f"sqlite:///{path}")
+    sqlite_store.ensure_schema()
+    holder = sqlite3.connect(path, isolation_level=None)
+    holder.execute("BEGIN IMMEDIATE")
+
+    def write(record: CalculationRecord) -> float:
+        started = time.perf_counter()
+        with pytest.raises(StoreUnavailableError):
+            sqlite_store.add(record)
+        return time.perf_counter() - started
+
+    try:
+        with ThreadPoolExecutor(max_workers=4) as pool:
+            waits = list(pool.map(write, [_record() for _ in range(4)]))
+    finally:
+        holder.rollback()
+        holder.close()
+        sqlite_store.close()
+    assert max(waits) < 2.5 * busy, waits
 
 
 def test_schema_is_versioned_and_idempotent(store: RecordStore) -> None:
