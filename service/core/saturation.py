@@ -658,7 +658,8 @@ def saturation_point_by_temperature(
     Raises
     ------
     InvalidInputError, OutOfRangeError, NotConvergedError
-        As :func:`saturation_by_temperature`.
+        As :func:`saturation_by_temperature` for a one-element array (an
+        out-of-range error names ``index=0``).
 
     References
     ----------
@@ -675,7 +676,9 @@ def saturation_point_by_temperature(
         and TRIPLE_POINT_TEMPERATURE <= temperature <= _TABLE_TEMPERATURE_LIMIT
     ):
         return _point_from_columns(temperature, _tables().properties.at_point(temperature))
-    return SaturationPoint.first_of(saturation_by_temperature(temperature, formulation=formulation))
+    # As a one-element array: errors name element 0, as they do for a batch of one.
+    states = saturation_by_temperature(np.atleast_1d(temperature), formulation=formulation)
+    return SaturationPoint.first_of(states)
 
 
 def saturation_by_pressure(

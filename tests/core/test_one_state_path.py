@@ -56,7 +56,8 @@ def test_table_one_point_sum_equals_the_vectorized_sum() -> None:
 
 @pytest.mark.parametrize("bad", [float("nan"), float("inf"), float("-inf")])
 def test_table_one_point_of_a_non_finite_value_is_nan_not_an_exception(bad: float) -> None:
-    # Callers validate first; a table asked anyway answers NaN, as arrays propagate it.
+    # Callers validate first; a table asked anyway answers NaN rather than raising from
+    # floor() (the array path's result for a non-finite point is not defined).
     with np.errstate(invalid="ignore"):
         values = _tables().properties(np.array([bad]))
     assert values.shape == (9, 1)
@@ -76,11 +77,16 @@ def test_one_state_equals_the_array_path(formulation: Formulation) -> None:
 
 @pytest.mark.parametrize("bad", [273.0, 700.0, float("nan"), float("inf")])
 def test_one_state_refuses_what_the_array_path_refuses(bad: float) -> None:
+    # One value reaches the core as a one-element array from the HTTP layer; its errors
+    # name element 0, and the one-state path must say the same.
     with pytest.raises((OutOfRangeError, InvalidInputError)) as array_error:
-        saturation_by_temperature(bad)
+        saturation_by_temperature(np.array([bad]))
     with pytest.raises(type(array_error.value)) as point_error:
         saturation_point_by_temperature(bad)
     assert str(point_error.value) == str(array_error.value)
+    if isinstance(array_error.value, OutOfRangeError):
+        assert isinstance(point_error.value, OutOfRangeError)
+        assert point_error.value.index == array_error.value.index == 0
 
 
 def test_one_state_lookup_states_the_same_as_the_array_lookup() -> None:
