@@ -429,6 +429,24 @@ def _header(scope: Scope, wanted: bytes) -> str | None:
 
 
 @dataclass
+class _Conversion:
+    """One CSV request in progress.
+
+    ``messages`` collects the answer, sent only once the conversion ended within the time
+    limit; ``abandoned`` tells a conversion overtaken by the limit to start no more route
+    calls; ``current`` is the scope of the route call running (its route names the
+    request in metrics and logs).
+    """
+
+    messages: list[Message] = field(default_factory=list)
+    abandoned: bool = False
+    current: Scope | None = None
+
+    async def send(self, message: Message) -> None:
+        self.messages.append(message)
+
+
+@dataclass
 class _Captured:
     status: int = 500
     headers: list[tuple[bytes, bytes]] = field(default_factory=list)
@@ -499,21 +517,18 @@ class CsvAdapter:
         if not sends_csv and not wants_csv:
             await self.app(scope, receive, send)
             return
-        abandoned = False
-
-        async def send_unless_abandoned(message: Message) -> None:
-            if not abandoned:
-                await send(message)
-
+        conversion = _Conversion()
         try:
             await run_within_limit(
-                self._convert(scope, receive, send_unless_abandoned, route, sends_csv, wants_csv),
+                self._convert(scope, receive, conversion, route, sends_csv, wants_csv),
                 seconds=self.seconds,
                 pending=self.pending,
                 path=scope["path"],
             )
         except TimeLimitExceededError as late:
-            abandoned = True
+            conversion.abandoned = True
+            if conversion.current is not None:
+                _copy_route(conversion.current, scope)
             await send_problem(
                 scope,
                 send,
@@ -523,23 +538,30 @@ class CsvAdapter:
                 detail=late.detail,
                 headers=late.headers,
             )
+            return
+        for message in conversion.messages:
+            await send(message)
 
     async def _convert(
         self,
         scope: Scope,
         receive: Receive,
-        send: Send,
+        conversion: _Conversion,
         route: CsvRoute,
         sends_csv: bool,
         wants_csv: bool,
     ) -> None:
-        """Run the route for the CSV body (once, or once per row) and answer in kind."""
+        """Run the route for the CSV body (once, or once per row); collect the answer."""
+        send = conversion.send
         if not sends_csv:
-            captured = await self._call(scope, receive, None)
+            captured = await self._call(scope, receive, None, conversion)
             await self._answer(send, [captured], route, wants_csv=True)
             return
+        text = await _read_body(receive)
+        if text is None or conversion.abandoned:
+            return  # the client left, or the limit passed, before the body was all in
         try:
-            table = parse_csv(await _read_body(receive))
+            table = parse_csv(text)
             if table.rows > self.max_rows:
                 await send_problem(
                     scope,
@@ -577,7 +599,9 @@ class CsvAdapter:
             return
         results = []
         for row, body in enumerate(bodies):
-            captured = await self._call(scope, receive, orjson.dumps(body))
+            if conversion.abandoned:
+                return  # answered 503 already: compute (and store) no more rows
+            captured = await self._call(scope, receive, orjson.dumps(body), conversion)
             if captured.status != 200:
                 if route.one_call_per_row:
                     _mark_row(captured, row)
@@ -586,9 +610,12 @@ class CsvAdapter:
             results.append(captured)
         await self._answer(send, results, route, wants_csv=wants_csv)
 
-    async def _call(self, scope: Scope, receive: Receive, body: bytes | None) -> _Captured:
+    async def _call(
+        self, scope: Scope, receive: Receive, body: bytes | None, conversion: _Conversion
+    ) -> _Captured:
         """Run the route with ``body`` as its JSON body (None: the original body)."""
         inner = dict(scope)
+        conversion.current = inner
         replaced = (b"accept",) if body is None else (b"accept", b"content-type", b"content-length")
         headers = [
             (name, value) for name, value in scope.get("headers", []) if name not in replaced
@@ -619,9 +646,7 @@ class CsvAdapter:
                 captured.body += message.get("body", b"")
 
         await self.app(inner, inner_receive, capture)
-        for key in ("route", "endpoint", "path_params"):
-            if key in inner:
-                scope[key] = inner[key]
+        _copy_route(inner, scope)
         return captured
 
     async def _forward(self, send: Send, captured: _Captured) -> None:
@@ -665,16 +690,23 @@ def _part_of(answer: dict[str, Any], part: str) -> dict[str, Any]:
     return {"calculation_id": calculation_id, **body}
 
 
-async def _read_body(receive: Receive) -> bytes:
+def _copy_route(inner: Scope, scope: Scope) -> None:
+    """Give the request's scope the route the inner call matched (for metrics and logs)."""
+    for key in ("route", "endpoint", "path_params"):
+        if key in inner:
+            scope[key] = inner[key]
+
+
+async def _read_body(receive: Receive) -> bytes | None:
+    """The whole request body; None when the client disconnects before it is all in."""
     chunks = bytearray()
     while True:
         message = await receive()
         if message["type"] == "http.disconnect":
-            break
+            return None
         chunks += message.get("body", b"")
         if not message.get("more_body", False):
-            break
-    return bytes(chunks)
+            return bytes(chunks)
 
 
 def _mark_row(captured: _Captured, row: int) -> None:

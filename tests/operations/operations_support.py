@@ -33,6 +33,7 @@ from service.settings import Settings
 
 __all__ = [
     "KEY",
+    "NAPS",
     "NAP_SECONDS",
     "OTHER_KEY",
     "POSTGRES_URL",
@@ -82,11 +83,14 @@ def recorded(request: Request, body: RecordedCreate) -> Any:
 
 NAP_SECONDS = 0.1
 """How long the napping test route takes per call."""
+NAPS: list[str | None] = []
+"""The notes of the napping route's calls, in order (tests clear it)."""
 
 
 @_router.post("/nap", operation_id="testing_nap")
 def nap(body: RecordedCreate) -> Any:
     """Take NAP_SECONDS, then answer: a row of a CSV request that is slow only in sum."""
+    NAPS.append(body.note)
     time.sleep(NAP_SECONDS)
     return {"note": body.note}
 

@@ -11,7 +11,7 @@ from collections.abc import Iterator
 from pathlib import Path
 
 from fastapi.routing import APIRoute
-from operations_support import NAP_SECONDS, SLOW_RELEASE, running_client
+from operations_support import NAP_SECONDS, NAPS, SLOW_RELEASE, running_client
 
 from service.api import routers
 from service.api.limits import TimeLimitedRoute
@@ -44,17 +44,22 @@ def test_csv_request_is_limited_as_a_whole_not_per_row(tmp_path: Path) -> None:
     body = "temperature[degC],note\n" + "".join(f"{20 + row},row {row}\n" for row in range(rows))
     limit = 0.3
     assert NAP_SECONDS < limit < rows * NAP_SECONDS / 2
+    NAPS.clear()
     with running_client(tmp_path, max_request_seconds=limit) as client:
         started = time.perf_counter()
         response = client.post(
             "/v1/testing/nap", content=body, headers={"content-type": "text/csv"}
         )
         elapsed = time.perf_counter() - started
-        time.sleep(rows * NAP_SECONDS)  # let the abandoned rows end before shutdown
+        time.sleep(rows * NAP_SECONDS)  # time enough for every row, were they still run
+        metrics = client.get("/metrics").text
     assert response.status_code == 503
     assert response.headers["content-type"] == "application/problem+json"
     assert response.json()["type"] == "urn:tripoint:problem:time-limit"
     assert elapsed < rows * NAP_SECONDS, "the 503 comes at the limit, not after every row"
+    # After its 503 the request computes no further rows (each would store a record).
+    assert len(NAPS) <= round(limit / NAP_SECONDS) + 1 < rows, NAPS
+    assert 'route="/v1/testing/nap",status="503"' in metrics
 
 
 def test_get_lookups_do_not_document_a_time_limit(tmp_path: Path) -> None:
