@@ -50,6 +50,7 @@ from service.core.balances.heat_gain import (
     solve_heat_per_evaporated_mass,
 )
 from service.core.balances.scalars import (
+    checked_trap_temperature,
     finite_scalar,
     optional_finite_scalar,
     require_scalar_within,
@@ -480,17 +481,8 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
     prewetting = evaporated / (1.0 - free_fraction)
 
     condenser_load = None
-    trap = optional_finite_scalar(case.trap_temperature, "trap_temperature")
+    trap = checked_trap_temperature(case.trap_temperature, limits["trap_temperature_min"], index)
     if trap is not None:
-        require_scalar_within(
-            trap,
-            "trap_temperature",
-            limits["trap_temperature_min"],
-            TRIPLE_POINT_TEMPERATURE,
-            "K",
-            "the trap collects the vapor as ice",
-            index,
-        )
         trap_ice = ice_vapor_states(np.array([trap])).condensed.specific_enthalpy[0]
         condenser_load = vapor_enthalpy - evaporated * float(trap_ice)
     time = optional_finite_scalar(case.cooling_time, "cooling_time")

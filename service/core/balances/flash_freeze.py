@@ -42,6 +42,7 @@ from service.core.balances.results import (
     Trajectory,
 )
 from service.core.balances.scalars import (
+    checked_trap_temperature,
     finite_scalar,
     optional_finite_scalar,
     require_scalar_within,
@@ -391,17 +392,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
                 "nucleation must happen above the final temperature",
                 index,
             )
-    trap = optional_finite_scalar(case.trap_temperature, "trap_temperature")
-    if trap is not None:
-        require_scalar_within(
-            trap,
-            "trap_temperature",
-            limits["trap_temperature_min"],
-            TRIPLE_POINT_TEMPERATURE,
-            "K",
-            "the trap collects the vapor as ice",
-            index,
-        )
+    trap = checked_trap_temperature(case.trap_temperature, limits["trap_temperature_min"], index)
     gain = case.heat_gain.total() if case.heat_gain is not None else 0.0
     return _Load(
         initial_temperature=initial,

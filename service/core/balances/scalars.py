@@ -14,9 +14,15 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
+from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError
 
-__all__ = ["finite_scalar", "optional_finite_scalar", "require_scalar_within"]
+__all__ = [
+    "checked_trap_temperature",
+    "finite_scalar",
+    "optional_finite_scalar",
+    "require_scalar_within",
+]
 
 
 def finite_scalar(value: ArrayLike, name: str) -> float:
@@ -58,3 +64,22 @@ def require_scalar_within(
     if low or (maximum is not None and number > maximum):
         raise OutOfRangeError(name, number, minimum, maximum, unit, reason, index)
     return number
+
+
+def checked_trap_temperature(
+    value: ArrayLike | None, minimum: float, index: int | None = None
+) -> float | None:
+    """A balance's optional cold-trap temperature, K: from ``minimum`` to the triple point,
+    where the trap collects the vapor as ice; ``None`` when left out."""
+    trap = optional_finite_scalar(value, "trap_temperature")
+    if trap is None:
+        return None
+    return require_scalar_within(
+        trap,
+        "trap_temperature",
+        minimum,
+        TRIPLE_POINT_TEMPERATURE,
+        "K",
+        "the trap collects the vapor as ice",
+        index,
+    )
