@@ -62,6 +62,22 @@ def test_csv_request_is_limited_as_a_whole_not_per_row(tmp_path: Path) -> None:
     assert 'route="/v1/testing/nap",status="503"' in metrics
 
 
+def test_csv_503_before_any_row_ends_is_counted_under_its_route(tmp_path: Path) -> None:
+    # One row that outlasts the limit: the CSV request's own limit fires first (it started
+    # first), before any route call has ended and lent its route to the request.
+    limit = NAP_SECONDS / 2
+    body = "temperature[degC],note\n20,only row\n"
+    with running_client(tmp_path, max_request_seconds=limit) as client:
+        response = client.post(
+            "/v1/testing/nap", content=body, headers={"content-type": "text/csv"}
+        )
+        time.sleep(2 * NAP_SECONDS)  # let the abandoned row end before shutdown
+        metrics = client.get("/metrics").text
+    assert response.status_code == 503
+    assert 'route="/v1/testing/nap",status="503"' in metrics
+    assert 'route="unrouted",status="503"' not in metrics
+
+
 def test_get_lookups_do_not_document_a_time_limit(tmp_path: Path) -> None:
     # GET lookups compute on the event loop and are not timed: OpenAPI must not promise a 503.
     with running_client(tmp_path) as client:
