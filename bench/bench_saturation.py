@@ -25,8 +25,8 @@ from collections.abc import Callable
 
 import numpy as np
 
-from service.core.phase import FloatArray
-from service.core.saturation import saturation_by_temperature
+from service.core.properties.phase import FloatArray
+from service.core.properties.saturation import saturation_by_temperature
 
 POINTS = 10_000
 

@@ -22,8 +22,8 @@ from fastapi.routing import APIRouter
 from starlette.responses import Response
 
 from service.api.app import create_app
-from service.api.limits import TimeLimitedRoute
-from service.api.observability import logging_config
+from service.api.http.limits import TimeLimitedRoute
+from service.api.http.observability import logging_config
 
 ANSWER_VARIABLE = "BENCH_FIXED_ANSWER_FILE"
 """Names the file whose bytes the reference route answers."""

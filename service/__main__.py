@@ -15,7 +15,7 @@ from pathlib import Path
 
 import uvicorn
 
-from service.api.observability import MULTIPROCESS_ENVIRONMENT_VARIABLE, logging_config
+from service.api.http.observability import MULTIPROCESS_ENVIRONMENT_VARIABLE, logging_config
 from service.settings import Settings
 
 

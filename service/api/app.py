@@ -14,26 +14,27 @@ from fastapi.openapi.utils import get_openapi
 from starlette.middleware.cors import CORSMiddleware
 
 from service import __version__
-from service.api.csv_io import CsvAdapter, CsvRoute, document_csv
-from service.api.docs_assets import install_offline_docs
-from service.api.examples import add_examples_to_openapi, default_examples_folder, load_examples
-from service.api.limits import BodySizeLimit, document_time_limit
-from service.api.observability import Metrics, RequestObservation
-from service.api.problems import document_validation_problems, install_problem_handlers
-from service.api.quantities import read_quantity
-from service.api.recording import RecordKeeper
-from service.api.responses import FastJSONResponse
-from service.api.routers import (
-    balances,
-    calculations,
-    health,
-    operations,
-    properties,
-    simulations,
+from service.api.balances import router as balances
+from service.api.calculations import router as calculations
+from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
+from service.api.http.docs_assets import install_offline_docs
+from service.api.http.examples import (
+    add_examples_to_openapi,
+    default_examples_folder,
+    load_examples,
 )
-from service.api.security import ApiKeyGuard, document_security
-from service.api.units import Dimension
-from service.core.lookups import saturation_point_lookup
+from service.api.http.limits import BodySizeLimit, document_time_limit
+from service.api.http.observability import Metrics, RequestObservation
+from service.api.http.problems import document_validation_problems, install_problem_handlers
+from service.api.http.quantities import read_quantity
+from service.api.http.recording import RecordKeeper
+from service.api.http.responses import FastJSONResponse
+from service.api.http.security import ApiKeyGuard, document_security
+from service.api.http.units import Dimension
+from service.api.operations import router as operations
+from service.api.properties import router as properties
+from service.api.simulations import router as simulations
+from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
 
@@ -155,7 +156,6 @@ def create_app(
     )
     install_problem_handlers(app)
     install_offline_docs(app)
-    app.include_router(health.router)
     app.include_router(operations.router)
     app.include_router(properties.router)
     app.include_router(balances.router)

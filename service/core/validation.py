@@ -6,7 +6,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from service.core.errors import InvalidInputError, OutOfRangeError
-from service.core.phase import FloatArray
+from service.core.properties.phase import FloatArray
 
 __all__ = ["broadcast_pair", "finite_array", "require_within"]
 

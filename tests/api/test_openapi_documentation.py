@@ -68,7 +68,7 @@ def test_every_quantity_field_names_its_unit(client: TestClient) -> None:
 
 
 def test_every_get_query_parameter_is_documented(client: TestClient) -> None:
-    # The GET lookups read their query with one model each (service.api.query); OpenAPI
+    # The GET lookups read their query with one model each (service.api.http.query); OpenAPI
     # must still list every parameter, described, with its schema.
     schema = client.get("/openapi.json").json()
     saturation = schema["paths"]["/v1/properties/saturation"]["get"]["parameters"]

@@ -5,7 +5,7 @@ from __future__ import annotations
 import pytest
 from fastapi.testclient import TestClient
 
-from service.api.examples import RequestExample, default_examples_folder, load_examples
+from service.api.http.examples import RequestExample, default_examples_folder, load_examples
 
 EXAMPLES = load_examples(default_examples_folder())
 

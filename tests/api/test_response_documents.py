@@ -9,11 +9,11 @@ import orjson
 import pytest
 from fastapi.testclient import TestClient
 
-from service.api.responses import FastJSONResponse, NonFiniteResultError
-from service.api.shaping import envelope
-from service.api.units import UnitSet
-from service.core.lookups import ReportedUncertainty
-from service.core.sources import IAPWS_95
+from service.api.http.envelope import envelope
+from service.api.http.responses import FastJSONResponse, NonFiniteResultError
+from service.api.http.units import UnitSet
+from service.core.properties.lookups import ReportedUncertainty
+from service.core.properties.sources import IAPWS_95
 
 FINITE: list[tuple[str, Any]] = [
     ("nested", {"a": {"value": 1.5, "unit": "K"}, "b": [1, "x", None, True]}),

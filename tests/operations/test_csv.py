@@ -16,7 +16,7 @@ import pytest
 from fastapi.testclient import TestClient
 from operations_support import running_client
 
-from service.api.csv_io import CsvError, flatten_answers, parse_csv, prefers_csv, render_csv
+from service.api.http.csv_io import CsvError, flatten_answers, parse_csv, prefers_csv, render_csv
 
 CSV_IN = {"content-type": "text/csv"}
 CSV_OUT = {"accept": "text/csv"}

@@ -11,8 +11,8 @@ import pytest
 from fastapi.testclient import TestClient
 from operations_support import KEY, running_client
 
-from service.api.observability import JsonFormatter, logging_config
-from service.api.security import key_id
+from service.api.http.observability import JsonFormatter, logging_config
+from service.api.http.security import key_id
 
 
 @pytest.fixture

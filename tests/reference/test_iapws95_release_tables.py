@@ -20,15 +20,15 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from service.core.constants import CRITICAL_DENSITY, CRITICAL_TEMPERATURE
-from service.core.helmholtz import (
+from service.core.properties.constants import CRITICAL_DENSITY, CRITICAL_TEMPERATURE
+from service.core.properties.helmholtz import (
     fluid_derivatives,
     fluid_properties,
     ideal_gas_part,
     residual_part,
     solve_saturation,
 )
-from service.core.saturation import saturation_by_temperature
+from service.core.properties.saturation import saturation_by_temperature
 
 RELATIVE_TOLERANCE = 5e-9  # nine significant digits, IAPWS R6-95(2018) Tables 6-8
 

@@ -19,8 +19,8 @@ from typing import NamedTuple
 import numpy as np
 import pytest
 
-from service.core.ice import IceGibbsDerivatives, ice_gibbs_derivatives, ice_properties
-from service.core.phase import PhaseProperties
+from service.core.properties.ice import IceGibbsDerivatives, ice_gibbs_derivatives, ice_properties
+from service.core.properties.phase import PhaseProperties
 
 SOURCE = "IAPWS R10-06(2009) Table 6"
 RELATIVE_TOLERANCE = 1e-9

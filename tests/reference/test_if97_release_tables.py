@@ -18,7 +18,7 @@ from __future__ import annotations
 import numpy as np
 import pytest
 
-from service.core.if97 import (
+from service.core.properties.if97 import (
     if97_liquid_properties,
     if97_liquid_speed_of_sound,
     if97_saturation_pressure,

@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import pytest
 
-from service.core.phase_lines import melting_pressure, sublimation_pressure
+from service.core.properties.phase_lines import melting_pressure, sublimation_pressure
 
 SOURCE = "IAPWS R14-08(2011) Table 3"
 

@@ -23,7 +23,7 @@ from __future__ import annotations
 import pytest
 
 from service.core.balances import named_solute, solution_freezing_point
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
 
 
 @pytest.mark.parametrize(

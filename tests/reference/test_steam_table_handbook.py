@@ -12,7 +12,7 @@ from __future__ import annotations
 
 import pytest
 
-from service.core.saturation import saturation_by_temperature
+from service.core.properties.saturation import saturation_by_temperature
 
 # (temperature degC, quantity, value as printed, unit of the last printed digit)
 HANDBOOK = [  # Cengel & Boles, 8th ed. (2015), Table A-4, from memory

@@ -23,7 +23,7 @@ import pytest
 from fastapi.testclient import TestClient
 
 from service.api.app import create_app
-from service.api.examples import default_examples_folder
+from service.api.http.examples import default_examples_folder
 from service.settings import Settings
 
 _MISSING = object()

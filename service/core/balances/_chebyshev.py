@@ -11,7 +11,7 @@ Method: Trefethen, L. N., *Spectral Methods in MATLAB*, SIAM (2000), ch. 6
 (differentiation) and ch. 12 (Clenshaw-Curtis quadrature); here the matrices are
 built once per node count from numpy's Chebyshev series routines.
 
-Not :mod:`service.core.chebyshev`: that module fits piecewise tables on
+Not :mod:`service.core.properties.chebyshev`: that module fits piecewise tables on
 first-kind points (no node at the interval ends) and evaluates them elsewhere; a
 stage needs nodes at both ends (its start and end states) and acts on values at
 the nodes with differentiation and cumulative-integration matrices, which the
@@ -26,7 +26,7 @@ from functools import cache
 import numpy as np
 from numpy.polynomial import chebyshev
 
-from service.core.phase import FloatArray
+from service.core.properties.phase import FloatArray
 
 __all__ = ["ChebyshevInterval", "reference_matrices"]
 

@@ -17,7 +17,7 @@ Vapor over a liquid of water activity a_w: the chemical potential of water is
 the same in both phases, g_vap(T, p) = g_liq(T, p) + R T ln a_w, solved for p by
 Newton's method in ln p (derivative p (v_vap - v_liq)). With a_w = 1 and
 T >= 273.16 K this is the saturation curve, taken from
-:func:`service.core.saturation.saturation_by_temperature` directly.
+:func:`service.core.properties.saturation.saturation_by_temperature` directly.
 
 Ice with solution: g_liq(T, p) + R T ln a_w = g_ice(T, p), so
 ln a_w = (g_ice - g_liq) / (R T) at the sublimation pressure p_sub(T), where the
@@ -39,16 +39,16 @@ from typing import Final
 
 import numpy as np
 
-from service.core.constants import (
+from service.core.errors import NotConvergedError
+from service.core.properties.constants import (
     SPECIFIC_GAS_CONSTANT,
     TRIPLE_POINT_PRESSURE,
     TRIPLE_POINT_TEMPERATURE,
 )
-from service.core.errors import NotConvergedError
-from service.core.helmholtz import fluid_properties_at
-from service.core.phase import FloatArray, PhaseProperties
-from service.core.saturation import saturation_by_temperature
-from service.core.sublimation import sublimation_by_temperature
+from service.core.properties.helmholtz import fluid_properties_at
+from service.core.properties.phase import FloatArray, PhaseProperties
+from service.core.properties.saturation import saturation_by_temperature
+from service.core.properties.sublimation import sublimation_by_temperature
 
 __all__ = [
     "FreezingSolutionStates",

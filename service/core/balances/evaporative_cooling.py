@@ -36,7 +36,6 @@ from typing import Final, Literal
 import numpy as np
 from numpy.typing import ArrayLike
 
-from service.core.advisories import Advisory
 from service.core.balances.companions import Companion, checked_heat_capacity
 from service.core.balances.equilibrium_paths import ice_vapor_states, liquid_vapor_states
 from service.core.balances.food_composition import (
@@ -63,10 +62,16 @@ from service.core.balances.solution_freezing import (
 )
 from service.core.balances.stages import DEGREE, interval_of, solve_linear_mass
 from service.core.balances.sweeps import expand_case
-from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
-from service.core.phase import FloatArray
-from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, PropertySource
+from service.core.properties.advisories import Advisory
+from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
+from service.core.properties.phase import FloatArray
+from service.core.properties.sources import (
+    IAPWS_95,
+    ICE_IH,
+    MELTING_AND_SUBLIMATION,
+    PropertySource,
+)
 
 __all__ = [
     "ESTIMATED_FREEZING_POINT_METHOD",

@@ -21,7 +21,6 @@ import numpy as np
 from numpy.typing import ArrayLike
 from scipy.optimize import brentq
 
-from service.core.advisories import Advisory
 from service.core.balances.companions import Companion, checked_heat_capacity
 from service.core.balances.equilibrium_paths import (
     FreezingSolutionStates,
@@ -67,10 +66,16 @@ from service.core.balances.stages import (
     single_phase_stage,
 )
 from service.core.balances.sweeps import expand_case
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, NotConvergedError, OutOfRangeError
-from service.core.phase import FloatArray, PhaseProperties
-from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, PropertySource
+from service.core.properties.advisories import Advisory
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.properties.phase import FloatArray, PhaseProperties
+from service.core.properties.sources import (
+    IAPWS_95,
+    ICE_IH,
+    MELTING_AND_SUBLIMATION,
+    PropertySource,
+)
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",

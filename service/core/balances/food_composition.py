@@ -40,7 +40,7 @@ import numpy as np
 from numpy.typing import ArrayLike
 
 from service.core.errors import InvalidInputError
-from service.core.phase import FloatArray
+from service.core.properties.phase import FloatArray
 
 __all__ = ["CHOI_OKOS_REFERENCE", "Composition", "solids_specific_heat"]
 

@@ -11,7 +11,7 @@ from dataclasses import dataclass
 import numpy as np
 from numpy.typing import NDArray
 
-from service.core.phase import FloatArray
+from service.core.properties.phase import FloatArray
 
 __all__ = ["EnergyBalance", "MethodComparison", "StageResult", "Trajectory"]
 

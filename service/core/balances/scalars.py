@@ -14,8 +14,8 @@ import math
 import numpy as np
 from numpy.typing import ArrayLike
 
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
 
 __all__ = [
     "checked_trap_temperature",

@@ -37,8 +37,8 @@ from typing import Final
 import numpy as np
 from numpy.typing import ArrayLike
 
-from service.core.constants import MOLAR_MASS
 from service.core.errors import InvalidInputError
+from service.core.properties.constants import MOLAR_MASS
 
 __all__ = [
     "NAMED_SOLUTES",

@@ -36,9 +36,13 @@ from numpy.typing import ArrayLike
 
 from service.core.balances.equilibrium_paths import freezing_solution_states
 from service.core.balances.solutes import Solute
-from service.core.constants import MOLAR_MASS, SPECIFIC_GAS_CONSTANT, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import NotConvergedError, OutOfRangeError
-from service.core.phase import FloatArray
+from service.core.properties.constants import (
+    MOLAR_MASS,
+    SPECIFIC_GAS_CONSTANT,
+    TRIPLE_POINT_TEMPERATURE,
+)
+from service.core.properties.phase import FloatArray
 from service.core.validation import finite_array, require_within
 
 __all__ = [

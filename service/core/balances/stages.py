@@ -36,9 +36,9 @@ import numpy as np
 
 from service.core.balances._chebyshev import ChebyshevInterval
 from service.core.balances.equilibrium_paths import FreezingSolutionStates, LiquidVaporStates
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import UnsupportedStateError
-from service.core.phase import FloatArray, PhaseProperties
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.properties.phase import FloatArray, PhaseProperties
 
 __all__ = [
     "DEGREE",

@@ -10,7 +10,7 @@ Two contributions, reported separately:
    Both perturbed cases of an input are solved together as a two-element sweep.
 
 2. Property formulations' own uncertainty, from their stated relative
-   uncertainties (:func:`service.core.uncertainty.stated_uncertainty`, which states
+   uncertainties (:func:`service.core.properties.uncertainty.stated_uncertainty`, which states
    expanded k = 2 values; halved here to standard uncertainties). Each stage's
    evaporated mass scales, to first order, as (heat to remove) / (latent heat):
    liquid cooling with liquid heat capacity / enthalpy of vaporization, freezing
@@ -33,8 +33,8 @@ from numpy.typing import ArrayLike
 
 from service.core.balances.sweeps import field_value, replace_field
 from service.core.errors import InvalidInputError, OutOfRangeError, TripointError
-from service.core.phase import FloatArray
-from service.core.uncertainty import StatedUncertainty, stated_uncertainty
+from service.core.properties.phase import FloatArray
+from service.core.properties.uncertainty import StatedUncertainty, stated_uncertainty
 
 __all__ = [
     "INPUT_METHOD",

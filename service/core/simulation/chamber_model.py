@@ -53,8 +53,8 @@ from typing import Final, Literal, NamedTuple
 
 import numpy as np
 
-from service.core.constants import SPECIFIC_GAS_CONSTANT
-from service.core.phase import FloatArray
+from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
+from service.core.properties.phase import FloatArray
 from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.evaporation import KineticEvaporation
 from service.core.simulation.inputs import HeatGainRate

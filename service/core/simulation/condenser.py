@@ -31,7 +31,7 @@ from __future__ import annotations
 import numpy as np
 
 from service.core.balances.equilibrium_paths import ice_vapor_states
-from service.core.constants import SPECIFIC_GAS_CONSTANT
+from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 from service.core.simulation.inputs import Condenser
 
 __all__ = ["CondenserCapture"]

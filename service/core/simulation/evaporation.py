@@ -23,7 +23,7 @@ from __future__ import annotations
 
 import math
 
-from service.core.constants import SPECIFIC_GAS_CONSTANT
+from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 
 __all__ = ["KineticEvaporation"]
 

@@ -14,8 +14,8 @@ from service.core.balances.companions import Companion
 from service.core.balances.food_composition import Composition
 from service.core.balances.scalars import finite_scalar, require_scalar_within
 from service.core.balances.solutes import Solute
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
     LIQUID_TEMPERATURE_MAX,

@@ -26,8 +26,8 @@ import numpy as np
 from service.core.balances.companions import Companion, heat_capacity
 from service.core.balances.food_composition import solids_specific_heat
 from service.core.balances.scalars import require_scalar_within
-from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.simulation.inputs import Product
 from service.core.simulation.path_tables import LIQUID_TEMPERATURE_MIN, path_tables
 from service.core.simulation.product_state import ProductThermodynamics

@@ -4,7 +4,7 @@ The process simulation evaluates a handful of properties of a scalar state thous
 of times (every right-hand-side call of the ODE solver). Calling the vectorized
 property core for one point costs tens of microseconds of numpy overhead per call,
 so the paths are fitted once (per process) by piecewise Chebyshev interpolation
-(:func:`service.core.chebyshev.fit_piecewise_chebyshev`) to the balances' own
+(:func:`service.core.properties.chebyshev.fit_piecewise_chebyshev`) to the balances' own
 equilibrium states (:mod:`service.core.balances.equilibrium_paths`), and the series
 are summed here in plain Python floats.
 
@@ -44,9 +44,9 @@ from service.core.balances.equilibrium_paths import (
     ice_vapor_states,
     liquid_vapor_states,
 )
-from service.core.chebyshev import PiecewiseChebyshev, fit_piecewise_chebyshev
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
-from service.core.phase import FloatArray
+from service.core.properties.chebyshev import PiecewiseChebyshev, fit_piecewise_chebyshev
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.properties.phase import FloatArray
 
 __all__ = [
     "ICE_TEMPERATURE_MIN",

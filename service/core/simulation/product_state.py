@@ -39,8 +39,8 @@ import math
 from collections.abc import Callable
 from typing import Final, NamedTuple
 
-from service.core.constants import TRIPLE_POINT_PRESSURE, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import NotConvergedError
+from service.core.properties.constants import TRIPLE_POINT_PRESSURE, TRIPLE_POINT_TEMPERATURE
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
     LIQUID_TEMPERATURE_MAX,

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
-from service.core.advisories import Advisory
-from service.core.lookups import ReportedUncertainty
-from service.core.phase import FloatArray
-from service.core.sources import PropertySource
+from service.core.properties.advisories import Advisory
+from service.core.properties.lookups import ReportedUncertainty
+from service.core.properties.phase import FloatArray
+from service.core.properties.sources import PropertySource
 
 __all__ = [
     "ChamberStates",

@@ -16,12 +16,13 @@ from typing import Any, Final
 import numpy as np
 from scipy.integrate import solve_ivp
 
-from service.core.advisories import Advisory
-from service.core.constants import SPECIFIC_GAS_CONSTANT
 from service.core.errors import NotConvergedError, UnsupportedStateError
-from service.core.helmholtz import fluid_properties_at
-from service.core.lookups import path_uncertainties
-from service.core.phase import FloatArray
+from service.core.properties.advisories import Advisory
+from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
+from service.core.properties.helmholtz import fluid_properties_at
+from service.core.properties.lookups import path_uncertainties
+from service.core.properties.phase import FloatArray
+from service.core.properties.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION
 from service.core.simulation.chamber_model import (
     AIR,
     CONDENSED,
@@ -54,7 +55,6 @@ from service.core.simulation.results import (
     SimulationSummary,
     VacuumChamberResult,
 )
-from service.core.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION
 
 __all__ = ["REFERENCES", "simulate_vacuum_chamber"]
 

@@ -1,7 +1,7 @@
 """Uncertainty propagation of the balances.
 
 Sources: the linear law of propagation (GUM, JCGM 100:2008, Sec. 5.1.2); the property
-statements come from service.core.uncertainty (IAPWS releases; see each statement's
+statements come from service.core.properties.uncertainty (IAPWS releases; see each statement's
 basis, several "from memory").
 """
 

@@ -28,8 +28,8 @@ from service.core.balances.evaporative_cooling import (
     evaporative_cooling,
 )
 from service.core.balances.solution_freezing import LOWEST_FREEZING_TEMPERATURE
-from service.core.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
+from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
 
 # ASHRAE Handbook - Refrigeration (2006), ch. 9, Table 3, strawberries (from memory)
 STRAWBERRIES = Composition(

@@ -27,8 +27,8 @@ from service.core.balances.solution_freezing import (
     solution_freezing_point,
     solution_log_water_activity,
 )
-from service.core.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 
 _GAS_CONSTANT = 0.46151805  # kJ/(kg K), IAPWS R6-95(2018) eq. (6.3), iapws units
 _FLUID = IAPWS95()

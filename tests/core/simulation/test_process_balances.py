@@ -198,7 +198,7 @@ def test_events_are_ordered_and_schedule_checked() -> None:
 def test_condenser_heat_per_kilogram_matches_iapws() -> None:
     # h_vapor(293.15 K, 100 Pa) - h_ice(233.15 K, p_sub): iapws 1.5.5 IAPWS95 class and
     # _Ice (R10-06), both with the IAPWS reference state.
-    from service.core.helmholtz import fluid_properties_at
+    from service.core.properties.helmholtz import fluid_properties_at
 
     vapor = float(fluid_properties_at(293.15, 100.0, phase="vapor").specific_enthalpy)
     capture = CondenserCapture(Condenser(233.15, 1.0), 293.15, vapor)

@@ -1,0 +1,1 @@
+"""Balances: flash-freeze and evaporative cooling."""

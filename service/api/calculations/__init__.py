@@ -1,0 +1,1 @@
+"""Calculation records: listing and reading what the balances and simulations stored."""

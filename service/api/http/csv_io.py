@@ -1,0 +1,761 @@
+"""CSV for LIMS: ``text/csv`` request bodies in, ``text/csv`` answers out, for any route.
+
+Requests. The header names the fields, with the unit in brackets: ``temperature[degC]``,
+``pressure[kPa]``; a dotted name (``food.water_fraction``) nests. One case per row. A
+route is adapted in one of two ways (:class:`CsvRoute`):
+
+- *batch* (``one_call_per_row=False``): the route takes arrays, so one JSON body is made
+  in which every unit column becomes ``{"values": [...], "unit": ...}``, a unitless
+  numeric column ``{"values": [...]}`` (the field's default unit), and a text column
+  (``output_units``, ``formulation``) must hold one value for every row;
+- *per row* (``one_call_per_row=True``): the route takes single values, so it is called
+  once per row with ``{"value": x, "unit": ...}`` per unit column, numbers and text as
+  they are, and empty cells left out. A failing row stops the request with that row's
+  problem document (its ``index`` is the row, counted from 0).
+
+Answers. With ``Accept: text/csv`` the JSON answer is flattened: a quantity becomes a
+column named ``path[unit]`` (``liquid.density[kg/m3]``); a batch array gives one row per
+element and single values repeat on every row; ``warnings`` lists on each row the warnings
+that apply to it. Lists of objects (stages, sources) keep one column per field with the
+items joined by `` | ``; an array that is not the batch (a trajectory) is joined by ``; ``
+in one cell. Problems stay ``application/problem+json``. A per-row CSV request asked for
+JSON gets a JSON array of the answers.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import csv
+import io
+import math
+import re
+from collections.abc import Sequence
+from dataclasses import dataclass, field
+from typing import Any
+
+import orjson
+from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+from service.api.http.limits import TimeLimitExceededError, run_within_limit
+from service.api.http.negotiation import accept_qualities, json_quality
+from service.api.http.problem_asgi import send_problem
+from service.api.http.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
+
+__all__ = [
+    "CSV_MEDIA_TYPE",
+    "CsvAdapter",
+    "CsvError",
+    "CsvRoute",
+    "CsvTable",
+    "document_csv",
+    "flatten_answers",
+    "parse_csv",
+    "prefers_csv",
+    "render_csv",
+]
+
+CSV_MEDIA_TYPE = "text/csv"
+_CSV_RESPONSE_TYPE = "text/csv; charset=utf-8; header=present"
+_HEADER = re.compile(
+    r"^(?P<path>[A-Za-z_][A-Za-z0-9_]*(?:\.[A-Za-z_][A-Za-z0-9_]*)*)\s*(?:\[(?P<unit>[^\]]*)\])?$"
+)
+_NUMBER = re.compile(r"^[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?$")
+_INTEGER = re.compile(r"^[-+]?\d+$")
+_JOINED_LISTS = frozenset({"assumptions"})
+_ENVELOPE_ORDER = (
+    "warnings",
+    "meta",
+    "property_sources",
+    "uncertainty",
+    "assumptions",
+    "reference_state",
+)
+"""Envelope fields go after the results, in this order."""
+_JOIN = " | "
+"""Between the items of a list (stages, sources, warnings) in one cell."""
+_ARRAY_JOIN = "; "
+"""Between the numbers of an array that is not spread over rows (a trajectory)."""
+
+
+@dataclass(frozen=True)
+class CsvRoute:
+    """Routes under ``prefix`` speak CSV; ``one_call_per_row`` when they take single values."""
+
+    prefix: str
+    one_call_per_row: bool = False
+    answer_part: str | None = None
+    """With ``Accept: text/csv``, flatten only this member of each JSON answer (e.g. a
+    simulation's ``series``, one row per time step) instead of the whole answer."""
+
+    def matches(self, path: str) -> bool:
+        """Whether ``path`` is one of these routes."""
+        return path.startswith(self.prefix)
+
+
+class CsvError(ValueError):
+    """A CSV body that cannot be turned into a request (400 malformed, 422 unreadable)."""
+
+    def __init__(
+        self,
+        status: int,
+        detail: str,
+        *,
+        column: str = "body",
+        row: int | None = None,
+        value: str | None = None,
+    ) -> None:
+        super().__init__(detail)
+        self.status = status
+        self.detail = detail
+        self.column = column
+        self.row = row
+        self.value = value
+
+
+@dataclass(frozen=True)
+class _Column:
+    name: str
+    path: tuple[str, ...]
+    unit: str | None
+    has_unit: bool
+    cells: list[str]
+
+
+@dataclass(frozen=True)
+class CsvTable:
+    """A parsed CSV body: its columns and number of rows."""
+
+    columns: list[_Column]
+    rows: int
+
+    def batch_body(self) -> dict[str, Any]:
+        """One JSON body with every column as a batch (see the module docstring)."""
+        body: dict[str, Any] = {}
+        for column in self.columns:
+            filled = [cell for cell in column.cells if cell != ""]
+            if not filled:
+                continue
+            numeric = all(_NUMBER.match(cell) for cell in filled)
+            if column.has_unit or numeric:
+                if len(filled) != self.rows:
+                    row = next(i for i, cell in enumerate(column.cells) if cell == "")
+                    raise CsvError(
+                        422,
+                        f"column {column.name!r} has no value in row {row + 1}",
+                        column=column.name,
+                        row=row,
+                    )
+                values = [_number(cell, column.name, row) for row, cell in enumerate(column.cells)]
+                quantity: dict[str, Any] = {"values": values}
+                if column.unit:
+                    quantity["unit"] = column.unit
+                _put(body, column, quantity)
+                continue
+            distinct = set(column.cells)
+            if len(distinct) != 1:
+                raise CsvError(
+                    422,
+                    f"column {column.name!r} holds text that differs between rows; in this "
+                    "request it must hold one value for every row",
+                    column=column.name,
+                )
+            _put(body, column, column.cells[0])
+        return body
+
+    def row_bodies(self) -> list[dict[str, Any]]:
+        """One JSON body per row, single values (see the module docstring)."""
+        bodies: list[dict[str, Any]] = []
+        for row in range(self.rows):
+            body: dict[str, Any] = {}
+            for column in self.columns:
+                cell = column.cells[row]
+                if cell == "":
+                    continue
+                if column.has_unit:
+                    quantity: dict[str, Any] = {"value": _number(cell, column.name, row)}
+                    if column.unit:
+                        quantity["unit"] = column.unit
+                    _put(body, column, quantity)
+                elif _INTEGER.match(cell):
+                    _put(body, column, int(cell))
+                elif _NUMBER.match(cell):
+                    _put(body, column, _number(cell, column.name, row))
+                else:
+                    _put(body, column, cell)
+            bodies.append(body)
+        return bodies
+
+
+def _number(cell: str, column: str, row: int) -> float:
+    if not _NUMBER.match(cell):
+        raise CsvError(
+            422,
+            f"column {column!r}, row {row + 1}: {cell!r} is not a number",
+            column=column,
+            row=row,
+            value=cell,
+        )
+    value = float(cell)
+    if not math.isfinite(value):
+        raise CsvError(
+            422,
+            f"column {column!r}, row {row + 1}: {cell!r} is too large",
+            column=column,
+            row=row,
+            value=cell,
+        )
+    return value
+
+
+def _put(body: dict[str, Any], column: _Column, value: Any) -> None:
+    node = body
+    for part in column.path[:-1]:
+        child = node.setdefault(part, {})
+        if not isinstance(child, dict):
+            raise CsvError(400, f"column {column.name!r} nests under a column that holds a value")
+        node = child
+    if column.path[-1] in node:
+        raise CsvError(400, f"column {column.name!r} clashes with another column")
+    node[column.path[-1]] = value
+
+
+def parse_csv(data: bytes) -> CsvTable:
+    """Read a CSV body: UTF-8 (a byte-order mark is fine), comma-separated, header first.
+
+    Raises
+    ------
+    CsvError
+        400 for a malformed table (encoding, header, ragged rows), 422 for no rows.
+    """
+    try:
+        text = data.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        raise CsvError(400, "the CSV body is not UTF-8 text") from None
+    try:
+        lines = [line for line in csv.reader(io.StringIO(text, newline="")) if any(line)]
+    except csv.Error as error:
+        raise CsvError(400, f"the CSV body cannot be read: {error}") from None
+    if not lines:
+        raise CsvError(400, "the CSV body is empty: it needs a header row and one row per case")
+    header, rows = lines[0], lines[1:]
+    parsed: list[tuple[str, tuple[str, ...], str | None, bool]] = []
+    for name in (cell.strip() for cell in header):
+        match = _HEADER.match(name)
+        if match is None:
+            raise CsvError(
+                400,
+                f"header {name!r} is not a field name with an optional [unit], "
+                "e.g. temperature[degC]",
+                column=name,
+            )
+        unit = match.group("unit")
+        parsed.append(
+            (
+                name,
+                tuple(match.group("path").split(".")),
+                (unit.strip() or None) if unit is not None else None,
+                unit is not None,
+            )
+        )
+    paths = [path for _, path, _, _ in parsed]
+    if len(set(paths)) != len(paths):
+        raise CsvError(400, "the header names a field twice")
+    if not rows:
+        raise CsvError(422, "the CSV body has a header but no rows")
+    for number, row in enumerate(rows, start=1):
+        if len(row) != len(header):
+            raise CsvError(
+                400,
+                f"row {number} has {len(row)} cells; the header has {len(header)}",
+                row=number - 1,
+            )
+    columns = [
+        _Column(name, path, unit, has_unit, [row[index].strip() for row in rows])
+        for index, (name, path, unit, has_unit) in enumerate(parsed)
+    ]
+    return CsvTable(columns=columns, rows=len(rows))
+
+
+# -- answers -> CSV ----------------------------------------------------------------------
+
+
+def _cell(value: Any) -> str:
+    if value is None:
+        return ""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, float):
+        return repr(value)
+    if isinstance(value, int | str):
+        return str(value)
+    return orjson.dumps(value).decode()
+
+
+def _is_quantity(node: dict[str, Any]) -> bool:
+    return (
+        "unit" in node
+        and ("value" in node or "values" in node)
+        and set(node) <= {"value", "values", "unit", "uncertainty"}
+    )
+
+
+@dataclass
+class _Flat:
+    """Columns of one answer: a per-row list or one value for every row."""
+
+    rows: int
+    columns: dict[str, list[str] | str] = field(default_factory=dict)
+
+    def add(self, name: str, value: list[Any] | Any) -> None:
+        if isinstance(value, list):
+            if len(value) == self.rows and self.rows > 1:
+                self.columns[name] = [_cell(item) for item in value]
+            else:
+                self.columns[name] = _ARRAY_JOIN.join(_cell(item) for item in value)
+        else:
+            self.columns[name] = _cell(value)
+
+
+def _rows_of(node: Any) -> int:
+    """Number of rows an answer spans: the length of its batch arrays (1 if none)."""
+    longest = 1
+    stack = [node]
+    while stack:
+        item = stack.pop()
+        if isinstance(item, dict):
+            values = item.get("values")
+            if _is_quantity(item) and isinstance(values, list):
+                longest = max(longest, len(values))
+            else:
+                stack.extend(item.values())
+    return longest
+
+
+def _warnings_by_row(warnings: list[Any], rows: int) -> list[str]:
+    cells = []
+    for row in range(rows):
+        applying = [
+            f"{warning.get('code')}: {warning.get('message')}"
+            for warning in warnings
+            if isinstance(warning, dict)
+            and (warning.get("indices") is None or row in warning.get("indices", []))
+        ]
+        cells.append(_JOIN.join(applying))
+    return cells
+
+
+def _walk(node: Any, path: str, flat: _Flat) -> None:
+    if isinstance(node, dict):
+        if _is_quantity(node):
+            name = f"{path}[{node['unit']}]"
+            values = node.get("values")
+            flat.add(name, values if isinstance(values, list) else node.get("value"))
+            return
+        for key, child in node.items():
+            _walk(child, f"{path}.{key}" if path else str(key), flat)
+    elif isinstance(node, list):
+        if path == "warnings":
+            cells = _warnings_by_row(node, flat.rows)
+            flat.add(path, cells if flat.rows > 1 else cells[0])
+        elif node and all(isinstance(item, dict) for item in node):
+            # Each item flattened on its own (quantities keep their [unit] columns), then
+            # the items' cells joined: stages.end_temperature[degC] = "0.01 | -10.0".
+            parts = []
+            for item in node:
+                part = _Flat(rows=1)
+                _walk(item, path, part)
+                parts.append(part)
+            names = list(dict.fromkeys(name for part in parts for name in part.columns))
+            for name in names:
+                flat.columns[name] = _JOIN.join(str(part.columns.get(name, "")) for part in parts)
+        elif path in _JOINED_LISTS:
+            flat.columns[path] = _JOIN.join(_cell(item) for item in node)
+        else:
+            flat.add(path, node)
+    else:
+        flat.add(path, node)
+
+
+def flatten_answers(answers: Sequence[dict[str, Any]]) -> tuple[list[str], list[list[str]]]:
+    """Header and rows for JSON answers: each answer gives its batch rows (or one row).
+
+    Columns appear in the order the answers first name them; a column an answer lacks is
+    empty on its rows.
+    """
+    flats = []
+    for answer in answers:
+        flat = _Flat(rows=_rows_of(answer))
+        results = {key: value for key, value in answer.items() if key not in _ENVELOPE_ORDER}
+        envelope = {key: answer[key] for key in _ENVELOPE_ORDER if key in answer}
+        _walk(results, "", flat)
+        _walk(envelope, "", flat)
+        flats.append(flat)
+    header = list(dict.fromkeys(name for flat in flats for name in flat.columns))
+    rows: list[list[str]] = []
+    for flat in flats:
+        for row in range(flat.rows):
+            line = []
+            for name in header:
+                value = flat.columns.get(name, "")
+                line.append(value[row] if isinstance(value, list) else value)
+            rows.append(line)
+    return header, rows
+
+
+def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
+    """RFC 4180 text: CRLF line ends, quotes where needed, UTF-8."""
+    buffer = io.StringIO()
+    writer = csv.writer(buffer, lineterminator="\r\n")
+    writer.writerow(header)
+    writer.writerows(rows)
+    return buffer.getvalue().encode()
+
+
+def prefers_csv(accept: str | None) -> bool:
+    """Whether an ``Accept`` header names ``text/csv`` at least as high as JSON."""
+    qualities = accept_qualities(accept)
+    csv_quality = qualities.get(CSV_MEDIA_TYPE, 0.0)
+    return csv_quality > 0 and csv_quality >= json_quality(qualities)
+
+
+# -- the middleware ----------------------------------------------------------------------
+
+
+def _header(scope: Scope, wanted: bytes) -> str | None:
+    for name, value in scope.get("headers", []):
+        if name == wanted:
+            return bytes(value).decode("latin-1")
+    return None
+
+
+@dataclass
+class _Conversion:
+    """One CSV request in progress.
+
+    ``messages`` collects the answer, sent only once the conversion ended within the time
+    limit; ``abandoned`` tells a conversion overtaken by the limit to start no more route
+    calls; ``current`` is the scope of the route call running (its route names the
+    request in metrics and logs).
+    """
+
+    messages: list[Message] = field(default_factory=list)
+    abandoned: bool = False
+    current: Scope | None = None
+
+    async def send(self, message: Message) -> None:
+        self.messages.append(message)
+
+
+@dataclass
+class _Captured:
+    status: int = 500
+    headers: list[tuple[bytes, bytes]] = field(default_factory=list)
+    body: bytearray = field(default_factory=bytearray)
+
+    @property
+    def media_type(self) -> str:
+        for name, value in self.headers:
+            if name.lower() == b"content-type":
+                return value.decode("latin-1").split(";")[0].strip().lower()
+        return ""
+
+
+def _with_headers(
+    headers: list[tuple[bytes, bytes]], content_type: str, length: int
+) -> list[tuple[bytes, bytes]]:
+    kept = [(n, v) for n, v in headers if n.lower() not in (b"content-type", b"content-length")]
+    return [
+        *kept,
+        (b"content-type", content_type.encode()),
+        (b"content-length", str(length).encode()),
+    ]
+
+
+class CsvAdapter:
+    """ASGI middleware turning CSV bodies into JSON requests and JSON answers into CSV.
+
+    A CSV request is held to the computation time limit as a whole, however many route
+    calls its rows make (503 at the limit, as one route call would answer).
+
+    Parameters
+    ----------
+    routes
+        Which paths speak CSV, and how.
+    max_rows
+        Most rows one CSV body may hold (413 above; setting TRIPOINT_MAX_BATCH_POINTS).
+    seconds
+        Computation time allowed per request (setting TRIPOINT_MAX_REQUEST_SECONDS).
+    pending
+        Where computations abandoned at the limit are kept for shutdown to wait for.
+    """
+
+    def __init__(
+        self,
+        app: ASGIApp,
+        routes: Sequence[CsvRoute],
+        max_rows: int,
+        seconds: float,
+        pending: set[asyncio.Task[Any]],
+    ) -> None:
+        self.app = app
+        self.routes = tuple(routes)
+        self.max_rows = max_rows
+        self.seconds = seconds
+        self.pending = pending
+
+    def _route(self, path: str) -> CsvRoute | None:
+        return next((route for route in self.routes if route.matches(path)), None)
+
+    async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
+        route = self._route(scope.get("path", "")) if scope["type"] == "http" else None
+        if route is None:
+            await self.app(scope, receive, send)
+            return
+        content_type = (_header(scope, b"content-type") or "").split(";")[0].strip().lower()
+        sends_csv = scope.get("method") == "POST" and content_type == CSV_MEDIA_TYPE
+        wants_csv = prefers_csv(_header(scope, b"accept"))
+        if not sends_csv and not wants_csv:
+            await self.app(scope, receive, send)
+            return
+        conversion = _Conversion()
+        try:
+            await run_within_limit(
+                self._convert(scope, receive, conversion, route, sends_csv, wants_csv),
+                seconds=self.seconds,
+                pending=self.pending,
+                path=scope["path"],
+            )
+        except TimeLimitExceededError as late:
+            conversion.abandoned = True
+            if conversion.current is not None:
+                _copy_route(conversion.current, scope)
+            await send_problem(
+                scope,
+                send,
+                status=late.status,
+                slug=late.slug,
+                title=late.title,
+                detail=late.detail,
+                headers=late.headers,
+            )
+            return
+        for message in conversion.messages:
+            await send(message)
+
+    async def _convert(
+        self,
+        scope: Scope,
+        receive: Receive,
+        conversion: _Conversion,
+        route: CsvRoute,
+        sends_csv: bool,
+        wants_csv: bool,
+    ) -> None:
+        """Run the route for the CSV body (once, or once per row); collect the answer."""
+        send = conversion.send
+        if not sends_csv:
+            captured = await self._call(scope, receive, None, conversion)
+            await self._answer(send, [captured], route, wants_csv=True)
+            return
+        text = await _read_body(receive)
+        if text is None or conversion.abandoned:
+            return  # the client left, or the limit passed, before the body was all in
+        try:
+            table = parse_csv(text)
+            if table.rows > self.max_rows:
+                await send_problem(
+                    scope,
+                    send,
+                    status=413,
+                    slug="too-many-points",
+                    title="Batch too large",
+                    detail=f"The CSV body has {table.rows} rows; the limit is {self.max_rows} "
+                    "(setting TRIPOINT_MAX_BATCH_POINTS).",
+                    errors=[
+                        FieldError(
+                            field="body",
+                            message="too many rows",
+                            value=table.rows,
+                            maximum=self.max_rows,
+                        )
+                    ],
+                )
+                return
+            bodies = table.row_bodies() if route.one_call_per_row else [table.batch_body()]
+        except CsvError as error:
+            await send_problem(
+                scope,
+                send,
+                status=error.status,
+                slug="malformed-csv" if error.status == 400 else "invalid-csv",
+                title="Malformed CSV body" if error.status == 400 else "Unreadable CSV value",
+                detail=error.detail,
+                errors=[
+                    FieldError(
+                        field=error.column, message=error.detail, value=error.value, index=error.row
+                    )
+                ],
+            )
+            return
+        results = []
+        for row, body in enumerate(bodies):
+            if conversion.abandoned:
+                return  # answered 503 already: compute (and store) no more rows
+            captured = await self._call(scope, receive, orjson.dumps(body), conversion)
+            if captured.status != 200:
+                if route.one_call_per_row:
+                    _mark_row(captured, row)
+                await self._forward(send, captured)
+                return
+            results.append(captured)
+        await self._answer(send, results, route, wants_csv=wants_csv)
+
+    async def _call(
+        self, scope: Scope, receive: Receive, body: bytes | None, conversion: _Conversion
+    ) -> _Captured:
+        """Run the route with ``body`` as its JSON body (None: the original body)."""
+        inner = dict(scope)
+        conversion.current = inner
+        replaced = (b"accept",) if body is None else (b"accept", b"content-type", b"content-length")
+        headers = [
+            (name, value) for name, value in scope.get("headers", []) if name not in replaced
+        ]
+        headers.append((b"accept", b"application/json"))
+        if body is not None:
+            headers += [
+                (b"content-type", b"application/json"),
+                (b"content-length", str(len(body)).encode()),
+            ]
+        inner["headers"] = headers
+        delivered = False
+
+        async def inner_receive() -> Message:
+            nonlocal delivered
+            if body is None or delivered:
+                return await receive()
+            delivered = True
+            return {"type": "http.request", "body": body, "more_body": False}
+
+        captured = _Captured()
+
+        async def capture(message: Message) -> None:
+            if message["type"] == "http.response.start":
+                captured.status = int(message["status"])
+                captured.headers = list(message.get("headers", []))
+            elif message["type"] == "http.response.body":
+                captured.body += message.get("body", b"")
+
+        await self.app(inner, inner_receive, capture)
+        _copy_route(inner, scope)
+        return captured
+
+    async def _forward(self, send: Send, captured: _Captured) -> None:
+        body = bytes(captured.body)
+        headers = [(n, v) for n, v in captured.headers if n.lower() != b"content-length"] + [
+            (b"content-length", str(len(body)).encode())
+        ]
+        await send({"type": "http.response.start", "status": captured.status, "headers": headers})
+        await send({"type": "http.response.body", "body": body})
+
+    async def _answer(
+        self, send: Send, results: list[_Captured], route: CsvRoute, *, wants_csv: bool
+    ) -> None:
+        as_list = route.one_call_per_row
+        first = results[0]
+        if first.status != 200 or first.media_type != "application/json":
+            await self._forward(send, first)
+            return
+        answers = [orjson.loads(bytes(item.body)) for item in results]
+        if wants_csv:
+            if route.answer_part is not None:
+                answers = [_part_of(answer, route.answer_part) for answer in answers]
+            body = render_csv(*flatten_answers(answers))
+            content_type = _CSV_RESPONSE_TYPE
+        elif as_list:
+            body = orjson.dumps(answers)
+            content_type = "application/json"
+        else:
+            await self._forward(send, first)
+            return
+        headers = _with_headers(first.headers, content_type, len(body))
+        await send({"type": "http.response.start", "status": 200, "headers": headers})
+        await send({"type": "http.response.body", "body": body})
+
+
+def _part_of(answer: dict[str, Any], part: str) -> dict[str, Any]:
+    """The ``part`` member of an answer, led by the answer's calculation id."""
+    calculation_id = answer.get("meta", {}).get("calculation_id")
+    selected = answer.get(part)
+    body = selected if isinstance(selected, dict) else {part: selected}
+    return {"calculation_id": calculation_id, **body}
+
+
+def _copy_route(inner: Scope, scope: Scope) -> None:
+    """Give the request's scope the route the inner call matched (for metrics and logs)."""
+    for key in ("route", "endpoint", "path_params"):
+        if key in inner:
+            scope[key] = inner[key]
+
+
+async def _read_body(receive: Receive) -> bytes | None:
+    """The whole request body; None when the client disconnects before it is all in."""
+    chunks = bytearray()
+    while True:
+        message = await receive()
+        if message["type"] == "http.disconnect":
+            return None
+        chunks += message.get("body", b"")
+        if not message.get("more_body", False):
+            return bytes(chunks)
+
+
+def _mark_row(captured: _Captured, row: int) -> None:
+    """Say in a per-row problem document which CSV row it concerns."""
+    if captured.media_type != PROBLEM_MEDIA_TYPE:
+        return
+    try:
+        problem = orjson.loads(bytes(captured.body))
+    except orjson.JSONDecodeError:
+        return
+    problem["detail"] = f"CSV row {row + 1}: {problem.get('detail', '')}"
+    for error in problem.get("errors") or []:
+        if isinstance(error, dict) and error.get("index") is None:
+            error["index"] = row
+    captured.body = bytearray(orjson.dumps(problem))
+
+
+def document_csv(schema: dict[str, Any], routes: Sequence[CsvRoute]) -> None:
+    """Declare ``text/csv`` request bodies and answers on the CSV routes."""
+    for path, operations in schema.get("paths", {}).items():
+        route = next((item for item in routes if item.matches(path)), None)
+        if route is None:
+            continue
+        for method, operation in operations.items():
+            request_body = operation.get("requestBody")
+            if method == "post" and request_body is not None:
+                request_body.setdefault("content", {})[CSV_MEDIA_TYPE] = {
+                    "schema": {
+                        "type": "string",
+                        "description": (
+                            "One case per row; header = field names with the unit in brackets, "
+                            "e.g. `temperature[degC]`; dotted names nest."
+                            + (
+                                " The route is called once per row."
+                                if route.one_call_per_row
+                                else " Columns become batches."
+                            )
+                        ),
+                    }
+                }
+                operation.setdefault("responses", {}).setdefault(
+                    "400", problem_answer("Malformed CSV body (encoding, header, ragged rows).")
+                )
+            answer = operation.get("responses", {}).get("200")
+            if answer is not None:
+                answer.setdefault("content", {})[CSV_MEDIA_TYPE] = {
+                    "schema": {
+                        "type": "string",
+                        "description": "Sent for `Accept: text/csv`: columns `path[unit]`, "
+                        "one row per case.",
+                    }
+                }

@@ -1,0 +1,291 @@
+"""RFC 9457 problem documents and the one place errors become HTTP responses."""
+
+from __future__ import annotations
+
+import json
+import math
+from typing import Any
+
+from fastapi import FastAPI, Request
+from fastapi.exceptions import RequestValidationError
+from pydantic import BaseModel, Field
+from starlette.exceptions import HTTPException as StarletteHTTPException
+
+from service.api.http.responses import FastJSONResponse
+from service.core.errors import (
+    InvalidInputError,
+    NotConvergedError,
+    OutOfRangeError,
+    UnsupportedStateError,
+)
+
+__all__ = [
+    "PROBLEM_MEDIA_TYPE",
+    "FieldError",
+    "Problem",
+    "ProblemError",
+    "document_validation_problems",
+    "install_problem_handlers",
+    "make_problem",
+    "problem_answer",
+    "problem_body",
+    "problem_responses",
+]
+
+PROBLEM_MEDIA_TYPE = "application/problem+json"
+_TYPE_PREFIX = "urn:tripoint:problem:"
+_PROBLEM_SCHEMA_REF = "#/components/schemas/Problem"
+_DESCRIPTIONS = {
+    400: "Malformed request.",
+    401: "Missing or wrong API key.",
+    404: "Not found.",
+    413: "Request too large (body or batch points).",
+    415: "Unsupported media type.",
+    422: "Invalid or out-of-range input; the problem names the field and the valid range.",
+    503: "Temporarily unavailable.",
+}
+
+
+class FieldError(BaseModel):
+    """One offending input."""
+
+    field: str = Field(description="Input that is wrong, as a dotted path (e.g. `temperature`).")
+    message: str = Field(description="What is wrong with it.")
+    value: Any = Field(None, description="The value received (as sent, or in `unit`).")
+    unit: str | None = Field(None, description="Unit of `value`, `minimum` and `maximum`.")
+    minimum: float | None = Field(None, description="Lowest valid value, in `unit`.")
+    maximum: float | None = Field(None, description="Highest valid value, in `unit`.")
+    index: int | None = Field(None, description="Position in a batch array, where relevant.")
+
+
+class Problem(BaseModel):
+    """An RFC 9457 problem document (`application/problem+json`)."""
+
+    type: str = Field(description="URI naming the kind of problem.")
+    title: str = Field(description="Short summary of the kind of problem.")
+    status: int = Field(description="HTTP status code.")
+    detail: str = Field(description="What went wrong in this request.")
+    instance: str | None = Field(None, description="Path of the request.")
+    errors: list[FieldError] = Field(default_factory=list, description="Offending inputs.")
+
+
+class ProblemError(Exception):
+    """Raised by the HTTP layer to answer with a problem document."""
+
+    def __init__(
+        self,
+        status: int,
+        slug: str,
+        title: str,
+        detail: str,
+        errors: list[FieldError] | None = None,
+        headers: dict[str, str] | None = None,
+    ) -> None:
+        super().__init__(detail)
+        self.status = status
+        self.slug = slug
+        self.title = title
+        self.detail = detail
+        self.errors = errors or []
+        self.headers = headers
+
+
+_JSON_INTEGER_RANGE = range(-(2**63), 2**64)
+"""Integers the JSON renderer (orjson) writes as numbers; others are echoed as text."""
+
+
+def _finite_or_none(value: object) -> object:
+    """The received value as JSON can carry it: non-finite floats and huge integers as text."""
+    if isinstance(value, float) and not math.isfinite(value):
+        return str(value)
+    if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
+        return str(value)
+    return value
+
+
+def make_problem(
+    status: int, slug: str, title: str, detail: str, errors: list[FieldError] | None = None
+) -> Problem:
+    """A problem document of type ``urn:tripoint:problem:<slug>``."""
+    return Problem(
+        type=_TYPE_PREFIX + slug, title=title, status=status, detail=detail, errors=errors or []
+    )
+
+
+def problem_body(problem: Problem, instance: str | None) -> dict[str, Any]:
+    """The JSON body of ``problem`` answered at ``instance`` (the request path).
+
+    Received values JSON cannot carry as numbers (non-finite floats, huge integers) are
+    echoed as text.
+    """
+    body = problem.model_dump()
+    body["instance"] = instance
+    for error in body["errors"]:
+        error["value"] = _finite_or_none(error["value"])
+    return body
+
+
+def _problem_content() -> dict[str, Any]:
+    return {PROBLEM_MEDIA_TYPE: {"schema": {"$ref": _PROBLEM_SCHEMA_REF}}}
+
+
+def problem_answer(description: str) -> dict[str, Any]:
+    """An OpenAPI response object: ``description`` and a problem document as content."""
+    return {"description": description, "content": _problem_content()}
+
+
+def problem_responses(*statuses: int) -> dict[int | str, dict[str, Any]]:
+    """OpenAPI ``responses=`` entries declaring the problem schema for ``statuses``."""
+    return {
+        status: {"model": Problem, **problem_answer(_DESCRIPTIONS.get(status, "Problem"))}
+        for status in statuses
+    }
+
+
+def document_validation_problems(schema: dict[str, Any]) -> None:
+    """Declare the 422 answers FastAPI documents by itself as the problem documents sent.
+
+    FastAPI adds a 422 ``application/json`` ``HTTPValidationError`` response to every
+    operation with parameters or a body; the service answers those with
+    ``application/problem+json`` :class:`Problem` documents instead (see
+    :func:`install_problem_handlers`). The unused validation-error schemas are dropped.
+    """
+    for operations in schema.get("paths", {}).values():
+        for operation in operations.values():
+            answer = operation.get("responses", {}).get("422")
+            if answer is None:
+                continue
+            answer["content"] = _problem_content()
+            if answer.get("description") == "Validation Error":
+                answer["description"] = _DESCRIPTIONS[422]
+    components = schema.get("components", {}).get("schemas", {})
+    if "Problem" not in components:
+        components["Problem"] = Problem.model_json_schema(
+            ref_template="#/components/schemas/{model}"
+        )
+        for name, definition in components["Problem"].pop("$defs", {}).items():
+            components.setdefault(name, definition)
+    for name in ("HTTPValidationError", "ValidationError"):  # in this order: one refs the other
+        if name in components:
+            del components[name]
+            if f'"#/components/schemas/{name}"' in json.dumps(schema):
+                components[name] = {"type": "object"}  # still referenced: keep a stand-in
+
+
+def _render(
+    request: Request, problem: Problem, headers: dict[str, str] | None = None
+) -> FastJSONResponse:
+    return FastJSONResponse(
+        problem_body(problem, request.url.path),
+        status_code=problem.status,
+        media_type=PROBLEM_MEDIA_TYPE,
+        headers=headers,
+    )
+
+
+def _from_core(error: Exception) -> Problem:
+    if isinstance(error, OutOfRangeError):
+        return make_problem(
+            422,
+            "out-of-range",
+            "Input outside the valid range",
+            str(error),
+            [
+                FieldError(
+                    field=error.variable,
+                    message=str(error),
+                    value=error.value,
+                    unit=error.unit,
+                    minimum=error.minimum,
+                    maximum=error.maximum,
+                    index=error.index,
+                )
+            ],
+        )
+    if isinstance(error, InvalidInputError | UnsupportedStateError):
+        slug = "invalid-input" if isinstance(error, InvalidInputError) else "unsupported-state"
+        title = (
+            "Invalid input"
+            if isinstance(error, InvalidInputError)
+            else "State outside what tripoint models"
+        )
+        value = (
+            error.value if isinstance(error.value, str | int | float | None) else str(error.value)
+        )
+        return make_problem(
+            422,
+            slug,
+            title,
+            str(error),
+            [FieldError(field=error.variable, message=error.detail, value=value)],
+        )
+    assert isinstance(error, NotConvergedError)
+    return make_problem(
+        422,
+        "not-converged",
+        "Calculation did not converge",
+        f"{error}. The inputs are likely at the edge of the formulation's range.",
+    )
+
+
+def _location(loc: tuple[int | str, ...]) -> str:
+    parts = [str(part) for part in loc if part not in ("body", "query", "path")]
+    return ".".join(parts) or "body"
+
+
+def install_problem_handlers(app: FastAPI) -> None:
+    """Map every error the service raises on purpose to a problem document."""
+
+    async def on_problem(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, ProblemError)
+        problem = make_problem(error.status, error.slug, error.title, error.detail, error.errors)
+        return _render(request, problem, error.headers)
+
+    async def on_core(request: Request, error: Exception) -> FastJSONResponse:
+        return _render(request, _from_core(error))
+
+    async def on_validation(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, RequestValidationError)
+        errors = []
+        for item in error.errors():
+            value = item.get("input")
+            if not isinstance(value, str | int | float | bool | None):
+                value = None
+            # A body that is not JSON at all is located at a character offset: name the body.
+            location = (
+                "body"
+                if item.get("type") == "json_invalid"
+                else _location(tuple(item.get("loc", ())))
+            )
+            errors.append(
+                FieldError(
+                    field=location,
+                    message=str(item.get("msg", "invalid")),
+                    value=value,
+                )
+            )
+        fields = ", ".join(sorted({entry.field for entry in errors}))
+        problem = make_problem(
+            422,
+            "invalid-request",
+            "Request does not match the schema",
+            f"Invalid or missing field(s): {fields}.",
+            errors,
+        )
+        return _render(request, problem)
+
+    async def on_http(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, StarletteHTTPException)
+        problem = Problem(
+            type="about:blank",
+            title=str(error.detail),
+            status=error.status_code,
+            detail=str(error.detail),
+        )
+        return _render(request, problem, dict(error.headers) if error.headers else None)
+
+    app.add_exception_handler(ProblemError, on_problem)
+    for kind in (OutOfRangeError, InvalidInputError, UnsupportedStateError, NotConvergedError):
+        app.add_exception_handler(kind, on_core)
+    app.add_exception_handler(RequestValidationError, on_validation)
+    app.add_exception_handler(StarletteHTTPException, on_http)

@@ -1,0 +1,202 @@
+"""Calculation records from the HTTP side: store each answer, or say that it was not stored.
+
+Routers call :func:`record_calculation` with the answer they built (it must carry
+``meta.calculation_id``, as :func:`service.api.http.envelope.envelope` makes it). The record
+holds the inputs as sent, the answer, the service and formulation versions, the time and
+the API key id. When the store fails, ``TRIPOINT_STORE_FAILURE_POLICY`` decides: ``warn``
+adds a ``record-not-stored`` warning to the answer, ``fail`` answers 503. An answer is
+never returned without saying that its record is missing.
+"""
+
+from __future__ import annotations
+
+import asyncio
+import logging
+from collections.abc import Mapping
+from datetime import UTC, datetime, timedelta
+from typing import Any, Literal
+
+import anyio.to_thread
+import orjson
+from fastapi import Request
+from pydantic import BaseModel
+
+from service import __version__
+from service.api.http.observability import Metrics
+from service.api.http.problems import ProblemError
+from service.records import CalculationRecord, RecordStore, StoreUnavailableError
+
+__all__ = ["NOT_STORED_WARNING", "RecordKeeper", "record_calculation"]
+
+NOT_STORED_WARNING = "record-not-stored"
+"""Warning code an answer carries when its calculation record could not be stored."""
+
+_RETENTION_INTERVAL_SECONDS = 3600.0
+_log = logging.getLogger("tripoint.records")
+
+
+def _plain_json(value: Any) -> Any:
+    """Numpy arrays and tuples to plain lists: what a JSON column can hold."""
+    return orjson.loads(
+        orjson.dumps(value, option=orjson.OPT_SERIALIZE_NUMPY | orjson.OPT_NON_STR_KEYS)
+    )
+
+
+def _created_at(meta: Mapping[str, Any]) -> datetime:
+    stamp = meta.get("time")
+    if isinstance(stamp, str):
+        try:
+            moment = datetime.fromisoformat(stamp)
+        except ValueError:
+            moment = None
+        if moment is not None and moment.tzinfo is not None:
+            return moment
+    return datetime.now(UTC)
+
+
+class RecordKeeper:
+    """The records store as the HTTP layer uses it: policy, retention, metrics."""
+
+    def __init__(
+        self,
+        store: RecordStore,
+        *,
+        policy: Literal["warn", "fail"],
+        retention_days: int,
+        metrics: Metrics,
+    ) -> None:
+        self.store = store
+        self.policy = policy
+        self.retention_days = retention_days
+        self.metrics = metrics
+
+    def record(
+        self, *, kind: str, inputs: Mapping[str, Any], result: dict[str, Any], key_id: str | None
+    ) -> None:
+        """Store one answer; on failure warn in ``result`` or raise a 503, per the policy."""
+        meta = result.get("meta")
+        if not isinstance(meta, dict) or not meta.get("calculation_id"):
+            raise ValueError("a recorded answer must carry meta.calculation_id")
+        calculation_id = str(meta["calculation_id"])
+        stored = _plain_json(result)
+        sources = stored.get("property_sources") or []
+        record = CalculationRecord(
+            calculation_id=calculation_id,
+            kind=kind,
+            created_at=_created_at(meta),
+            inputs=_plain_json(dict(inputs)),
+            result=stored,
+            service_version=str(meta.get("service_version") or __version__),
+            formulations=[
+                {"formulation": source.get("formulation"), "release": source.get("release")}
+                for source in sources
+                if isinstance(source, dict)
+            ],
+            key_id=key_id,
+        )
+        try:
+            self.store.add(record)
+        except StoreUnavailableError as error:
+            self.metrics.count_calculation(kind, stored=False)
+            _log.error(
+                "calculation record not stored",
+                extra={
+                    "fields": {"calculation_id": calculation_id, "kind": kind, "reason": str(error)}
+                },
+            )
+            if self.policy == "fail":
+                raise ProblemError(
+                    503,
+                    NOT_STORED_WARNING,
+                    "Calculation record not stored",
+                    f"The calculation {calculation_id} succeeded but its record could not be "
+                    "stored, so no result is returned (setting TRIPOINT_STORE_FAILURE_POLICY="
+                    "fail). Retry later.",
+                    headers={"Retry-After": "5"},
+                ) from None
+            result.setdefault("warnings", []).append(
+                {
+                    "code": NOT_STORED_WARNING,
+                    "message": (
+                        f"This result was NOT stored: calculation {calculation_id} cannot be "
+                        "fetched from /v1/calculations later because the record store failed."
+                    ),
+                    "indices": None,
+                }
+            )
+            return
+        self.metrics.count_calculation(kind, stored=True)
+
+    def prune_expired(self) -> int:
+        """Delete records older than the retention period; 0 when records are kept forever."""
+        if self.retention_days == 0:
+            return 0
+        cutoff = datetime.now(UTC) - timedelta(days=self.retention_days)
+        removed = self.store.prune(cutoff)
+        if removed:
+            _log.info(
+                "expired calculation records removed",
+                extra={"fields": {"removed": removed, "retention_days": self.retention_days}},
+            )
+        return removed
+
+    async def prune_logged(self) -> None:
+        """Prune once in a worker thread; a failure is logged, never raised."""
+        try:
+            await anyio.to_thread.run_sync(self.prune_expired)
+        except StoreUnavailableError as error:
+            _log.warning("retention pruning failed", extra={"fields": {"reason": str(error)}})
+        except Exception:
+            # A defect here must not end the pruning loop unseen: log it, try again later.
+            _log.exception("retention pruning failed unexpectedly")
+
+    async def keep_pruning(self) -> None:
+        """Prune every hour until cancelled (the startup prune is done before serving)."""
+        while True:
+            await asyncio.sleep(_RETENTION_INTERVAL_SECONDS)
+            await self.prune_logged()
+
+
+def record_calculation(
+    request: Request,
+    kind: str,
+    inputs: BaseModel | Mapping[str, Any],
+    result: dict[str, Any],
+) -> dict[str, Any]:
+    """Store the calculation record of one answer and return the answer.
+
+    Call it from a synchronous (``def``) route, after building the answer and before
+    returning it: it writes to the database and would block an event loop.
+
+    Parameters
+    ----------
+    request
+        The request being answered (gives the store and the API key id).
+    kind
+        What was calculated, stable and dotted, e.g. ``"balances.vacuum_cooling"``; the
+        listing filters on it and the metrics count by it.
+    inputs
+        The request body: a pydantic model (the fields the client set are stored) or a
+        plain mapping.
+    result
+        The answer, with ``meta.calculation_id`` and ``property_sources``.
+
+    Returns
+    -------
+    dict
+        ``result`` itself; with a ``record-not-stored`` warning added when the store
+        failed and the policy is ``warn``.
+
+    Raises
+    ------
+    ProblemError
+        503 when the store failed and the policy is ``fail``.
+    """
+    keeper: RecordKeeper = request.app.state.records
+    if isinstance(inputs, BaseModel):
+        sent = inputs.model_dump(mode="json", exclude_unset=True, by_alias=True)
+    else:
+        sent = dict(inputs)
+    key_id = getattr(request.state, "api_key_id", None)
+    keeper.record(kind=kind, inputs=sent, result=result, key_id=key_id)
+    return result

@@ -1,0 +1,304 @@
+"""Unit handling at the edge of the service: parse inputs to SI, express outputs.
+
+The core works in SI only (K, Pa, kg, J, s). This module turns what a client sends
+(a number in the field's default unit, a string such as ``"25 degC"``, or an object
+with ``value``/``values`` and ``unit``) into SI numpy arrays, and converts results
+into the unit set the client asked for.
+
+Temperatures with an offset (degC, degF) are handled deliberately: a *bare*
+temperature unit is an absolute temperature; inside a compound unit
+(``kJ/(kg*degC)``) it is a temperature *difference*. pint refuses ``25 * degC``
+at default settings, so conversions are built once per unit string from pint
+quantities created with ``Quantity(value, unit)`` and cached as (scale, offset).
+"""
+
+from __future__ import annotations
+
+import math
+import re
+from dataclasses import dataclass
+from enum import Enum, StrEnum
+from functools import cache
+from typing import Any, overload
+
+import numpy as np
+import pint
+
+from service.core.errors import InvalidInputError
+from service.core.properties.phase import FloatArray
+
+__all__ = [
+    "Dimension",
+    "UnitSet",
+    "convert_from_si",
+    "convert_to_si",
+    "number_to_si",
+    "output_unit",
+    "parse_quantity_text",
+]
+
+
+class Dimension(Enum):
+    """Physical kinds of quantity the API exchanges, with their SI unit."""
+
+    TEMPERATURE = ("K", "[temperature]", "absolute")
+    TEMPERATURE_DIFFERENCE = ("K", "[temperature]", "difference")
+    PRESSURE = ("Pa", "[mass] / [length] / [time] ** 2")
+    DENSITY = ("kg/m**3", "[mass] / [length] ** 3")
+    SPECIFIC_ENERGY = ("J/kg", "[length] ** 2 / [time] ** 2")
+    SPECIFIC_ENTROPY = ("J/(kg*K)", "[length] ** 2 / [temperature] / [time] ** 2")
+    MASS = ("kg", "[mass]")
+    ENERGY = ("J", "[length] ** 2 * [mass] / [time] ** 2")
+    POWER = ("W", "[length] ** 2 * [mass] / [time] ** 3")
+    TIME = ("s", "[time]")
+    VOLUME = ("m**3", "[length] ** 3")
+    MASS_FLOW = ("kg/s", "[mass] / [time]")
+    VOLUME_FLOW = ("m**3/s", "[length] ** 3 / [time]")
+    AREA = ("m**2", "[length] ** 2")
+    MOLAR_MASS = ("kg/mol", "[mass] / [substance]")
+    LEAK_RATE = ("Pa*m**3/s", "[length] ** 2 * [mass] / [time] ** 3")
+    THERMAL_CONDUCTANCE = ("W/K", "[length] ** 2 * [mass] / [temperature] / [time] ** 3")
+    DIMENSIONLESS = ("", "")
+
+    @property
+    def si_unit(self) -> str:
+        """The pint spelling of the SI unit."""
+        unit: str = self.value[0]
+        return unit
+
+
+class UnitSet(StrEnum):
+    """Output unit sets a client can ask for."""
+
+    SI = "SI"
+    ENGINEERING = "engineering"
+    US = "US"
+
+
+_SI_LABEL: dict[Dimension, str] = {
+    Dimension.TEMPERATURE: "K",
+    Dimension.TEMPERATURE_DIFFERENCE: "K",
+    Dimension.PRESSURE: "Pa",
+    Dimension.DENSITY: "kg/m3",
+    Dimension.SPECIFIC_ENERGY: "J/kg",
+    Dimension.SPECIFIC_ENTROPY: "J/(kg*K)",
+    Dimension.MASS: "kg",
+    Dimension.ENERGY: "J",
+    Dimension.POWER: "W",
+    Dimension.TIME: "s",
+    Dimension.VOLUME: "m3",
+    Dimension.MASS_FLOW: "kg/s",
+    Dimension.VOLUME_FLOW: "m3/s",
+    Dimension.AREA: "m2",
+    Dimension.MOLAR_MASS: "kg/mol",
+    Dimension.LEAK_RATE: "Pa*m3/s",
+    Dimension.THERMAL_CONDUCTANCE: "W/K",
+    Dimension.DIMENSIONLESS: "1",
+}
+
+_OUTPUT_UNITS: dict[UnitSet, dict[Dimension, str]] = {
+    UnitSet.SI: _SI_LABEL,
+    UnitSet.ENGINEERING: {
+        **_SI_LABEL,
+        Dimension.TEMPERATURE: "degC",
+        Dimension.PRESSURE: "kPa",
+        Dimension.SPECIFIC_ENERGY: "kJ/kg",
+        Dimension.SPECIFIC_ENTROPY: "kJ/(kg*K)",
+        Dimension.ENERGY: "kJ",
+        Dimension.POWER: "kW",
+        Dimension.MASS_FLOW: "kg/h",
+        Dimension.VOLUME_FLOW: "m3/h",
+        Dimension.LEAK_RATE: "mbar*L/s",
+    },
+    UnitSet.US: {
+        Dimension.TEMPERATURE: "degF",
+        Dimension.TEMPERATURE_DIFFERENCE: "delta_degF",
+        Dimension.PRESSURE: "psi",
+        Dimension.DENSITY: "lb/ft3",
+        Dimension.SPECIFIC_ENERGY: "Btu/lb",
+        Dimension.SPECIFIC_ENTROPY: "Btu/(lb*degR)",
+        Dimension.MASS: "lb",
+        Dimension.ENERGY: "Btu",
+        Dimension.POWER: "Btu/h",
+        Dimension.TIME: "s",
+        Dimension.VOLUME: "ft3",
+        Dimension.MASS_FLOW: "lb/h",
+        Dimension.VOLUME_FLOW: "ft3/min",
+        Dimension.AREA: "ft2",
+        Dimension.MOLAR_MASS: "kg/mol",
+        Dimension.LEAK_RATE: "torr*L/s",
+        Dimension.THERMAL_CONDUCTANCE: "Btu/(h*degF)",
+        Dimension.DIMENSIONLESS: "1",
+    },
+}
+
+_ABSOLUTE_TEMPERATURE_ALIASES = {
+    "k": "kelvin",
+    "kelvin": "kelvin",
+    "degc": "degree_Celsius",
+    "°c": "degree_Celsius",
+    "celsius": "degree_Celsius",
+    "degf": "degree_Fahrenheit",
+    "°f": "degree_Fahrenheit",
+    "fahrenheit": "degree_Fahrenheit",
+    "degr": "degree_Rankine",
+    "°r": "degree_Rankine",
+    "rankine": "degree_Rankine",
+}
+
+_NUMBER_WITH_UNIT = re.compile(
+    r"^\s*(?P<number>[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(?P<unit>.*?)\s*$"
+)
+_OFFSET_IN_COMPOUND = re.compile(r"(°C|°F|\bdegC\b|\bdegF\b|\bcelsius\b|\bfahrenheit\b)")
+_BTU = re.compile(r"\b(?:Btu|BTU|btu)\b")
+"""The International Table Btu (1055.05585 J), the one steam tables use."""
+_COMPOUND_REPLACEMENTS = {
+    "°C": "delta_degC",
+    "°F": "delta_degF",
+    "degC": "delta_degC",
+    "degF": "delta_degF",
+    "celsius": "delta_degC",
+    "fahrenheit": "delta_degF",
+}
+
+
+@cache
+def _registry() -> pint.UnitRegistry[float]:
+    """Build the unit registry once per process, on first use."""
+    registry: pint.UnitRegistry[float] = pint.UnitRegistry()
+    registry.define("psia = psi")
+    return registry
+
+
+@dataclass(frozen=True)
+class _Linear:
+    """``si = value * scale + offset``."""
+
+    scale: float
+    offset: float
+
+
+def _pint_spelling(unit: str, dimension: Dimension) -> str:
+    text = unit.strip().replace("m3", "m**3").replace("m2", "m**2").replace("ft3", "ft**3")
+    text = _BTU.sub("Btu_it", text.replace("ft2", "ft**2"))
+    alias = _ABSOLUTE_TEMPERATURE_ALIASES.get(text.lower())
+    if alias is not None:
+        if dimension is Dimension.TEMPERATURE_DIFFERENCE and alias != "kelvin":
+            return "delta_" + alias
+        return alias
+    return _OFFSET_IN_COMPOUND.sub(lambda match: _COMPOUND_REPLACEMENTS[match.group(1)], text)
+
+
+@cache
+def _linear_map(unit: str, dimension: Dimension) -> _Linear:
+    """Return the cached (scale, offset) that takes ``unit`` to SI for ``dimension``."""
+    registry = _registry()
+    spelling = _pint_spelling(unit, dimension)
+    if dimension is Dimension.DIMENSIONLESS and spelling in ("", "1"):
+        return _Linear(1.0, 0.0)
+    try:
+        parsed = registry.parse_units(spelling)
+    except (pint.errors.UndefinedUnitError, pint.errors.DefinitionSyntaxError) as error:
+        raise ValueError(f"unknown unit {unit!r}") from error
+    except Exception as error:  # pint raises several parser errors for garbage text
+        raise ValueError(f"cannot read unit {unit!r}") from error
+    target = registry.parse_units(dimension.si_unit) if dimension.si_unit else None
+    expected = registry.get_dimensionality(target) if target is not None else {}
+    if registry.get_dimensionality(parsed) != expected:
+        raise ValueError(
+            f"unit {unit!r} is not a unit of {dimension.name.lower().replace('_', ' ')} "
+            f"(expected something convertible to {_SI_LABEL[dimension]})"
+        )
+    zero = registry.Quantity(0.0, parsed).to(target or "").magnitude
+    # A wide span keeps the scale exact to rounding even with a large offset.
+    span = 1.0e6
+    far = registry.Quantity(span, parsed).to(target or "").magnitude
+    return _Linear(scale=float((far - zero) / span), offset=float(zero))
+
+
+def convert_to_si(
+    values: FloatArray | float, unit: str | None, dimension: Dimension, *, field: str
+) -> FloatArray:
+    """Convert ``values`` given in ``unit`` (None = SI default) to SI.
+
+    Raises
+    ------
+    InvalidInputError
+        If the unit is unknown or of the wrong dimension; names ``field``.
+    """
+    array = np.asarray(values, dtype=np.float64)
+    linear = _input_map(unit, dimension, field=field)
+    if linear is None:
+        return array
+    result: FloatArray = array * linear.scale + linear.offset
+    return result
+
+
+def number_to_si(value: float, unit: str | None, dimension: Dimension, *, field: str) -> float:
+    """:func:`convert_to_si` for one Python float (same arithmetic, no array)."""
+    linear = _input_map(unit, dimension, field=field)
+    return value if linear is None else value * linear.scale + linear.offset
+
+
+def _input_map(unit: str | None, dimension: Dimension, *, field: str) -> _Linear | None:
+    """The (scale, offset) taking ``unit`` to SI; ``None`` where it is SI already."""
+    if unit is None or unit.strip() == _SI_LABEL[dimension]:
+        return None
+    try:
+        linear = _linear_map(unit.strip(), dimension)
+    except ValueError as error:
+        raise InvalidInputError(field, str(error), unit) from None
+    if linear.scale == 1.0 and linear.offset == 0.0:
+        return None
+    return linear
+
+
+def output_unit(dimension: Dimension, unit_set: UnitSet) -> str:
+    """Label of the unit ``dimension`` is reported in for ``unit_set``."""
+    return _OUTPUT_UNITS[unit_set][dimension]
+
+
+@overload
+def convert_from_si(values: float, dimension: Dimension, unit_set: UnitSet) -> float: ...
+
+
+@overload
+def convert_from_si(values: FloatArray, dimension: Dimension, unit_set: UnitSet) -> FloatArray: ...
+
+
+def convert_from_si(
+    values: FloatArray | float, dimension: Dimension, unit_set: UnitSet
+) -> FloatArray | float:
+    """Express SI ``values`` (an array, or one float) in the unit ``unit_set`` uses for
+    ``dimension``."""
+    if unit_set is UnitSet.SI:
+        return values
+    linear = _linear_map(_OUTPUT_UNITS[unit_set][dimension], dimension)
+    if linear.scale == 1.0 and linear.offset == 0.0:
+        return values
+    return (values - linear.offset) / linear.scale
+
+
+def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:
+    """Split ``"25 degC"`` into ``(25.0, "degC")``; a bare number gives ``(x, None)``.
+
+    Raises
+    ------
+    InvalidInputError
+        If the text does not start with a finite number.
+    """
+    match = _NUMBER_WITH_UNIT.match(text)
+    if match is None:
+        raise InvalidInputError(
+            field, f"{text!r} is not a number optionally followed by a unit", text
+        )
+    number = float(match.group("number"))
+    if not math.isfinite(number):  # pragma: no cover - regex admits finite literals only
+        raise InvalidInputError(field, "value must be finite", text)
+    unit = match.group("unit") or None
+    return number, unit
+
+
+def describe_units(unit_set: UnitSet) -> dict[str, Any]:
+    """Map of dimension name to unit label, for documentation and responses."""
+    return {dimension.name.lower(): label for dimension, label in _OUTPUT_UNITS[unit_set].items()}

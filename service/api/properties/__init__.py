@@ -1,0 +1,1 @@
+"""Property lookups: saturation, sublimation, melting, state, constants."""

@@ -1,1 +1,0 @@
-"""Request and response models, in pairs per operation, on one shared base."""

@@ -1,0 +1,1 @@
+"""Process simulations: the vacuum chamber."""

@@ -1,0 +1,139 @@
+"""Plots of a simulation: chamber pressures and product temperature against time.
+
+Drawn with matplotlib's object interface (a ``Figure`` per call, no pyplot state), so it
+is safe in worker threads and needs no display. matplotlib is imported on first use.
+"""
+
+from __future__ import annotations
+
+import io
+from typing import Final, Literal
+
+import numpy as np
+
+from service.api.http.negotiation import accept_qualities, json_quality
+from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
+from service.core.simulation import VacuumChamberResult
+
+__all__ = ["PLOT_MEDIA_TYPES", "PlotFormat", "plot_format_for", "plot_simulation"]
+
+PlotFormat = Literal["svg", "png"]
+
+PLOT_MEDIA_TYPES: Final[dict[PlotFormat, str]] = {"svg": "image/svg+xml", "png": "image/png"}
+
+_EVENT_LABELS: Final = {
+    "flash-point": "flash",
+    "boiling-stops": "boiling stops",
+    "boiling-resumes": "boiling resumes",
+    "freezing-starts": "freezing",
+    "fully-frozen": "frozen",
+    "target-reached": "target",
+    "condenser-capacity-exceeded": "condenser full",
+    "schedule-limit-missed": "schedule missed",
+    "model-range-left": "range left",
+    "water-exhausted": "water exhausted",
+}
+
+
+def plot_format_for(accept: str | None) -> PlotFormat | None:
+    """The image format an ``Accept`` header prefers over JSON, if any.
+
+    ``image/svg+xml`` or ``image/png`` with a quality at least that of
+    ``application/json`` (or ``*/*``) selects a plot; otherwise None.
+    """
+    qualities = accept_qualities(accept)
+    best: tuple[float, PlotFormat | None] = (0.0, None)
+    for kind, media_type in PLOT_MEDIA_TYPES.items():
+        quality = qualities.get(media_type, 0.0)
+        if quality > best[0]:
+            best = (quality, kind)
+    quality, chosen = best
+    return chosen if chosen is not None and quality >= json_quality(qualities) else None
+
+
+def _time_axis(seconds: np.ndarray) -> tuple[np.ndarray, str]:
+    end = float(seconds[-1]) if seconds.size else 0.0
+    if end > 7200.0:
+        return seconds / 3600.0, "h"
+    if end > 300.0:
+        return seconds / 60.0, "min"
+    return seconds, "s"
+
+
+def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFormat) -> bytes:
+    """Pressure (log scale) and product temperature against time, events marked.
+
+    Parameters
+    ----------
+    result
+        A simulation result.
+    unit_set
+        Units of the pressure and temperature axes.
+    kind
+        ``"svg"`` or ``"png"``.
+
+    Returns
+    -------
+    bytes
+        The image.
+    """
+    from matplotlib.figure import Figure
+
+    series = result.series
+    time, time_unit = _time_axis(series.time)
+    pressure_unit = output_unit(Dimension.PRESSURE, unit_set)
+    temperature_unit = output_unit(Dimension.TEMPERATURE, unit_set)
+
+    def pressure(values: np.ndarray) -> np.ndarray:
+        converted = convert_from_si(values, Dimension.PRESSURE, unit_set)
+        # a log axis cannot show zero: leave such points out
+        return np.where(values > 0.0, converted, np.nan)
+
+    figure = Figure(figsize=(8.0, 6.0), layout="constrained")
+    upper, lower = figure.subplots(2, 1, sharex=True)
+    upper.plot(time, pressure(series.total_pressure), label="chamber (total)", color="black")
+    upper.plot(time, pressure(series.air_pressure), label="air", color="tab:blue", ls="--")
+    upper.plot(time, pressure(series.vapor_pressure), label="vapor", color="tab:orange", ls="--")
+    upper.plot(
+        time,
+        pressure(series.product_vapor_pressure),
+        label="product vapor pressure",
+        color="tab:red",
+        ls=":",
+    )
+    upper.set_yscale("log")
+    upper.set_ylabel(f"pressure [{pressure_unit}]")
+    upper.legend(loc="upper right", fontsize="small")
+    upper.grid(True, which="both", alpha=0.3)
+    lower.plot(
+        time,
+        convert_from_si(series.product_temperature, Dimension.TEMPERATURE, unit_set),
+        color="tab:green",
+        label="product",
+    )
+    lower.set_ylabel(f"product temperature [{temperature_unit}]")
+    lower.set_xlabel(f"time [{time_unit}]")
+    lower.grid(True, alpha=0.3)
+    scale = float(series.time[-1] / time[-1]) if time.size and time[-1] > 0 else 1.0
+    for event in result.events:
+        label = _EVENT_LABELS.get(event.name)
+        if label is None:
+            continue
+        at = event.time / scale
+        for axis in (upper, lower):
+            axis.axvline(at, color="grey", lw=0.8, ls="-.")
+        lower.annotate(
+            label,
+            xy=(at, 1.0),
+            xycoords=("data", "axes fraction"),
+            rotation=90,
+            va="top",
+            ha="right",
+            fontsize="x-small",
+            color="dimgrey",
+        )
+    figure.suptitle("Vacuum chamber simulation")
+    buffer = io.BytesIO()
+    metadata = {"Date": None} if kind == "svg" else None
+    figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
+    return buffer.getvalue()

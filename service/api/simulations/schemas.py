@@ -1,0 +1,367 @@
+"""Request/response pair of the vacuum-chamber simulation.
+
+Every numeric input is a single value: a number in its default unit, a string with a unit
+(`"250 m3/h"`, `"0.05 mbar*L/s"`, `"-40 degC"`) or `{"value", "unit"}`. Results come as
+`{"value"|"values", "unit"}` in the unit set of `output_units`; the time series as
+`values` arrays of equal length.
+"""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import Field
+
+from service.api.balances.schemas import CompanionInput, CompositionInput, SoluteInput
+from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.units import UnitSet
+
+__all__ = [
+    "ChamberInput",
+    "ChamberStatesOut",
+    "CondenserInput",
+    "HeatGainRateInput",
+    "MassEnergyBalanceOut",
+    "ProductInput",
+    "PumpInput",
+    "ScheduleCheckOut",
+    "ScheduleLimitInput",
+    "SimulationEventOut",
+    "SimulationSummaryOut",
+    "SpeedPointInput",
+    "VacuumChamberSimulationCreate",
+    "VacuumChamberSimulationPublic",
+]
+
+_ONE_VALUE = (
+    'A single value: a number in the default unit, a string with a unit (`"20 degC"`) or '
+    '`{"value", "unit"}`.'
+)
+_OUTPUT_UNITS = (
+    "Unit set of the results: `SI` (K, Pa, kg, J, W, s, kg/s, m3/s), `engineering` (degC, "
+    "kPa, kg, kJ, kW, s, kg/h, m3/h) or `US` (degF, psi absolute, lb, Btu, Btu/h, s, lb/h, "
+    "ft3/min)."
+)
+
+
+def _described(text: str) -> str:
+    return f"{text} {_ONE_VALUE}"
+
+
+# -- inputs ----------------------------------------------------------------------------------
+
+
+class ChamberInput(ApiModel):
+    """The chamber: its free gas volume, the air in it at the start, its leak."""
+
+    free_volume: QuantityInput = Field(
+        description=_described("Gas volume (chamber minus load). Default unit m3; > 0.")
+    )
+    initial_pressure: QuantityInput = Field(
+        101325.0,
+        description=_described(
+            "Air pressure at the start (absolute). Default unit Pa; > 0, at most 2 bar."
+        ),
+    )
+    temperature: QuantityInput = Field(
+        293.15,
+        description=_described(
+            "Temperature of the chamber gas and walls and of the air leaking in. Default "
+            "unit K; 243.15 K to 373.15 K."
+        ),
+    )
+    leak_rate: QuantityInput = Field(
+        0.0,
+        description=_described(
+            'Air leak throughput. Default unit Pa*m3/s; `"0.5 mbar*L/s"` works '
+            "(1 mbar*L/s = 0.1 Pa*m3/s); >= 0."
+        ),
+    )
+    initial_vapor_pressure: QuantityInput = Field(
+        0.0,
+        description=_described("Water vapor partial pressure at the start. Default unit Pa; >= 0."),
+    )
+
+
+class SpeedPointInput(ApiModel):
+    """One point of the pump's speed curve."""
+
+    pressure: QuantityInput = Field(description=_described("Inlet pressure. Default unit Pa; > 0."))
+    speed: QuantityInput = Field(
+        description=_described('Volume flow at that pressure. Default unit m3/s (`"m3/h"`); >= 0.')
+    )
+
+
+class PumpInput(ApiModel):
+    """The vacuum pump: effective speed S_eff(p) = S(p) (1 - p_ult/p)."""
+
+    nominal_speed: QuantityInput = Field(
+        description=_described('Nominal volume flow. Default unit m3/s (`"250 m3/h"`); > 0.')
+    )
+    ultimate_pressure: QuantityInput = Field(
+        0.0,
+        description=_described(
+            "Ultimate pressure: the effective speed falls to zero there. Default unit Pa; "
+            ">= 0, below the initial pressure. Give 0 with a measured speed curve that "
+            "already falls off."
+        ),
+    )
+    speed_curve: list[SpeedPointInput] | None = Field(
+        None,
+        min_length=2,
+        max_length=100,
+        description="Speed against pressure (pressures increasing), interpolated linearly in "
+        "ln p and held constant beyond its ends; replaces `nominal_speed` where given.",
+    )
+
+
+class CondenserInput(ApiModel):
+    """A condenser (cold trap) in the chamber."""
+
+    surface_temperature: QuantityInput = Field(
+        description=_described("Surface temperature. Default unit K; 173.15 K to 273.16 K.")
+    )
+    vapor_conductance: QuantityInput = Field(
+        description=_described(
+            "Volume flow of chamber vapor it takes in (its pumping speed for vapor). Default "
+            "unit m3/s; > 0. An ideal cold surface of area A takes A sqrt(R T / (2 pi)), "
+            "about 147 m3/s per m2 at 20 degC."
+        )
+    )
+    ice_capacity: QuantityInput | None = Field(
+        None, description=_described("Ice it holds. Default unit kg; > 0. Omit for no limit.")
+    )
+    refrigeration_capacity: QuantityInput | None = Field(
+        None,
+        description=_described("Refrigeration capacity. Default unit W; > 0. Omit for no limit."),
+    )
+
+
+class ProductInput(ApiModel):
+    """The load: its water and non-water part, and how it evaporates."""
+
+    mass: QuantityInput = Field(description=_described("Initial mass. Default unit kg; > 0."))
+    initial_temperature: QuantityInput = Field(
+        description=_described(
+            "Initial temperature. Default unit K; from the freezing onset to 373.15 K."
+        )
+    )
+    water_fraction: QuantityInput = Field(
+        1.0,
+        description=_described(
+            "Mass fraction of water (without `composition`). Default unit 1; above 0, at most 1."
+        ),
+    )
+    solids_specific_heat: QuantityInput = Field(
+        0.0,
+        description=_described(
+            "Specific heat of the non-water part (without `composition`). Default unit "
+            "J/(kg*K); 0 to 10000."
+        ),
+    )
+    composition: CompositionInput | None = Field(
+        None,
+        description="Proximate composition instead of `water_fraction` and "
+        "`solids_specific_heat` (single values only).",
+    )
+    solute: SoluteInput | None = Field(
+        None,
+        description="Dissolved solute (single values only): part of the non-water mass; its "
+        "heat is in the solids' specific heat, so `specific_heat` is not taken here.",
+    )
+    evaporation: Literal["equilibrium", "kinetic"] = Field(
+        "equilibrium",
+        description="`equilibrium`: the product boils once the chamber reaches its vapor "
+        "pressure and holds the chamber there. `kinetic`: Hertz-Knudsen-Langmuir flux "
+        "alpha A (p_eq - p_v) / sqrt(2 pi R T), needs `exposed_area` and "
+        "`evaporation_coefficient`.",
+    )
+    exposed_area: QuantityInput | None = Field(
+        None, description=_described("Evaporating area (kinetic). Default unit m2; > 0.")
+    )
+    evaporation_coefficient: QuantityInput | None = Field(
+        None, description=_described("Evaporation coefficient alpha (kinetic), 0 < alpha <= 1.")
+    )
+
+
+class HeatGainRateInput(ApiModel):
+    """Heat flowing into the product: power + conductance (surroundings - product)."""
+
+    power: QuantityInput = Field(
+        0.0, description=_described("Constant heat flow (negative cools). Default unit W.")
+    )
+    conductance: QuantityInput = Field(
+        0.0, description=_described("UA to the surroundings. Default unit W/K; >= 0.")
+    )
+    surroundings_temperature: QuantityInput | None = Field(
+        None,
+        description=_described("Default unit K; omitted means the chamber temperature."),
+    )
+
+
+class ScheduleLimitInput(ApiModel):
+    """The product at or below `temperature` by `time`."""
+
+    time: QuantityInput = Field(
+        description=_described('Time from the start of pumping. Default unit s (`"30 min"`).')
+    )
+    temperature: QuantityInput = Field(description=_described("Limit. Default unit K."))
+
+
+class VacuumChamberSimulationCreate(ApiModel):
+    """A vacuum chamber with pump, optional condenser and a product, simulated over time."""
+
+    chamber: ChamberInput = Field(
+        description="The chamber: free volume, initial air pressure and temperature, air leak."
+    )
+    pump: PumpInput = Field(
+        description="The vacuum pump: nominal volume flow, optional speed curve, ultimate pressure."
+    )
+    product: ProductInput = Field(
+        description="The load: mass, initial temperature, specific heat or composition, solute, "
+        "evaporation model."
+    )
+    condenser: CondenserInput | None = Field(None, description="Omit for none.")
+    companions: list[CompanionInput] = Field(
+        default_factory=list,
+        max_length=20,
+        description="Masses at the product temperature (racks, trays; single values only).",
+    )
+    heat_gain: HeatGainRateInput | None = Field(
+        None, description="Heat gained by the product; adiabatic if omitted."
+    )
+    end_time: QuantityInput = Field(
+        description=_described('Simulated time at most. Default unit s (`"2 h"`); up to 30 days.')
+    )
+    target_temperature: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Stop when the product reaches it. Default unit K; below the initial temperature, "
+            "at least 173.15 K."
+        ),
+    )
+    schedule: list[ScheduleLimitInput] = Field(
+        default_factory=list, max_length=100, description="Cooling schedule to check."
+    )
+    series_points: int = Field(
+        200, ge=10, le=5000, description="Points of the time series (plus one per event)."
+    )
+    output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
+
+
+# -- outputs ---------------------------------------------------------------------------------
+
+
+class ChamberStatesOut(ApiModel):
+    """Chamber and product states: `values` along the series, `value` at an event."""
+
+    time: QuantityOutput = Field(description="From the start of pumping (SI: s).")
+    total_pressure: QuantityOutput = Field(description="Chamber pressure (SI: Pa).")
+    air_pressure: QuantityOutput = Field(description="Air partial pressure (SI: Pa).")
+    vapor_pressure: QuantityOutput = Field(description="Vapor partial pressure (SI: Pa).")
+    product_temperature: QuantityOutput = Field(description="(SI: K).")
+    product_vapor_pressure: QuantityOutput = Field(
+        description="Equilibrium vapor pressure over the product (SI: Pa)."
+    )
+    evaporated_mass: QuantityOutput = Field(description="Water the product lost (SI: kg).")
+    ice_fraction: QuantityOutput = Field(description="Ice mass / initial water mass (unit 1).")
+    evaporation_rate: QuantityOutput = Field(
+        description="Vapor leaving the product, negative when condensing onto it (SI: kg/s)."
+    )
+    pump_volume_flow: QuantityOutput = Field(
+        description="Effective pumping speed S_eff(p) (SI: m3/s)."
+    )
+    vapor_mass_flow_to_pump: QuantityOutput = Field(description="(SI: kg/s).")
+    vapor_volume_flow_to_pump: QuantityOutput = Field(
+        description="The vapor's share of the volume flow at chamber pressure (SI: m3/s)."
+    )
+    vapor_mass_flow_to_condenser: QuantityOutput = Field(description="(SI: kg/s).")
+    vapor_volume_flow_to_condenser: QuantityOutput = Field(
+        description="Captured vapor as volume at chamber pressure (SI: m3/s)."
+    )
+    condenser_load: QuantityOutput = Field(description="Heat the condenser removes (SI: W).")
+    condenser_ice: QuantityOutput = Field(description="Ice on the condenser (SI: kg).")
+    heat_gain_rate: QuantityOutput = Field(description="Heat into the product (SI: W).")
+
+
+class SimulationEventOut(ApiModel):
+    """Something that happened, when, and the state then."""
+
+    name: str = Field(
+        description="`flash-point`, `boiling-stops`, `boiling-resumes`, `freezing-starts`, "
+        "`fully-frozen`, `target-reached`, `end-time`, `condenser-capacity-exceeded`, "
+        "`schedule-limit-missed`, `model-range-left` or `water-exhausted`."
+    )
+    time: QuantityOutput = Field(description="(SI: s).")
+    detail: str
+    state: ChamberStatesOut
+
+
+class ScheduleCheckOut(ApiModel):
+    """One schedule limit and whether the product met it."""
+
+    time: QuantityOutput
+    temperature_limit: QuantityOutput
+    product_temperature: QuantityOutput | None = Field(
+        description="At `time`; null when the simulation ended before (not evaluated)."
+    )
+    met: bool | None = Field(description="Null when not evaluated.")
+
+
+class SimulationSummaryOut(ApiModel):
+    """Headline numbers."""
+
+    end_reason: str = Field(
+        description="`end-time`, `target-reached`, `model-range-left` or `water-exhausted`."
+    )
+    end_time: QuantityOutput
+    flash_time: QuantityOutput | None = Field(description="Null when not reached.")
+    freezing_start_time: QuantityOutput | None
+    fully_frozen_time: QuantityOutput | None
+    target_time: QuantityOutput | None
+    final_temperature: QuantityOutput
+    final_pressure: QuantityOutput
+    evaporated_mass: QuantityOutput
+    evaporated_fraction: QuantityOutput = Field(description="Of the initial water (unit 1).")
+    ice_mass: QuantityOutput
+    vapor_to_pump: QuantityOutput
+    vapor_to_condenser: QuantityOutput
+    condenser_energy: QuantityOutput
+    peak_condenser_load: QuantityOutput = Field(description="Over the series points.")
+    peak_vapor_mass_flow_to_pump: QuantityOutput = Field(description="Over the series points.")
+    peak_evaporation_rate: QuantityOutput = Field(description="Over the series points.")
+    schedule_met: bool | None = Field(description="Null without a schedule.")
+    solver_steps: int
+    right_hand_side_evaluations: int
+
+
+class MassEnergyBalanceOut(ApiModel):
+    """Closure of water mass and product energy (the integration's bookkeeping)."""
+
+    initial_water: QuantityOutput
+    final_water: QuantityOutput
+    initial_chamber_vapor: QuantityOutput
+    final_chamber_vapor: QuantityOutput
+    vapor_to_pump: QuantityOutput
+    vapor_to_condenser: QuantityOutput
+    mass_residual: QuantityOutput
+    relative_mass_residual: QuantityOutput
+    initial_energy: QuantityOutput
+    final_energy: QuantityOutput
+    vapor_enthalpy: QuantityOutput = Field(
+        description="Enthalpy carried by the vapor leaving the product."
+    )
+    heat_gained: QuantityOutput
+    energy_residual: QuantityOutput
+    relative_energy_residual: QuantityOutput
+
+
+class VacuumChamberSimulationPublic(Envelope):
+    """Events, time series, summary and balances of one simulation."""
+
+    summary: SimulationSummaryOut
+    events: list[SimulationEventOut]
+    series: ChamberStatesOut
+    schedule: list[ScheduleCheckOut]
+    balance: MassEnergyBalanceOut
+    model_references: list[str] = Field(description="Published basis of the model.")

@@ -1,0 +1,594 @@
+"""The formulations' own uncertainty statements, as a lookup table.
+
+Each :class:`StatedUncertainty` is one statement of the relative uncertainty of
+one quantity over a temperature range, with its coverage, its text, the release and
+section it comes from (``section``) and how the value got here (``basis``):
+
+- ``"release text"``: read from the release;
+- ``"from memory"``: recalled from the release or its companion article, NOT read
+  from the text while writing this table. These values await verification against
+  the release before they are quoted as IAPWS statements;
+- ``"derived"``: computed by tripoint from other entries and from deviations
+  measured in tests/core/test_if97_vs_reference.py; the statement says how.
+
+At the time of writing every IAPWS-95, R10-06 and R14-08 entry is ``"from memory"``
+(the release texts could not be read from here) and every IAPWS-IF97 entry is
+``"derived"``. Relative uncertainties are fractions (0.00025 means 0.025 %).
+IAPWS states its uncertainty estimates as expanded uncertainties with coverage
+factor k = 2 (about 95 % confidence); ``coverage`` repeats what each entry assumes.
+"""
+
+from __future__ import annotations
+
+import functools
+from dataclasses import dataclass
+from typing import Final, Literal
+
+import numpy as np
+from numpy.typing import ArrayLike, NDArray
+
+from service.core.errors import InvalidInputError, OutOfRangeError
+from service.core.properties.phase import FloatArray
+from service.core.properties.sources import IAPWS_95, IAPWS_IF97, ICE_IH, MELTING_AND_SUBLIMATION
+from service.core.validation import broadcast_pair, finite_array
+
+__all__ = [
+    "STATEMENTS",
+    "Basis",
+    "StatedUncertainty",
+    "UncertaintyLookup",
+    "covered_quantities",
+    "stated_uncertainty",
+    "statement_at",
+]
+
+Basis = Literal["release text", "from memory", "derived"]
+
+_K2_RECALLED: Final = "k = 2 (expanded, about 95 %) assumed: IAPWS convention, coverage recalled"
+_AMBIENT_PRESSURE_LIMIT: Final = 1.0e6  # Pa; "ambient pressure" statements are not used above
+
+
+@dataclass(frozen=True)
+class StatedUncertainty:
+    """One stated relative uncertainty of one quantity over a temperature range.
+
+    Attributes
+    ----------
+    formulation : str
+        Short name of the formulation (``PropertySource.formulation``).
+    quantity : str
+        Full-word quantity name, e.g. ``"saturation_pressure"``.
+    minimum_temperature, maximum_temperature : float
+        Temperature range the statement covers, K (inclusive).
+    relative : float
+        Relative uncertainty as a fraction (not percent).
+    coverage : str
+        Coverage of the uncertainty (k = 2 expanded unless stated otherwise).
+    statement : str
+        The statement, quoted or paraphrased, with any qualification.
+    section : str
+        Release and section the statement comes from.
+    basis : {"release text", "from memory", "derived"}
+        How the value got into this table (see module docstring).
+    maximum_pressure : float or None
+        Highest pressure the statement covers, Pa; ``None`` if not limited.
+    """
+
+    formulation: str
+    quantity: str
+    minimum_temperature: float
+    maximum_temperature: float
+    relative: float
+    coverage: str
+    statement: str
+    section: str
+    basis: Basis
+    maximum_pressure: float | None = None
+
+
+@dataclass(frozen=True)
+class UncertaintyLookup:
+    """Result of :func:`stated_uncertainty` for an array of states.
+
+    Attributes
+    ----------
+    relative_uncertainty : ndarray
+        Relative uncertainty (fraction) per state, float64, shape of the input.
+    statement_index : ndarray
+        Index into ``statements`` of the statement applied to each state.
+    statements : tuple of StatedUncertainty
+        The statements that apply to at least one state, in table order.
+    """
+
+    relative_uncertainty: FloatArray
+    statement_index: NDArray[np.intp]
+    statements: tuple[StatedUncertainty, ...]
+
+
+_IAPWS95_SECTION: Final = (
+    "IAPWS R6-95(2018), uncertainty estimates (section number not verified); "
+    "W. Wagner and A. Pruss, J. Phys. Chem. Ref. Data 31, 387 (2002)"
+)
+_ICE_SECTION: Final = "IAPWS R10-06(2009), uncertainty estimates (section number not verified)"
+_CURVES_SECTION: Final = "IAPWS R14-08(2011), uncertainty estimates (section number not verified)"
+_IF97_SECTION: Final = (
+    "derived by tripoint from IAPWS R6-95(2018) entries and measured IF97 - IAPWS-95 "
+    "deviations (tests/core/test_if97_vs_reference.py); IAPWS R7-97(2012) uncertainty "
+    "statements not read"
+)
+
+STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
+    # ----------------------------------------------------------------- IAPWS-95
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "saturation_pressure",
+        273.16,
+        647.096,
+        0.00025,
+        _K2_RECALLED,
+        "Vapor pressure from IAPWS-95 (phase-equilibrium condition): relative "
+        "uncertainty 0.025 % from the triple point to the critical point. Recalled, "
+        "not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "saturated_liquid_density",
+        273.16,
+        373.15,
+        0.000001,
+        _K2_RECALLED,
+        "Liquid density near ambient pressure: relative uncertainty 0.0001 %; applied "
+        "by tripoint to saturated liquid up to 373.15 K, where p_sat <= 0.1 MPa. "
+        "Recalled, not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "saturated_liquid_density",
+        373.15,
+        623.15,
+        0.0002,
+        _K2_RECALLED,
+        "Liquid density in the main liquid region: relative uncertainty 0.001 % to "
+        "0.02 %; the upper value is used. Recalled, not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "saturated_vapor_density",
+        273.16,
+        623.15,
+        0.0005,
+        _K2_RECALLED,
+        "Vapor density in the gas region: relative uncertainty 0.03 % to 0.05 %; the "
+        "upper value is used for saturated vapor. Recalled, not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "liquid_density",
+        273.15,
+        373.124,
+        0.000001,
+        _K2_RECALLED,
+        "Liquid density at ambient pressure: relative uncertainty at most 0.0001 %. "
+        "Used only up to 1 MPa. Recalled, not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+        _AMBIENT_PRESSURE_LIMIT,
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "liquid_isobaric_heat_capacity",
+        273.15,
+        623.15,
+        0.001,
+        _K2_RECALLED,
+        "Isobaric heat capacity in the main liquid region: relative uncertainty "
+        "0.1 %. Recalled, not read from the release.",
+        _IAPWS95_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "enthalpy_of_vaporization",
+        273.16,
+        623.15,
+        0.00056,
+        _K2_RECALLED,
+        "No direct statement used. Clapeyron equation, h'' - h' = T (v'' - v') dp_s/dT: "
+        "the p_s (0.025 %) and saturated vapor density (0.05 %) entries added in "
+        "quadrature, taking the relative uncertainty of dp_s/dT equal to that of p_s "
+        "(an approximation).",
+        _IAPWS95_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_95.formulation,
+        "vapor_enthalpy",
+        273.16,
+        623.15,
+        0.00056,
+        _K2_RECALLED,
+        "No direct statement used. h'' = h' + (h'' - h') with the reference state at "
+        "the triple-point liquid; the enthalpy of vaporization entry is applied to h'' "
+        "(conservative while h' >= 0, i.e. from the triple point up).",
+        _IAPWS95_SECTION,
+        "derived",
+    ),
+    # ----------------------------------------------------------------- IAPWS-IF97
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "saturation_pressure",
+        273.16,
+        623.15,
+        0.00043,
+        _K2_RECALLED,
+        "IAPWS-95 p_s entry (0.025 %) plus the largest measured |Eq. 30 - IAPWS-95| "
+        "deviation, 0.0176 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "saturated_liquid_density",
+        273.16,
+        373.15,
+        0.000017,
+        _K2_RECALLED,
+        "IAPWS-95 entry (0.0001 %) plus the largest measured region 1 - IAPWS-95 "
+        "deviation at saturation up to 373.15 K, 0.0016 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "saturated_liquid_density",
+        373.15,
+        623.15,
+        0.00024,
+        _K2_RECALLED,
+        "IAPWS-95 entry (0.02 %) plus the largest measured region 1 - IAPWS-95 "
+        "deviation at saturation, 0.0031 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "saturated_vapor_density",
+        273.16,
+        623.15,
+        0.00092,
+        _K2_RECALLED,
+        "IAPWS-95 entry (0.05 %) plus the largest measured region 2 - IAPWS-95 "
+        "deviation at saturation, 0.042 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "liquid_density",
+        273.15,
+        373.124,
+        0.000017,
+        _K2_RECALLED,
+        "IAPWS-95 ambient-pressure entry (0.0001 %) plus the largest measured region 1 - "
+        "IAPWS-95 density deviation at 0.1 MPa and 1 MPa up to 373.12 K, 0.0016 %, added "
+        "linearly. Used only up to 1 MPa.",
+        _IF97_SECTION,
+        "derived",
+        _AMBIENT_PRESSURE_LIMIT,
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "liquid_isobaric_heat_capacity",
+        273.16,
+        623.15,
+        0.0025,
+        _K2_RECALLED,
+        "IAPWS-95 entry (0.1 %) plus the largest measured region 1 - IAPWS-95 "
+        "deviation along the saturation line, 0.15 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    StatedUncertainty(
+        IAPWS_IF97.formulation,
+        "enthalpy_of_vaporization",
+        273.16,
+        623.15,
+        0.0009,
+        _K2_RECALLED,
+        "IAPWS-95 entry (0.056 %) plus the largest measured IF97 - IAPWS-95 deviation "
+        "of h'' - h', 0.034 %, added linearly.",
+        _IF97_SECTION,
+        "derived",
+    ),
+    # ----------------------------------------------------------------- R10-06 ice Ih
+    StatedUncertainty(
+        ICE_IH.formulation,
+        "ice_density",
+        0.0,
+        273.16,
+        0.0002,
+        _K2_RECALLED,
+        "Density of ice Ih at normal pressure: relative uncertainty about 0.02 %. "
+        "Recalled with low confidence, not read from the release.",
+        _ICE_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        ICE_IH.formulation,
+        "ice_isobaric_heat_capacity",
+        0.0,
+        273.16,
+        0.02,
+        _K2_RECALLED,
+        "Isobaric heat capacity of ice Ih: relative uncertainty about 2 %. Recalled "
+        "with low confidence, not read from the release.",
+        _ICE_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        ICE_IH.formulation,
+        "ice_enthalpy",
+        0.0,
+        273.16,
+        0.001,
+        _K2_RECALLED,
+        "Enthalpy of ice Ih relative to the IAPWS reference state, dominated by the "
+        "enthalpy of melting at the triple point: relative uncertainty about 0.1 %. "
+        "Recalled with low confidence, not read from the release.",
+        _ICE_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        ICE_IH.formulation,
+        "enthalpy_of_sublimation",
+        0.0,
+        273.16,
+        0.001,
+        _K2_RECALLED,
+        "Enthalpy of sublimation from R10-06 with IAPWS-95: relative uncertainty about "
+        "0.1 %. Recalled with low confidence, not read from the release.",
+        _ICE_SECTION,
+        "from memory",
+    ),
+    # ----------------------------------------------------------------- R14-08 curves
+    StatedUncertainty(
+        MELTING_AND_SUBLIMATION.formulation,
+        "sublimation_pressure",
+        190.0,
+        273.16,
+        0.005,
+        _K2_RECALLED,
+        "Sublimation pressure of ice Ih, 190 K to the triple point: relative "
+        "uncertainty at most about 0.5 %, smaller near the triple point. Recalled with "
+        "low confidence, not read from the release.",
+        _CURVES_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        MELTING_AND_SUBLIMATION.formulation,
+        "sublimation_pressure",
+        50.0,
+        190.0,
+        0.05,
+        _K2_RECALLED,
+        "Sublimation pressure of ice Ih below 190 K: uncertainty grows to several "
+        "percent; 5 % is used. Recalled with low confidence, not read from the release.",
+        _CURVES_SECTION,
+        "from memory",
+    ),
+    StatedUncertainty(
+        MELTING_AND_SUBLIMATION.formulation,
+        "melting_pressure",
+        251.165,
+        273.16,
+        0.01,
+        _K2_RECALLED,
+        "Melting pressure of ice Ih: relative uncertainty about 1 % of the pressure "
+        "(smaller in absolute terms near the triple point). Recalled with low "
+        "confidence, not read from the release.",
+        _CURVES_SECTION,
+        "from memory",
+    ),
+)
+"""Every uncertainty statement tripoint knows, in lookup order."""
+
+
+def covered_quantities() -> tuple[tuple[str, str], ...]:
+    """Return the (formulation, quantity) pairs that have at least one statement.
+
+    Examples
+    --------
+    >>> ("IAPWS-95", "saturation_pressure") in covered_quantities()
+    True
+    """
+    pairs: dict[tuple[str, str], None] = {}
+    for entry in STATEMENTS:
+        pairs[(entry.formulation, entry.quantity)] = None
+    return tuple(pairs)
+
+
+def stated_uncertainty(
+    formulation: str,
+    quantity: str,
+    temperature: ArrayLike,
+    pressure: ArrayLike | None = None,
+) -> UncertaintyLookup:
+    """Look up the stated relative uncertainty of a quantity at given temperatures.
+
+    Parameters
+    ----------
+    formulation : str
+        ``PropertySource.formulation`` of the formulation, e.g. ``"IAPWS-95"``.
+    quantity : str
+        Quantity name; see :func:`covered_quantities`.
+    temperature : array_like
+        Temperature, K, within the ranges of the statements for that quantity.
+    pressure : array_like, optional
+        Pressure, Pa, broadcast against ``temperature``; checked only against
+        statements limited in pressure (e.g. liquid density at ambient pressure).
+
+    Returns
+    -------
+    UncertaintyLookup
+        Relative uncertainty (fraction) per state and the statements applied. Where
+        two statements meet at a boundary temperature, the first in table order
+        (the lower range) applies.
+
+    Raises
+    ------
+    InvalidInputError
+        Unknown formulation or quantity, or a non-finite temperature or pressure.
+    OutOfRangeError
+        A temperature no statement covers, or a pressure above a statement's limit.
+
+    Notes
+    -----
+    The values are the formulations' own statements (or tripoint's derivations
+    from them); check ``basis`` of each statement before quoting one as IAPWS's.
+
+    References
+    ----------
+    IAPWS R6-95(2018); IAPWS R7-97(2012); IAPWS R10-06(2009); IAPWS R14-08(2011).
+
+    Examples
+    --------
+    >>> lookup = stated_uncertainty("IAPWS-95", "saturation_pressure", [300.0, 400.0])
+    >>> lookup.relative_uncertainty.tolist()
+    [0.00025, 0.00025]
+    """
+    table = _table_for(formulation, quantity)
+    entries = table.entries
+    t = finite_array(temperature, "temperature")
+    p = None if pressure is None else finite_array(pressure, "pressure")
+    if p is not None:
+        t, p = broadcast_pair(t, p, "pressure")
+
+    # First statement, in table order, whose range holds each temperature.
+    flat = t.reshape(-1, 1)
+    inside = (flat >= table.minimum_temperature) & (flat <= table.maximum_temperature)
+    covered = inside.any(axis=1)
+    index = np.argmax(inside, axis=1).reshape(t.shape)
+    if not covered.all():
+        first = int(np.flatnonzero(~covered)[0])
+        raise OutOfRangeError(
+            "temperature",
+            float(t.reshape(-1)[first]),
+            float(table.minimum_temperature.min()),
+            float(table.maximum_temperature.max()),
+            "K",
+            f"no stated uncertainty of {formulation} {quantity.replace('_', ' ')} covers this "
+            "temperature",
+            first,
+        )
+    if p is not None:
+        limits = table.maximum_pressure
+        over = np.flatnonzero(p > limits[index])
+        if over.size:
+            first = int(over[0])
+            raise OutOfRangeError(
+                "pressure",
+                float(p.reshape(-1)[first]),
+                None,
+                float(limits[index.reshape(-1)[first]]),
+                "Pa",
+                f"the stated uncertainty of {formulation} {quantity.replace('_', ' ')} "
+                "applies at ambient pressure only",
+                first,
+            )
+
+    used = np.flatnonzero(np.bincount(index.reshape(-1), minlength=len(entries)))
+    remap = np.full(len(entries), -1, dtype=np.intp)
+    remap[used] = np.arange(used.size, dtype=np.intp)
+    return UncertaintyLookup(
+        relative_uncertainty=np.asarray(table.relative[index], dtype=np.float64),
+        statement_index=np.asarray(remap[index], dtype=np.intp),
+        statements=tuple(entries[int(k)] for k in used),
+    )
+
+
+def statement_at(
+    formulation: str, quantity: str, temperature: float, pressure: float | None = None
+) -> StatedUncertainty:
+    """The statement that applies to one state.
+
+    What :func:`stated_uncertainty` applies to a single state (the first statement
+    in table order whose range holds it), found without arrays.
+
+    Parameters
+    ----------
+    formulation, quantity : str
+        As :func:`stated_uncertainty`.
+    temperature : float
+        Temperature, K.
+    pressure : float, optional
+        Pressure, Pa, as in :func:`stated_uncertainty`.
+
+    Returns
+    -------
+    StatedUncertainty
+
+    Raises
+    ------
+    InvalidInputError, OutOfRangeError
+        As :func:`stated_uncertainty` (no statement covers the temperature, or it is
+        not finite).
+
+    Examples
+    --------
+    >>> statement_at("IAPWS-95", "saturation_pressure", 300.0).relative
+    0.00025
+    """
+    for entry in _table_for(formulation, quantity).entries:
+        if entry.minimum_temperature <= temperature <= entry.maximum_temperature:
+            limit = entry.maximum_pressure
+            if limit is None or (pressure is not None and pressure <= limit):
+                return entry
+            break
+    # Not covered, NaN, or a pressure to check: the array lookup decides, or raises.
+    return stated_uncertainty(formulation, quantity, temperature, pressure).statements[0]
+
+
+@dataclass(frozen=True)
+class _QuantityTable:
+    """The statements of one (formulation, quantity), with their ranges as arrays."""
+
+    entries: tuple[StatedUncertainty, ...]
+    minimum_temperature: FloatArray
+    maximum_temperature: FloatArray
+    maximum_pressure: FloatArray
+    relative: FloatArray
+
+
+@functools.cache
+def _table_for(formulation: str, quantity: str) -> _QuantityTable:
+    """Statements of ``quantity`` in ``formulation``, built once per pair (raises if none)."""
+    entries = tuple(e for e in STATEMENTS if e.formulation == formulation)
+    if not entries:
+        known = sorted({e.formulation for e in STATEMENTS})
+        raise InvalidInputError(
+            "formulation", f"no uncertainty statements for {formulation!r}; known: {known}"
+        )
+    entries = tuple(e for e in entries if e.quantity == quantity)
+    if not entries:
+        known = sorted({q for f, q in covered_quantities() if f == formulation})
+        raise InvalidInputError(
+            "quantity",
+            f"no uncertainty statement of {formulation} for {quantity!r}; known: {known}",
+        )
+    return _QuantityTable(
+        entries=entries,
+        minimum_temperature=np.array([e.minimum_temperature for e in entries]),
+        maximum_temperature=np.array([e.maximum_temperature for e in entries]),
+        maximum_pressure=np.array(
+            [np.inf if e.maximum_pressure is None else e.maximum_pressure for e in entries]
+        ),
+        relative=np.array([e.relative for e in entries], dtype=np.float64),
+    )

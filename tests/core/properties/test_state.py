@@ -1,0 +1,128 @@
+"""State at (T, p): phase map and properties against independent references."""
+
+from __future__ import annotations
+
+import warnings
+
+import numpy as np
+import pytest
+from iapws import IAPWS95
+from iapws._iapws import _Ice
+
+from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
+from service.core.properties.state import state_at
+
+# (id, T K, p Pa, expected stable phase) -- phase diagram of water; boundaries from
+# IAPWS R14-08(2011) and the saturation curve of IAPWS R6-95(2018).
+PHASE_CASES = [
+    ("room-liquid", 293.15, 101_325.0, "liquid"),
+    ("steam-at-1-bar", 400.0, 100_000.0, "vapor"),
+    ("just-below-saturation", 373.124, 101_325.0, "liquid"),  # T_sat(1 atm) = 373.124 K
+    ("just-above-saturation", 373.125, 101_325.0, "vapor"),
+    ("ice-at-1-atm", 263.15, 101_325.0, "ice"),
+    ("frost-vapor", 253.15, 50.0, "vapor"),  # p_sub(253.15 K) is about 103 Pa
+    ("ice-near-frost-line", 253.15, 150.0, "ice"),
+    ("liquid-under-pressure", 268.0, 70e6, "liquid"),  # p_melt(268 K) = 61.6 MPa (R14-08 eq. 1)
+    ("ice-below-melting-pressure", 268.0, 55e6, "ice"),
+    ("supercritical", 700.0, 30e6, "supercritical"),
+    ("hot-gas", 700.0, 10e6, "vapor"),
+    ("compressed-liquid", 600.0, 30e6, "liquid"),
+]
+
+
+@pytest.mark.parametrize(
+    ("temperature", "pressure", "phase"),
+    [case[1:] for case in PHASE_CASES],
+    ids=[case[0] for case in PHASE_CASES],
+)
+def test_stable_phase(temperature: float, pressure: float, phase: str) -> None:
+    assert state_at(temperature, pressure).phase[0] == phase
+
+
+def test_liquid_and_vapor_match_iapws95() -> None:
+    # Source: iapws 1.5.5, class IAPWS95 (independent implementation of IAPWS-95).
+    cases = [(293.15, 101_325.0), (350.0, 5e6), (500.0, 1e5), (800.0, 20e6), (300.0, 1e3)]
+    temperatures = np.array([case[0] for case in cases])
+    pressures = np.array([case[1] for case in cases])
+    result = state_at(temperatures, pressures)
+    for index, (temperature, pressure) in enumerate(cases):
+        reference = IAPWS95(T=temperature, P=pressure / 1e6)
+        properties = result.properties
+        assert properties.density[index] == pytest.approx(reference.rho, rel=1e-9)
+        assert properties.specific_enthalpy[index] == pytest.approx(reference.h * 1e3, rel=1e-9)
+        assert properties.specific_entropy[index] == pytest.approx(reference.s * 1e3, rel=1e-8)
+        assert properties.specific_isobaric_heat_capacity[index] == pytest.approx(
+            reference.cp * 1e3, rel=1e-8
+        )
+
+
+def test_ice_matches_r10_06_reference() -> None:
+    # Source: iapws 1.5.5, iapws._iapws._Ice (independent implementation of R10-06).
+    result = state_at(253.15, 101_325.0)
+    reference = _Ice(253.15, 0.101325)
+    assert result.phase[0] == "ice"
+    assert result.properties.density[0] == pytest.approx(reference["rho"], rel=1e-12)
+    assert result.properties.specific_enthalpy[0] == pytest.approx(reference["h"] * 1e3, rel=1e-12)
+
+
+def test_metastable_liquid_on_request_matches_iapws95() -> None:
+    result = state_at(263.15, 101_325.0, phase="liquid")
+    assert bool(result.metastable[0])
+    assert [advisory.code for advisory in result.advisories] == ["metastable"]
+    with warnings.catch_warnings():
+        # iapws warns when it extrapolates below 273.15 K; that is expected here.
+        warnings.simplefilter("ignore")
+        reference = IAPWS95(T=263.15, P=0.101325)
+    # Source: iapws 1.5.5 IAPWS95, supercooled liquid at -10 degC, 1 atm.
+    assert result.properties.density[0] == pytest.approx(reference.rho, rel=1e-8)
+
+
+def test_if97_formulation_differs_within_its_consistency() -> None:
+    scientific = state_at(300.0, 1e6)
+    industrial = state_at(300.0, 1e6, formulation="IAPWS-IF97")
+    assert industrial.sources[0].formulation == "IAPWS-IF97"
+    # IF97 reproduces IAPWS-95 liquid density within about 0.001 % here (R7-97(2012) Sec. 5,
+    # consistency statement; from memory) -- a loose bound is used.
+    assert industrial.properties.density[0] == pytest.approx(
+        scientific.properties.density[0], rel=1e-4
+    )
+
+
+def test_batch_equals_scalar() -> None:
+    temperatures = np.array([250.0, 300.0, 450.0, 700.0])
+    pressures = np.array([1e5, 2e3, 5e5, 25e6])
+    batch = state_at(temperatures, pressures)
+    for index in range(temperatures.size):
+        single = state_at(temperatures[index], pressures[index])
+        assert single.phase[0] == batch.phase[index]
+        assert single.properties.density[0] == batch.properties.density[index]
+
+
+@pytest.mark.parametrize(
+    ("temperature", "pressure", "phase", "error"),
+    [
+        (20.0, 1e5, None, OutOfRangeError),
+        (1500.0, 1e5, None, OutOfRangeError),
+        (300.0, 0.0, None, OutOfRangeError),
+        (300.0, -5.0, None, OutOfRangeError),
+        (300.0, 2e8, None, OutOfRangeError),
+        (float("nan"), 1e5, None, InvalidInputError),
+        (280.0, 1e5, "ice", UnsupportedStateError),
+        (220.0, 1e5, "liquid", UnsupportedStateError),
+        (700.0, 30e6, "liquid", UnsupportedStateError),
+    ],
+    ids=[
+        "too-cold",
+        "too-hot",
+        "zero-pressure",
+        "negative-pressure",
+        "above-100-MPa",
+        "nan",
+        "superheated-ice",
+        "too-supercooled",
+        "supercritical-as-liquid",
+    ],
+)
+def test_errors(temperature: float, pressure: float, phase: str | None, error: type) -> None:
+    with pytest.raises(error):
+        state_at(temperature, pressure, phase=phase)  # type: ignore[arg-type]
