@@ -8,10 +8,10 @@
 
 FROM python:3.11-slim AS build
 WORKDIR /src
-COPY pyproject.toml ./
-# Dependencies first, in their own layer: rebuilt only when pyproject.toml changes.
-RUN python -c "import tomllib; print('\n'.join(tomllib.load(open('pyproject.toml', 'rb'))['project']['dependencies']))" > requirements.txt \
-    && pip wheel --no-cache-dir --wheel-dir /wheels -r requirements.txt
+COPY requirements.lock ./
+# Dependencies first, in their own layer, at the versions of the lock file (`make lock`
+# refreshes it): an image rebuilt next month has the same versions.
+RUN pip wheel --no-cache-dir --wheel-dir /wheels -r requirements.lock
 
 FROM python:3.11-slim AS runtime
 ENV PYTHONDONTWRITEBYTECODE=1 \

@@ -5,18 +5,21 @@ BIN := $(VENV)/bin
 HOST ?= 127.0.0.1
 PORT ?= 8000
 
-.PHONY: install install-test run test lint typecheck unit bench clean
+.PHONY: install install-test run test lint typecheck unit bench lock clean
 
 $(BIN)/python:
 	$(PYTHON) -m venv $(VENV)
 	$(BIN)/python -m pip install --quiet --upgrade pip
 
-$(VENV)/.installed: $(BIN)/python pyproject.toml
-	$(BIN)/python -m pip install --quiet -e .
+# Versions come from the lock files (requirements.lock: the service, which the Dockerfile
+# installs; requirements-dev.lock: the service with its test and bench extras). `make lock`
+# refreshes both from pyproject.toml.
+$(VENV)/.installed: $(BIN)/python pyproject.toml requirements-dev.lock
+	$(BIN)/python -m pip install --quiet -c requirements-dev.lock -e .
 	touch $@
 
 $(VENV)/.installed-test: $(VENV)/.installed
-	$(BIN)/python -m pip install --quiet -e ".[test,bench]"
+	$(BIN)/python -m pip install --quiet -c requirements-dev.lock -e ".[test,bench]"
 	touch $@
 
 install: $(VENV)/.installed
@@ -39,6 +42,14 @@ test: lint typecheck unit
 
 bench: install-test
 	$(BIN)/python bench/run_all.py
+
+LOCK := $(BIN)/uv pip compile pyproject.toml --universal --python-version 3.11 --no-header \
+	--annotation-style line --quiet --upgrade
+
+lock: $(BIN)/python
+	$(BIN)/python -m pip install --quiet uv
+	$(LOCK) -o requirements.lock
+	$(LOCK) --extra test --extra bench -o requirements-dev.lock
 
 clean:
 	rm -rf $(VENV) .pytest_cache .mypy_cache .ruff_cache
