@@ -30,12 +30,12 @@ from typing import Final, Literal, NamedTuple
 import numpy as np
 from numpy.typing import ArrayLike, NDArray
 
-from service.core.properties import iapws95_coefficients as coef
 from service.core.errors import (
     InvalidInputError,
     NotConvergedError,
     UnsupportedStateError,
 )
+from service.core.properties import iapws95_coefficients as coef
 from service.core.properties.constants import (
     CRITICAL_DENSITY,
     CRITICAL_PRESSURE,
