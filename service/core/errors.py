@@ -16,6 +16,10 @@ __all__ = [
     "OutOfRangeError",
     "TripointError",
     "UnsupportedStateError",
+    "describe_range",
+    "format_amount",
+    "range_hint",
+    "range_text",
 ]
 
 
@@ -36,9 +40,13 @@ class OutOfRangeError(TripointError, ValueError):
     minimum, maximum : float or None
         The valid range, in ``unit``; ``None`` where open-ended.
     unit : str
-        Unit of ``value``, ``minimum`` and ``maximum``.
+        Unit of ``value``, ``minimum`` and ``maximum`` (``"1"`` for a pure number).
     reason : str
         One sentence naming the formulation or model whose range this is.
+    index : int or None
+        Position of the offending element in an array input (None for one value).
+    exclusive_minimum : bool
+        Whether ``minimum`` itself is outside the range (``(0, 2e5]``).
     """
 
     variable: str
@@ -48,19 +56,79 @@ class OutOfRangeError(TripointError, ValueError):
     unit: str
     reason: str = ""
     index: int | None = None
+    exclusive_minimum: bool = False
 
     def __post_init__(self) -> None:
         super().__init__(str(self))
 
     def __str__(self) -> str:
-        low = "-inf" if self.minimum is None else f"{self.minimum:.10g}"
-        high = "+inf" if self.maximum is None else f"{self.maximum:.10g}"
         where = "" if self.index is None else f" (element {self.index})"
         text = (
-            f"{self.variable} = {self.value:.10g} {self.unit}{where} is outside "
-            f"the valid range [{low}, {high}] {self.unit}"
+            f"{self.variable} = {format_amount(self.value, self.unit)}{where} "
+            f"{describe_range(self.minimum, self.maximum, self.unit, self.exclusive_minimum)}"
         )
-        return f"{text}: {self.reason}" if self.reason else text
+        text = f"{text}: {self.reason}" if self.reason else text
+        hint = range_hint(self.value, self.unit)
+        return f"{text}. {hint}" if hint else text
+
+
+_DIMENSIONLESS = ("", "1")
+"""Unit labels of a pure number: printed without a unit."""
+
+
+def format_amount(value: float, unit: str, digits: int = 10) -> str:
+    """``value`` with its unit for a message (no unit for a pure number)."""
+    number = f"{value:.{digits}g}"
+    return number if unit in _DIMENSIONLESS else f"{number} {unit}"
+
+
+def range_text(
+    minimum: float | None,
+    maximum: float | None,
+    unit: str,
+    exclusive_minimum: bool = False,
+    digits: int = 10,
+) -> str:
+    """A valid range as text: ``[a, b] K``, an open bound shown open (``(0, 2e5] Pa``), a
+    one-sided range as ``>= a K`` or ``<= b K``; a pure number without a unit."""
+    suffix = "" if unit in _DIMENSIONLESS else f" {unit}"
+    low = None if minimum is None else f"{minimum:.{digits}g}"
+    high = None if maximum is None else f"{maximum:.{digits}g}"
+    if low is not None and high is not None:
+        return f"{'(' if exclusive_minimum else '['}{low}, {high}]{suffix}"
+    if low is not None:
+        return f"{'>' if exclusive_minimum else '>='} {low}{suffix}"
+    if high is not None:
+        return f"<= {high}{suffix}"
+    return "a range this input misses"
+
+
+def describe_range(
+    minimum: float | None,
+    maximum: float | None,
+    unit: str,
+    exclusive_minimum: bool = False,
+    digits: int = 10,
+) -> str:
+    """The verb phrase of a range message: ``is outside the valid range [a, b] K`` or,
+    one-sided, ``must be >= a K``."""
+    text = range_text(minimum, maximum, unit, exclusive_minimum, digits)
+    if minimum is not None and maximum is not None:
+        return f"is outside the valid range {text}"
+    if minimum is None and maximum is None:
+        return "is outside the valid range"
+    return f"must be {text}"
+
+
+def range_hint(value: float, unit: str) -> str:
+    """Advice for a refused value that suggests a common mistake (a gauge pressure)."""
+    if unit == "Pa" and value < 0:
+        return (
+            "tripoint takes absolute pressures; a negative pressure looks like a gauge "
+            "reading: add the local atmospheric pressure (101.325 kPa standard, or the "
+            "local barometer reading)"
+        )
+    return ""
 
 
 @dataclass

@@ -3,12 +3,22 @@
 from __future__ import annotations
 
 import numpy as np
-from numpy.typing import ArrayLike
+from numpy.typing import ArrayLike, NDArray
 
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.properties.phase import FloatArray
 
-__all__ = ["broadcast_pair", "finite_array", "require_within"]
+BoolArray = NDArray[np.bool_]
+
+__all__ = [
+    "BOUND_TOLERANCE",
+    "BoolArray",
+    "beyond_maximum",
+    "beyond_minimum",
+    "broadcast_pair",
+    "finite_array",
+    "require_within",
+]
 
 
 def finite_array(value: ArrayLike, variable: str) -> FloatArray:
@@ -33,6 +43,27 @@ def finite_array(value: ArrayLike, variable: str) -> FloatArray:
     return array
 
 
+BOUND_TOLERANCE = 1.0e-12
+"""Relative slack at a closed bound: a value that equals a documented bound in the unit
+the caller used (-30 degC, -22 degF) lands within a few rounding steps of the bound in SI
+(-30 degC is 243.14999999999998 K) and is accepted as on it."""
+
+
+def beyond_minimum(
+    value: FloatArray | float, minimum: FloatArray | float, exclusive: bool
+) -> BoolArray:
+    """Where ``value`` lies below ``minimum`` (at or below it when ``exclusive``), with
+    :data:`BOUND_TOLERANCE` slack at a closed bound."""
+    if exclusive:
+        return np.asarray(value <= minimum)
+    return np.asarray(value < minimum - BOUND_TOLERANCE * np.abs(minimum))
+
+
+def beyond_maximum(value: FloatArray | float, maximum: FloatArray | float) -> BoolArray:
+    """Where ``value`` lies above ``maximum``, with :data:`BOUND_TOLERANCE` slack."""
+    return np.asarray(value > maximum + BOUND_TOLERANCE * np.abs(maximum))
+
+
 def require_within(
     array: FloatArray,
     variable: str,
@@ -43,9 +74,13 @@ def require_within(
     *,
     exclusive_minimum: bool = False,
 ) -> None:
-    """Raise :class:`OutOfRangeError` naming the first element outside ``[minimum, maximum]``."""
-    below = array <= minimum if exclusive_minimum else array < minimum
-    outside = (below | (array > maximum)).ravel()
+    """Raise :class:`OutOfRangeError` naming the first element outside ``[minimum, maximum]``.
+
+    A value within :data:`BOUND_TOLERANCE` (relative) of a closed bound is on it: it is
+    accepted, and the formulations behind these ranges are smooth there.
+    """
+    outside = beyond_minimum(array, minimum, exclusive_minimum) | beyond_maximum(array, maximum)
+    outside = outside.ravel()
     if np.any(outside):
         index = int(np.flatnonzero(outside)[0])
         raise OutOfRangeError(
@@ -55,7 +90,8 @@ def require_within(
             maximum=maximum,
             unit=unit,
             reason=reason,
-            index=index if array.ndim > 0 else None,
+            index=index if array.size > 1 else None,
+            exclusive_minimum=exclusive_minimum,
         )
 
 

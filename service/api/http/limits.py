@@ -18,6 +18,7 @@ from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import FieldError, Problem, ProblemError, problem_answer
+from service.api.http.sent_units import begin_request
 
 __all__ = [
     "BodySizeLimit",
@@ -197,9 +198,15 @@ class TimeLimitedRoute(APIRoute):
     def get_route_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
         handler = super().get_route_handler()
         if not self.limited:
-            return handler
+
+            async def noted(request: Request) -> Response:
+                begin_request()
+                return await handler(request)
+
+            return noted
 
         async def limited(request: Request) -> Response:
+            begin_request()  # before the time-limit task copies the context
             return await run_within_limit(
                 handler(request),
                 seconds=request.app.state.settings.max_request_seconds,

@@ -12,11 +12,17 @@ from pydantic import BaseModel, Field
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
 from service.api.http.responses import FastJSONResponse
+from service.api.http.sent_units import sent_unit
+from service.api.http.units import si_to_unit, si_unit_label
 from service.core.errors import (
     InvalidInputError,
     NotConvergedError,
     OutOfRangeError,
     UnsupportedStateError,
+    describe_range,
+    format_amount,
+    range_hint,
+    range_text,
 )
 
 __all__ = [
@@ -24,6 +30,7 @@ __all__ = [
     "FieldError",
     "Problem",
     "ProblemError",
+    "SiRange",
     "document_validation_problems",
     "install_problem_handlers",
     "make_problem",
@@ -46,6 +53,15 @@ _DESCRIPTIONS = {
 }
 
 
+class SiRange(BaseModel):
+    """A refused value and its valid range in SI."""
+
+    value: float = Field(description="The value received, in SI.")
+    unit: str = Field(description="SI unit of `value`, `minimum` and `maximum`.")
+    minimum: float | None = Field(None, description="Lowest valid value, SI.")
+    maximum: float | None = Field(None, description="Highest valid value, SI.")
+
+
 class FieldError(BaseModel):
     """One offending input."""
 
@@ -55,7 +71,17 @@ class FieldError(BaseModel):
     unit: str | None = Field(None, description="Unit of `value`, `minimum` and `maximum`.")
     minimum: float | None = Field(None, description="Lowest valid value, in `unit`.")
     maximum: float | None = Field(None, description="Highest valid value, in `unit`.")
-    index: int | None = Field(None, description="Position in a batch array, where relevant.")
+    exclusive_minimum: bool | None = Field(
+        None, description="True where `minimum` itself is outside the range (an open bound)."
+    )
+    index: int | None = Field(
+        None,
+        description="Position in a batch array (from 0), or the CSV data row (from 1, as a "
+        "spreadsheet shows the rows below the header), where relevant.",
+    )
+    si: SiRange | None = Field(
+        None, description="The same value and range in SI, where `unit` is the caller's unit."
+    )
 
 
 class Problem(BaseModel):
@@ -183,24 +209,68 @@ def _render(
     )
 
 
+def _tidy(value: float | None) -> float | None:
+    """A converted number without conversion noise (12 significant digits)."""
+    return None if value is None else float(f"{value:.12g}")
+
+
+def _in_sent_unit(error: OutOfRangeError) -> FieldError:
+    """The field error of ``error``, in the unit the caller sent the field in, SI beside."""
+    base = FieldError(
+        field=error.variable,
+        message=str(error),
+        value=error.value,
+        unit=error.unit,
+        minimum=error.minimum,
+        maximum=error.maximum,
+        exclusive_minimum=error.exclusive_minimum or None,
+        index=error.index,
+    )
+    sent = sent_unit(error.variable)
+    if sent is None or sent.unit is None or si_unit_label(sent.dimension) != error.unit:
+        return base
+    unit, dimension = sent.unit.strip(), sent.dimension
+    if unit == error.unit:
+        return base
+    value = _tidy(si_to_unit(error.value, unit, dimension))
+    low = None if error.minimum is None else _tidy(si_to_unit(error.minimum, unit, dimension))
+    high = None if error.maximum is None else _tidy(si_to_unit(error.maximum, unit, dimension))
+    assert value is not None
+    where = "" if error.index is None else f" (element {error.index})"
+    si_range = range_text(error.minimum, error.maximum, error.unit, error.exclusive_minimum)
+    si_value = format_amount(error.value, error.unit)
+    text = (
+        f"{error.variable} = {format_amount(value, unit)} ({si_value}){where}"
+        f" {describe_range(low, high, unit, error.exclusive_minimum, digits=7)} ({si_range})"
+    )
+    if error.reason:
+        text = f"{text}: {error.reason}"
+    hint = range_hint(error.value, error.unit)
+    if hint:
+        text = f"{text}. {hint}"
+    return base.model_copy(
+        update={
+            "message": text,
+            "value": value,
+            "unit": unit,
+            "minimum": low,
+            "maximum": high,
+            "si": SiRange(
+                value=error.value, unit=error.unit, minimum=error.minimum, maximum=error.maximum
+            ),
+        }
+    )
+
+
 def _from_core(error: Exception) -> Problem:
     if isinstance(error, OutOfRangeError):
+        field_error = _in_sent_unit(error)
         return make_problem(
             422,
             "out-of-range",
             "Input outside the valid range",
-            str(error),
-            [
-                FieldError(
-                    field=error.variable,
-                    message=str(error),
-                    value=error.value,
-                    unit=error.unit,
-                    minimum=error.minimum,
-                    maximum=error.maximum,
-                    index=error.index,
-                )
-            ],
+            field_error.message,
+            [field_error],
         )
     if isinstance(error, InvalidInputError | UnsupportedStateError):
         slug = "invalid-input" if isinstance(error, InvalidInputError) else "unsupported-state"

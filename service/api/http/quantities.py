@@ -4,11 +4,12 @@ from __future__ import annotations
 
 import math
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, NoReturn
 
 import numpy as np
 
 from service.api.http.models import QuantityValue, QuantityValues
+from service.api.http.sent_units import note_unit
 from service.api.http.units import (
     Dimension,
     UnitSet,
@@ -102,11 +103,14 @@ def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuanti
         values, unit, is_array = raw, None, True
     else:
         raise InvalidInputError(field, f"unsupported input of type {type(raw).__name__}", None)
+    note_unit(field, unit, dimension)
     if not is_array and uncertainty is None:
         # One number: the same conversion on a float, then one array (no numpy checks).
         if not math.isfinite(values):
             raise InvalidInputError(field, "values must be finite numbers", None)
         si_value = number_to_si(float(values), unit, dimension, field=field)
+        if dimension is Dimension.TEMPERATURE and si_value < 0.0:
+            _below_absolute_zero(field, float(values), unit)
         return ParsedQuantity(si=np.array([si_value]), is_array=False)
     array = np.atleast_1d(np.asarray(values, dtype=np.float64))
     if array.ndim != 1:
@@ -116,6 +120,9 @@ def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuanti
     if not np.isfinite(array).all():
         raise InvalidInputError(field, "values must be finite numbers", None)
     si = convert_to_si(array, unit, dimension, field=field)
+    if dimension is Dimension.TEMPERATURE and bool((si < 0.0).any()):
+        index = int(np.flatnonzero(si < 0.0)[0])
+        _below_absolute_zero(field, float(array[index]), unit, index if array.size > 1 else None)
     standard_uncertainty = None
     if uncertainty is not None:
         difference = _DIFFERENCE_OF.get(dimension, dimension)
@@ -124,6 +131,18 @@ def read_quantity(raw: Any, *, field: str, dimension: Dimension) -> ParsedQuanti
             scale -= convert_to_si(np.array([0.0]), unit, difference, field=field)[0]
         standard_uncertainty = np.full(si.shape, abs(uncertainty * scale))
     return ParsedQuantity(si=si, is_array=is_array, standard_uncertainty=standard_uncertainty)
+
+
+def _below_absolute_zero(
+    field: str, value: float, unit: str | None, index: int | None = None
+) -> NoReturn:
+    where = "" if index is None else f" (element {index})"
+    raise InvalidInputError(
+        field,
+        f"{value:.10g} {unit or 'K'}{where} is below absolute zero "
+        "(0 K = -273.15 degC = -459.67 degF)",
+        value,
+    )
 
 
 def quantity_output(

@@ -35,6 +35,8 @@ __all__ = [
     "number_to_si",
     "output_unit",
     "parse_quantity_text",
+    "si_to_unit",
+    "si_unit_label",
 ]
 
 
@@ -142,6 +144,12 @@ _ABSOLUTE_TEMPERATURE_ALIASES = {
     "°f": "degree_Fahrenheit",
     "fahrenheit": "degree_Fahrenheit",
     "degr": "degree_Rankine",
+    "deg c": "degree_Celsius",
+    "deg f": "degree_Fahrenheit",
+    "ºc": "degree_Celsius",
+    "ºf": "degree_Fahrenheit",
+    "℃": "degree_Celsius",
+    "℉": "degree_Fahrenheit",
     "°r": "degree_Rankine",
     "rankine": "degree_Rankine",
 }
@@ -167,6 +175,9 @@ def _registry() -> pint.UnitRegistry[float]:
     """Build the unit registry once per process, on first use."""
     registry: pint.UnitRegistry[float] = pint.UnitRegistry()
     registry.define("psia = psi")
+    # A micron of mercury (micrometre of mercury), the freeze-drying chamber's unit:
+    # 1e-3 mmHg = 0.133322387415 Pa (1 mTorr is 0.133322368 Pa, 1.4e-7 apart).
+    registry.define("micron_Hg = 1e-3 * millimeter_Hg")
     return registry
 
 
@@ -178,8 +189,66 @@ class _Linear:
     offset: float
 
 
+_PRESSURE_WORDS = {
+    "torr": "torr",
+    "mtorr": "millitorr",
+    "millitorr": "millitorr",
+    "micron": "micron_Hg",
+    "microns": "micron_Hg",
+    "micronhg": "micron_Hg",
+    "µmhg": "micron_Hg",
+    "μmhg": "micron_Hg",
+    "umhg": "micron_Hg",
+    "mbar": "millibar",
+    "mbara": "millibar",
+    "millibar": "millibar",
+    "bara": "bar",
+    "kpaa": "kPa",
+    "psia": "psi",
+}
+"""Vacuum and absolute-pressure spellings, matched without regard to case (the README's
+unit table lists them). ``mbar`` is never a megabar here."""
+_PRESSURE_WORD = re.compile(
+    r"(?<![A-Za-z_µμ])(" + "|".join(sorted(_PRESSURE_WORDS, key=len, reverse=True)) + r")"
+    r"(?![A-Za-z_])",
+    re.IGNORECASE,
+)
+_GAUGE = re.compile(
+    r"(?<![A-Za-z_])(?:k?pag|m?barg|psig|inhgg|bar\s*\(g\)|psi\s*\(g\)|"
+    r"(?:k?pa|m?bar|psi)\s+(?:g|gauge))(?![A-Za-z_])",
+    re.IGNORECASE,
+)
+_TEMPERATURE_LETTERS = {
+    "c": ("degC", "coulomb"),
+    "f": ("degF", "farad"),
+    "r": ("degR", "roentgen"),
+}
+_PRESSURE_DIMENSIONS = frozenset({"PRESSURE", "LEAK_RATE"})
+
+
+def _refuse_common_mistakes(unit: str, dimension: Dimension) -> None:
+    """Refuse, with what to write instead, units that are near misses."""
+    kind = dimension.name
+    if kind in _PRESSURE_DIMENSIONS and _GAUGE.search(unit):
+        raise ValueError(
+            f"{unit!r} is a gauge pressure; tripoint takes absolute pressures: add the "
+            "local atmospheric pressure (101.325 kPa standard, or the local barometer "
+            "reading) and send the result in an absolute unit, e.g. -0.95 barg is about "
+            "0.063 bar"
+        )
+    letter = _TEMPERATURE_LETTERS.get(unit.strip().lower())
+    if kind.startswith("TEMPERATURE") and letter is not None:
+        spelling, reading = letter
+        raise ValueError(
+            f"{unit!r} is not a temperature unit (it reads as {reading}): write {spelling}"
+        )
+
+
 def _pint_spelling(unit: str, dimension: Dimension) -> str:
-    text = unit.strip().replace("m3", "m**3").replace("m2", "m**2").replace("ft3", "ft**3")
+    text = unit.strip()
+    if dimension.name in _PRESSURE_DIMENSIONS:
+        text = _PRESSURE_WORD.sub(lambda match: _PRESSURE_WORDS[match.group(1).lower()], text)
+    text = text.replace("m3", "m**3").replace("m2", "m**2").replace("ft3", "ft**3")
     text = _BTU.sub("Btu_it", text.replace("ft2", "ft**2"))
     alias = _ABSOLUTE_TEMPERATURE_ALIASES.get(text.lower())
     if alias is not None:
@@ -193,6 +262,7 @@ def _pint_spelling(unit: str, dimension: Dimension) -> str:
 def _linear_map(unit: str, dimension: Dimension) -> _Linear:
     """Return the cached (scale, offset) that takes ``unit`` to SI for ``dimension``."""
     registry = _registry()
+    _refuse_common_mistakes(unit, dimension)
     spelling = _pint_spelling(unit, dimension)
     if dimension is Dimension.DIMENSIONLESS and spelling in ("", "1"):
         return _Linear(1.0, 0.0)
@@ -251,6 +321,17 @@ def _input_map(unit: str | None, dimension: Dimension, *, field: str) -> _Linear
     if linear.scale == 1.0 and linear.offset == 0.0:
         return None
     return linear
+
+
+def si_unit_label(dimension: Dimension) -> str:
+    """The SI label of ``dimension`` as the API writes it (``"m3"``, ``"1"``)."""
+    return _SI_LABEL[dimension]
+
+
+def si_to_unit(value: float, unit: str, dimension: Dimension) -> float:
+    """Express one SI ``value`` in ``unit`` (a unit already read for ``dimension``)."""
+    linear = _linear_map(unit.strip(), dimension)
+    return (value - linear.offset) / linear.scale
 
 
 def output_unit(dimension: Dimension, unit_set: UnitSet) -> str:

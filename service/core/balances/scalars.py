@@ -16,6 +16,7 @@ from numpy.typing import ArrayLike
 
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.validation import beyond_maximum, beyond_minimum
 
 __all__ = [
     "checked_trap_temperature",
@@ -58,11 +59,20 @@ def require_scalar_within(
     OutOfRangeError
         ``value`` below ``minimum`` (at or below it with ``exclusive_minimum``) or above
         ``maximum``; ``index`` names the sweep element (``None`` for a single case).
+        A value within :data:`service.core.validation.BOUND_TOLERANCE` of a closed bound
+        is on it, and the bound is returned.
     """
     number = finite_scalar(value, name)
-    low = minimum is not None and (number <= minimum if exclusive_minimum else number < minimum)
-    if low or (maximum is not None and number > maximum):
-        raise OutOfRangeError(name, number, minimum, maximum, unit, reason, index)
+    low = minimum is not None and bool(beyond_minimum(number, minimum, exclusive_minimum))
+    if low or (maximum is not None and bool(beyond_maximum(number, maximum))):
+        raise OutOfRangeError(
+            name, number, minimum, maximum, unit, reason, index, exclusive_minimum
+        )
+    # On a bound within rounding (see BOUND_TOLERANCE): the bound itself.
+    if minimum is not None and number < minimum:
+        return minimum
+    if maximum is not None and number > maximum:
+        return maximum
     return number
 
 

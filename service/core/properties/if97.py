@@ -47,7 +47,12 @@ from service.core.properties.if97_coefficients import (
     SATURATION_COEFFICIENTS,
 )
 from service.core.properties.phase import FloatArray, PhaseProperties
-from service.core.validation import broadcast_pair, finite_array
+from service.core.validation import (
+    beyond_maximum,
+    beyond_minimum,
+    broadcast_pair,
+    finite_array,
+)
 
 __all__ = [
     "IF97_MAXIMUM_PRESSURE",
@@ -115,7 +120,9 @@ def _first(mask: NDArray[np.bool_]) -> int | None:
 def _check_temperature(
     temperature: FloatArray, minimum: float, maximum: float, reason_low: str, reason_high: str
 ) -> None:
-    index = _first((temperature < minimum) | (temperature > maximum))
+    index = _first(
+        beyond_minimum(temperature, minimum, exclusive=False) | beyond_maximum(temperature, maximum)
+    )
     if index is None:
         return
     value = float(temperature.reshape(-1)[index])
@@ -126,7 +133,7 @@ def _check_temperature(
         maximum,
         "K",
         reason_low if value < minimum else reason_high,
-        index,
+        index if temperature.size > 1 else None,
     )
 
 

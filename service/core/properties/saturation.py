@@ -661,7 +661,7 @@ def saturation_point_by_temperature(
     ------
     InvalidInputError, OutOfRangeError, NotConvergedError
         As :func:`saturation_by_temperature` for a one-element array (an
-        out-of-range error names ``index=0``).
+        out-of-range error names no element: ``index=None``).
 
     References
     ----------
@@ -678,7 +678,7 @@ def saturation_point_by_temperature(
         and TRIPLE_POINT_TEMPERATURE <= temperature <= _TABLE_TEMPERATURE_LIMIT
     ):
         return _point_from_columns(temperature, _tables().properties.at_point(temperature))
-    # As a one-element array: errors name element 0, as they do for a batch of one.
+    # As a one-element array: errors are those of a batch of one.
     states = saturation_by_temperature(np.atleast_1d(temperature), formulation=formulation)
     return SaturationPoint.first_of(states)
 

@@ -34,7 +34,12 @@ from service.core.properties.ice_coefficients import (
     MELTING_MINIMUM_TEMPERATURE,
     SUBLIMATION_MINIMUM_TEMPERATURE,
 )
-from service.core.properties.if97 import if97_liquid_properties, if97_vapor_properties
+from service.core.properties.if97 import (
+    IF97_REGION1_MAXIMUM_TEMPERATURE,
+    if97_b23_pressure,
+    if97_liquid_properties,
+    if97_vapor_properties,
+)
 from service.core.properties.phase import FloatArray, PhaseProperties
 from service.core.properties.phase_lines import melting_pressure, sublimation_pressure
 from service.core.properties.saturation import Formulation, saturation_pressure
@@ -168,9 +173,28 @@ def _fluid(
     formulation: Formulation,
 ) -> PhaseProperties:
     if formulation == "IAPWS-IF97":
-        if branch == "liquid":
+        if branch == "vapor":
+            return if97_vapor_properties(temperature, pressure)
+        # The dense branch above 623.15 K and up to the B23 boundary is IF97's region 2
+        # (e.g. the region-2 check point 700 K, 30 MPa of R7-97(2012) Table 15).
+        hot = temperature > IF97_REGION1_MAXIMUM_TEMPERATURE
+        region2 = np.zeros(temperature.shape, dtype=bool)
+        if hot.any():
+            region2[hot] = pressure[hot] <= if97_b23_pressure(temperature[hot])
+        if not region2.any():
             return if97_liquid_properties(temperature, pressure)
-        return if97_vapor_properties(temperature, pressure)
+        parts = [
+            (
+                np.flatnonzero(region2),
+                if97_vapor_properties(temperature[region2], pressure[region2]),
+            )
+        ]
+        if (~region2).any():
+            rest = ~region2
+            parts.append(
+                (np.flatnonzero(rest), if97_liquid_properties(temperature[rest], pressure[rest]))
+            )
+        return _assemble(parts, temperature.size)
     return fluid_properties_at(temperature, pressure, phase=branch)
 
 

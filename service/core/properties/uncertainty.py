@@ -30,7 +30,12 @@ from numpy.typing import ArrayLike, NDArray
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.properties.phase import FloatArray
 from service.core.properties.sources import IAPWS_95, IAPWS_IF97, ICE_IH, MELTING_AND_SUBLIMATION
-from service.core.validation import broadcast_pair, finite_array
+from service.core.validation import (
+    beyond_maximum,
+    beyond_minimum,
+    broadcast_pair,
+    finite_array,
+)
 
 __all__ = [
     "STATEMENTS",
@@ -473,7 +478,9 @@ def stated_uncertainty(
 
     # First statement, in table order, whose range holds each temperature.
     flat = t.reshape(-1, 1)
-    inside = (flat >= table.minimum_temperature) & (flat <= table.maximum_temperature)
+    inside = ~beyond_minimum(flat, table.minimum_temperature, exclusive=False) & ~beyond_maximum(
+        flat, table.maximum_temperature
+    )
     covered = inside.any(axis=1)
     index = np.argmax(inside, axis=1).reshape(t.shape)
     if not covered.all():

@@ -370,7 +370,9 @@ def test_sweep_error_names_the_element(client: TestClient) -> None:
     error = problem["errors"][0]
     assert error["field"] == "initial_temperature"
     assert error["index"] == 1
-    assert error["maximum"] == pytest.approx(373.15)
+    # In the caller's unit (degC), SI beside it.
+    assert (error["unit"], error["value"], error["maximum"]) == ("degC", 120.0, 100.0)
+    assert error["si"]["maximum"] == pytest.approx(373.15)
 
 
 def test_too_many_sweep_points_is_413(client: TestClient) -> None:
@@ -693,7 +695,8 @@ def test_nan_literal_is_refused(client: TestClient) -> None:
 def test_final_at_or_above_initial_gives_the_range(client: TestClient) -> None:
     problem = _problem(client, EVAPORATIVE, {**LETTUCE, "final_temperature": "22 degC"})
     error = problem["errors"][0]
-    assert error["maximum"] == pytest.approx(295.15)
+    assert error["maximum"] == pytest.approx(22.0)
+    assert error["si"]["maximum"] == pytest.approx(295.15)
     assert "below the initial temperature" in problem["detail"]
 
 

@@ -284,11 +284,12 @@ def test_query_parameter_given_twice_takes_the_last_value(client: TestClient) ->
     assert response.json()["meta"]["output_units"] == "engineering"
 
 
-def test_one_temperature_out_of_range_names_element_zero_as_a_batch_does(
+def test_one_temperature_out_of_range_names_no_element_as_a_batch_of_one_does(
     client: TestClient,
 ) -> None:
     single = client.get("/v1/properties/saturation", params={"temperature": "700"}).json()
     batch = client.post("/v1/properties/saturation", json={"temperature": [700]}).json()
     assert single["errors"][0]["field"] == batch["errors"][0]["field"] == "temperature"
-    assert single["errors"][0]["index"] == batch["errors"][0]["index"] == 0
+    assert single["errors"][0]["index"] is batch["errors"][0]["index"] is None
     assert single["detail"] == batch["detail"]
+    assert "element" not in single["detail"]

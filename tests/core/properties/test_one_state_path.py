@@ -78,7 +78,7 @@ def test_one_state_equals_the_array_path(formulation: Formulation) -> None:
 @pytest.mark.parametrize("bad", [273.0, 700.0, float("nan"), float("inf")])
 def test_one_state_refuses_what_the_array_path_refuses(bad: float) -> None:
     # One value reaches the core as a one-element array from the HTTP layer; its errors
-    # name element 0, and the one-state path must say the same.
+    # name no element (there is only one), and the one-state path must say the same.
     with pytest.raises((OutOfRangeError, InvalidInputError)) as array_error:
         saturation_by_temperature(np.array([bad]))
     with pytest.raises(type(array_error.value)) as point_error:
@@ -86,7 +86,7 @@ def test_one_state_refuses_what_the_array_path_refuses(bad: float) -> None:
     assert str(point_error.value) == str(array_error.value)
     if isinstance(array_error.value, OutOfRangeError):
         assert isinstance(point_error.value, OutOfRangeError)
-        assert point_error.value.index == array_error.value.index == 0
+        assert point_error.value.index is array_error.value.index is None
 
 
 def test_one_state_lookup_states_the_same_as_the_array_lookup() -> None:

@@ -126,3 +126,32 @@ def test_batch_equals_scalar() -> None:
 def test_errors(temperature: float, pressure: float, phase: str | None, error: type) -> None:
     with pytest.raises(error):
         state_at(temperature, pressure, phase=phase)  # type: ignore[arg-type]
+
+
+@pytest.mark.parametrize(
+    ("temperature", "pressure", "volume", "enthalpy", "entropy", "isobaric_heat"),
+    [
+        # IAPWS R7-97(2012), Table 15 (region 2 check values), third column: T = 700 K,
+        # p = 30 MPa, above the critical point but below the B23 boundary (30.48 MPa).
+        (700.0, 30.0e6, 0.542946619e-2, 0.263149474e7, 0.517540298e4, 0.103505092e5),
+    ],
+    ids=["R7-97-table15-700K-30MPa"],
+)
+def test_if97_state_above_the_critical_temperature_is_region_2(
+    temperature: float,
+    pressure: float,
+    volume: float,
+    enthalpy: float,
+    entropy: float,
+    isobaric_heat: float,
+) -> None:
+    result = state_at(temperature, pressure, formulation="IAPWS-IF97")
+    props = result.properties
+    assert result.phase[0] == "supercritical"
+    assert 1.0 / float(props.density[0]) == pytest.approx(volume, rel=1e-8)
+    assert float(props.specific_enthalpy[0]) == pytest.approx(enthalpy, rel=1e-8)
+    assert float(props.specific_entropy[0]) == pytest.approx(entropy, rel=1e-8)
+    assert float(props.specific_isobaric_heat_capacity[0]) == pytest.approx(isobaric_heat, rel=1e-8)
+    # Above B23 (region 3) stays refused with a reason naming it.
+    with pytest.raises(OutOfRangeError, match="region 3"):
+        state_at(700.0, 50.0e6, formulation="IAPWS-IF97")
