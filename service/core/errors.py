@@ -20,6 +20,7 @@ __all__ = [
     "format_amount",
     "range_hint",
     "range_text",
+    "stated_reason",
 ]
 
 
@@ -67,7 +68,8 @@ class OutOfRangeError(TripointError, ValueError):
             f"{self.variable} = {format_amount(self.value, self.unit)}{where} "
             f"{describe_range(self.minimum, self.maximum, self.unit, self.exclusive_minimum)}"
         )
-        text = f"{text}: {self.reason}" if self.reason else text
+        reason = stated_reason(self.reason, self.minimum, self.maximum)
+        text = f"{text}: {reason}" if reason else text
         hint = range_hint(self.value, self.unit)
         return f"{text}. {hint}" if hint else text
 
@@ -118,6 +120,14 @@ def describe_range(
     if minimum is None and maximum is None:
         return "is outside the valid range"
     return f"must be {text}"
+
+
+def stated_reason(reason: str, minimum: float | None, maximum: float | None) -> str:
+    """``reason``, or nothing where it only repeats a one-sided range ("must be > 0")."""
+    one_sided = (minimum is None) != (maximum is None)
+    if one_sided and reason.startswith(("must be", "must not")):
+        return ""
+    return reason
 
 
 def range_hint(value: float, unit: str) -> str:

@@ -127,7 +127,7 @@ def test_per_row_route_called_once_per_row(client: TestClient) -> None:
     response = client.post("/v1/testing/recorded", content=body, headers={**CSV_IN, **CSV_OUT})
     assert response.status_code == 422, "row 2 has no temperature"
     assert "CSV row 2" in response.json()["detail"]
-    assert response.json()["errors"][0]["index"] == 1
+    assert response.json()["errors"][0]["index"] == 2  # data rows from 1, as in the detail
 
     body = "temperature[degC],note\n20,warn-first\n30,third\n"
     answer = client.post("/v1/testing/recorded", content=body, headers={**CSV_IN, **CSV_OUT})

@@ -10,8 +10,15 @@ route is adapted in one of two ways (:class:`CsvRoute`):
   (``output_units``, ``formulation``) must hold one value for every row;
 - *per row* (``one_call_per_row=True``): the route takes single values, so it is called
   once per row with ``{"value": x, "unit": ...}`` per unit column, numbers and text as
-  they are, and empty cells left out. A failing row stops the request with that row's
-  problem document (its ``index`` is the row, counted from 0).
+  they are, and empty cells left out.
+
+Rows are numbered one way everywhere: data rows from 1, as a spreadsheet shows the rows
+below the header (a problem's ``index`` and its "CSV row N" text). A failing row stops the
+request with that row's problem document, unless the query asks ``row_errors=include``:
+then every good row is answered and each bad row carries ``error.status``,
+``error.field`` and ``error.detail`` columns instead (a batch route is then run once per
+row). ``output_units`` in the query sets the unit set of the whole CSV request without a
+per-row column. These two are the only query parameters a CSV body adds.
 
 Answers. With ``Accept: text/csv`` the JSON answer is flattened: a quantity becomes a
 column named ``path[unit]`` (``liquid.density[kg/m3]``); a batch array gives one row per
@@ -32,6 +39,7 @@ import re
 from collections.abc import Sequence
 from dataclasses import dataclass, field
 from typing import Any
+from urllib.parse import parse_qsl, urlencode
 
 import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
@@ -62,6 +70,9 @@ _HEADER = re.compile(
 _NUMBER = re.compile(r"^[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?$")
 _INTEGER = re.compile(r"^[-+]?\d+$")
 _JOINED_LISTS = frozenset({"assumptions"})
+_UNIT_SETS = ("SI", "engineering", "US")
+_ROW_ERRORS = ("stop", "include")
+_ELEMENT = re.compile(r"\(element (\d+)\)")
 _ENVELOPE_ORDER = (
     "warnings",
     "meta",
@@ -161,6 +172,14 @@ class CsvTable:
                 )
             _put(body, column, column.cells[0])
         return body
+
+    def single_row(self, row: int) -> CsvTable:
+        """The table of one data row (0-based)."""
+        columns = [
+            _Column(column.name, column.path, column.unit, column.has_unit, [column.cells[row]])
+            for column in self.columns
+        ]
+        return CsvTable(columns=columns, rows=1)
 
     def row_bodies(self) -> list[dict[str, Any]]:
         """One JSON body per row, single values (see the module docstring)."""
@@ -391,6 +410,10 @@ def flatten_answers(answers: Sequence[dict[str, Any]]) -> tuple[list[str], list[
         _walk(envelope, "", flat)
         flats.append(flat)
     header = list(dict.fromkeys(name for flat in flats for name in flat.columns))
+    # A failed row's error columns (row_errors=include) go last, whichever row came first.
+    header = [name for name in header if not name.startswith("error.")] + [
+        name for name in header if name.startswith("error.")
+    ]
     rows: list[list[str]] = []
     for flat in flats:
         for row in range(flat.rows):
@@ -441,6 +464,9 @@ class _Conversion:
     messages: list[Message] = field(default_factory=list)
     abandoned: bool = False
     current: Scope | None = None
+    wants_csv: bool = False
+    query_string: bytes | None = None
+    """The query the route sees: the request's, less the CSV options (None: unchanged)."""
 
     async def send(self, message: Message) -> None:
         self.messages.append(message)
@@ -517,7 +543,7 @@ class CsvAdapter:
         if not sends_csv and not wants_csv:
             await self.app(scope, receive, send)
             return
-        conversion = _Conversion()
+        conversion = _Conversion(wants_csv=wants_csv)
         try:
             await run_within_limit(
                 self._convert(scope, receive, conversion, route, sends_csv, wants_csv),
@@ -561,6 +587,8 @@ class CsvAdapter:
         if text is None or conversion.abandoned:
             return  # the client left, or the limit passed, before the body was all in
         try:
+            options = _CsvOptions.read(scope)
+            conversion.query_string = options.remaining
             table = parse_csv(text)
             if table.rows > self.max_rows:
                 await send_problem(
@@ -582,6 +610,7 @@ class CsvAdapter:
                 )
                 return
             bodies = table.row_bodies() if route.one_call_per_row else [table.batch_body()]
+            bodies = [options.applied(body) for body in bodies]
         except CsvError as error:
             await send_problem(
                 scope,
@@ -592,29 +621,67 @@ class CsvAdapter:
                 detail=error.detail,
                 errors=[
                     FieldError(
-                        field=error.column, message=error.detail, value=error.value, index=error.row
+                        field=error.column,
+                        message=error.detail,
+                        value=error.value,
+                        index=None if error.row is None else error.row + 1,
                     )
                 ],
             )
             return
-        results = []
+        results: list[_Captured] = []
         for row, body in enumerate(bodies):
             if conversion.abandoned:
                 return  # answered 503 already: compute (and store) no more rows
             captured = await self._call(scope, receive, orjson.dumps(body), conversion)
             if captured.status != 200:
-                if route.one_call_per_row:
-                    _mark_row(captured, row)
-                await self._forward(send, captured)
-                return
+                if not route.one_call_per_row and options.include_errors and captured.status == 422:
+                    # One bad row fails a batch: answer the rows one by one instead.
+                    await self._rows_one_by_one(scope, receive, conversion, table, options)
+                    return
+                _mark_row(captured, row if route.one_call_per_row else None)
+                if not options.include_errors or captured.status >= 500:
+                    await self._forward(send, captured)
+                    return
             results.append(captured)
-        await self._answer(send, results, route, wants_csv=wants_csv)
+        await self._answer(
+            send, results, route, wants_csv=wants_csv, as_list=route.one_call_per_row
+        )
+
+    async def _rows_one_by_one(
+        self,
+        scope: Scope,
+        receive: Receive,
+        conversion: _Conversion,
+        table: CsvTable,
+        options: _CsvOptions,
+    ) -> None:
+        """A batch route called once per row, each bad row answered by its problem."""
+        route = self._route(scope["path"])
+        assert route is not None
+        results = []
+        for row in range(table.rows):
+            if conversion.abandoned:
+                return
+            body = options.applied(table.single_row(row).batch_body())
+            captured = await self._call(scope, receive, orjson.dumps(body), conversion)
+            if captured.status != 200:
+                _mark_row(captured, row)
+                if captured.status >= 500:
+                    await self._forward(conversion.send, captured)
+                    return
+            results.append(captured)
+        await self._answer(
+            conversion.send, results, route, wants_csv=conversion.wants_csv, as_list=True
+        )
 
     async def _call(
         self, scope: Scope, receive: Receive, body: bytes | None, conversion: _Conversion
     ) -> _Captured:
         """Run the route with ``body`` as its JSON body (None: the original body)."""
         inner = dict(scope)
+        if conversion.query_string is not None:
+            inner["query_string"] = conversion.query_string
         conversion.current = inner
         replaced = (b"accept",) if body is None else (b"accept", b"content-type", b"content-length")
         headers = [
@@ -658,28 +725,119 @@ class CsvAdapter:
         await send({"type": "http.response.body", "body": body})
 
     async def _answer(
-        self, send: Send, results: list[_Captured], route: CsvRoute, *, wants_csv: bool
+        self,
+        send: Send,
+        results: list[_Captured],
+        route: CsvRoute,
+        *,
+        wants_csv: bool,
+        as_list: bool = False,
     ) -> None:
-        as_list = route.one_call_per_row
         first = results[0]
-        if first.status != 200 or first.media_type != "application/json":
+        good = [item for item in results if item.status == 200]
+        if (not as_list and first.status != 200) or any(
+            item.media_type != "application/json" for item in good
+        ):
             await self._forward(send, first)
             return
-        answers = [orjson.loads(bytes(item.body)) for item in results]
+        answers = [
+            orjson.loads(bytes(item.body)) if item.status == 200 else _row_error(item)
+            for item in results
+        ]
         if wants_csv:
             if route.answer_part is not None:
-                answers = [_part_of(answer, route.answer_part) for answer in answers]
+                answers = [
+                    answer if "error" in answer else _part_of(answer, route.answer_part)
+                    for answer in answers
+                ]
             body = render_csv(*flatten_answers(answers))
             content_type = _CSV_RESPONSE_TYPE
         elif as_list:
-            body = orjson.dumps(answers)
+            body = orjson.dumps(
+                [
+                    answer if item.status == 200 else orjson.loads(bytes(item.body))
+                    for answer, item in zip(answers, results, strict=True)
+                ]
+            )
             content_type = "application/json"
         else:
             await self._forward(send, first)
             return
-        headers = _with_headers(first.headers, content_type, len(body))
+        headers = _with_headers((good or results)[0].headers, content_type, len(body))
         await send({"type": "http.response.start", "status": 200, "headers": headers})
         await send({"type": "http.response.body", "body": body})
+
+
+def _row_error(captured: _Captured) -> dict[str, Any]:
+    """A failed row as the columns ``error.status``, ``error.field``, ``error.detail``."""
+    try:
+        problem = orjson.loads(bytes(captured.body))
+    except orjson.JSONDecodeError:
+        problem = {}
+    errors = problem.get("errors") or [{}]
+    fields = ", ".join(str(item.get("field", "")) for item in errors if isinstance(item, dict))
+    return {
+        "error": {
+            "status": captured.status,
+            "field": fields,
+            "detail": str(problem.get("detail", "")),
+        }
+    }
+
+
+@dataclass(frozen=True)
+class _CsvOptions:
+    """What the query of a CSV request asks for the whole request."""
+
+    output_units: str | None
+    include_errors: bool
+    remaining: bytes
+
+    @classmethod
+    def read(cls, scope: Scope) -> _CsvOptions:
+        """Read ``output_units`` and ``row_errors``; the rest is the route's.
+
+        Raises
+        ------
+        CsvError
+            422 for a value outside the choices.
+        """
+        pairs = parse_qsl(bytes(scope.get("query_string", b"")).decode("latin-1"))
+        mine = {name: value for name, value in pairs if name in ("output_units", "row_errors")}
+        units = mine.get("output_units")
+        if units is not None and units not in _UNIT_SETS:
+            raise CsvError(
+                422,
+                f"output_units must be one of {', '.join(_UNIT_SETS)}",
+                column="output_units",
+                value=units,
+            )
+        row_errors = mine.get("row_errors", "stop")
+        if row_errors not in _ROW_ERRORS:
+            raise CsvError(
+                422,
+                "row_errors must be 'stop' (one bad row fails the request) or 'include' (each "
+                "bad row answered with its error, the good rows computed)",
+                column="row_errors",
+                value=row_errors,
+            )
+        rest = [(name, value) for name, value in pairs if name not in mine]
+        return cls(units, row_errors == "include", urlencode(rest).encode("latin-1"))
+
+    def applied(self, body: dict[str, Any]) -> dict[str, Any]:
+        """``body`` with the request's ``output_units`` (a column saying otherwise: 422)."""
+        if self.output_units is None:
+            return body
+        given = body.get("output_units")
+        if given is not None and given != self.output_units:
+            raise CsvError(
+                422,
+                f"the output_units column says {given!r} but the query says "
+                f"{self.output_units!r}; give one of them",
+                column="output_units",
+                value=str(given),
+            )
+        return {**body, "output_units": self.output_units}
 
 
 def _part_of(answer: dict[str, Any], part: str) -> dict[str, Any]:
@@ -709,18 +867,33 @@ async def _read_body(receive: Receive) -> bytes | None:
             return bytes(chunks)
 
 
-def _mark_row(captured: _Captured, row: int) -> None:
-    """Say in a per-row problem document which CSV row it concerns."""
+def _mark_row(captured: _Captured, row: int | None) -> None:
+    """Say in a problem document which CSV row (data rows from 1) it concerns.
+
+    ``row`` is the 0-based row of a per-row call; ``None`` for a batch call, whose
+    errors name the batch element (0-based), which is the row before it.
+    """
     if captured.media_type != PROBLEM_MEDIA_TYPE:
         return
     try:
         problem = orjson.loads(bytes(captured.body))
     except orjson.JSONDecodeError:
         return
-    problem["detail"] = f"CSV row {row + 1}: {problem.get('detail', '')}"
+
+    def as_rows(text: str) -> str:
+        return _ELEMENT.sub(lambda match: f"(CSV row {int(match.group(1)) + 1})", text)
+
+    detail = as_rows(str(problem.get("detail", "")))
+    problem["detail"] = detail if row is None else f"CSV row {row + 1}: {detail}"
     for error in problem.get("errors") or []:
-        if isinstance(error, dict) and error.get("index") is None:
-            error["index"] = row
+        if not isinstance(error, dict):
+            continue
+        if isinstance(error.get("message"), str):
+            error["message"] = as_rows(error["message"])
+        if row is not None:
+            error["index"] = row + 1
+        elif isinstance(error.get("index"), int):
+            error["index"] += 1
     captured.body = bytearray(orjson.dumps(problem))
 
 

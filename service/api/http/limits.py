@@ -13,12 +13,11 @@ from collections.abc import Callable, Coroutine
 from typing import Any, TypeVar
 
 from fastapi import Request, Response
-from fastapi.routing import APIRoute
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import FieldError, Problem, ProblemError, problem_answer
-from service.api.http.sent_units import begin_request
+from service.api.http.strict_query import StrictQueryRoute
 
 __all__ = [
     "BodySizeLimit",
@@ -167,7 +166,7 @@ async def run_within_limit(
     raise TimeLimitExceededError(seconds)
 
 
-class TimeLimitedRoute(APIRoute):
+class TimeLimitedRoute(StrictQueryRoute):
     """A route whose synchronous endpoint answers 503 (problem+json) past the time limit.
 
     FastAPI runs a synchronous endpoint in a worker thread. Here the whole handler (body,
@@ -195,18 +194,12 @@ class TimeLimitedRoute(APIRoute):
         """Whether this route is held to the time limit (its endpoint is synchronous)."""
         return not inspect.iscoroutinefunction(self.endpoint)
 
-    def get_route_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
-        handler = super().get_route_handler()
+    def inner_handler(self) -> Callable[[Request], Coroutine[Any, Any, Response]]:
+        handler = super().inner_handler()
         if not self.limited:
-
-            async def noted(request: Request) -> Response:
-                begin_request()
-                return await handler(request)
-
-            return noted
+            return handler
 
         async def limited(request: Request) -> Response:
-            begin_request()  # before the time-limit task copies the context
             return await run_within_limit(
                 handler(request),
                 seconds=request.app.state.settings.max_request_seconds,

@@ -23,6 +23,7 @@ from service.core.errors import (
     format_amount,
     range_hint,
     range_text,
+    stated_reason,
 )
 
 __all__ = [
@@ -243,8 +244,9 @@ def _in_sent_unit(error: OutOfRangeError) -> FieldError:
         f"{error.variable} = {format_amount(value, unit)} ({si_value}){where}"
         f" {describe_range(low, high, unit, error.exclusive_minimum, digits=7)} ({si_range})"
     )
-    if error.reason:
-        text = f"{text}: {error.reason}"
+    reason = stated_reason(error.reason, error.minimum, error.maximum)
+    if reason:
+        text = f"{text}: {reason}"
     hint = range_hint(error.value, error.unit)
     if hint:
         text = f"{text}. {hint}"

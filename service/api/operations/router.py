@@ -12,10 +12,11 @@ from starlette.responses import Response
 from service import __version__
 from service.api.http.problems import ProblemError, problem_responses
 from service.api.http.recording import RecordKeeper
+from service.api.http.strict_query import StrictQueryRoute
 from service.api.operations.schemas import HealthPublic, ReadyPublic
 from service.records import StoreUnavailableError
 
-router = APIRouter(tags=["operations"])
+router = APIRouter(tags=["operations"], route_class=StrictQueryRoute)
 
 _READY_TIMEOUT_SECONDS = 5.0
 _log = logging.getLogger("tripoint.ready")

@@ -1,0 +1,73 @@
+"""A route that refuses query parameters it does not document, and notes sent units.
+
+The same rule on every route, GET or POST: a query parameter the operation does not
+declare is a 422 naming it (a POST body's options, such as ``output_units``, go in the
+body; a CSV request's options are read by the CSV adapter before the route runs). Each
+request also starts its notes of the units its fields were sent in
+(:mod:`service.api.http.sent_units`), before anything that copies the context.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable, Coroutine
+from typing import Any
+
+from fastapi import Request, Response
+from fastapi.exceptions import RequestValidationError
+from fastapi.routing import APIRoute
+
+from service.api.http.sent_units import begin_request
+
+__all__ = ["StrictQueryRoute"]
+
+Handler = Callable[[Request], Coroutine[Any, Any, Response]]
+
+
+class StrictQueryRoute(APIRoute):
+    """An :class:`APIRoute` answering 422 for undeclared query parameters."""
+
+    @property
+    def declared_query(self) -> frozenset[str]:
+        """Names of the query parameters the operation declares."""
+        declared = {param.alias for param in self.dependant.query_params}
+        extra = (self.openapi_extra or {}).get("parameters", [])
+        declared |= {item["name"] for item in extra if item.get("in") == "query"}
+        return frozenset(declared)
+
+    def inner_handler(self) -> Handler:
+        """The handler the checks wrap (subclasses add to it)."""
+        return super().get_route_handler()
+
+    def get_route_handler(self) -> Handler:
+        handler = self.inner_handler()
+        declared = self.declared_query
+
+        async def checked(request: Request) -> Response:
+            begin_request()
+            if request.scope.get("query_string"):
+                unknown = [name for name in request.query_params if name not in declared]
+                if unknown:
+                    raise RequestValidationError(
+                        [_unknown(name, declared, request.method) for name in unknown]
+                    )
+            return await handler(request)
+
+        return checked
+
+
+def _unknown(name: str, declared: frozenset[str], method: str) -> dict[str, Any]:
+    if declared:
+        known = "known: " + ", ".join(sorted(declared))
+    elif method == "POST":
+        known = (
+            "a JSON body carries this operation's options, output_units included; a CSV "
+            "body takes output_units and row_errors in the query"
+        )
+    else:
+        known = "this operation takes none"
+    return {
+        "type": "unknown_query_parameter",
+        "loc": ("query", name),
+        "msg": f"unknown query parameter ({known})",
+        "input": name,
+    }
