@@ -59,5 +59,5 @@ def test_evaporated_fraction_at_the_triple_point() -> None:
     # IAPWS-95 Table 13.1 and R10-06 Table 6 (from memory): m_v/m = L_f / L_s
     expected = (H_LIQUID - H_ICE) / (H_VAPOR - H_ICE)
     result = flash_freeze(FlashFreezeCase(initial_temperature=273.16))
-    assert float(result.evaporated_fraction) == pytest.approx(expected, rel=6e-6)
+    assert float(result.evaporated_fraction_of_water) == pytest.approx(expected, rel=6e-6)
     assert float(result.ice_mass) == pytest.approx(1.0 - expected, rel=1e-6)

@@ -36,7 +36,7 @@ __all__ = [
 
 FLASH_FREEZE_UNCERTAIN_OUTPUTS: Final = (
     ("evaporated_mass", Dimension.MASS),
-    ("evaporated_fraction", Dimension.DIMENSIONLESS),
+    ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
     ("ice_mass", Dimension.MASS),
     ("final_temperature", Dimension.TEMPERATURE_DIFFERENCE),
 )
@@ -44,7 +44,7 @@ FLASH_FREEZE_UNCERTAIN_OUTPUTS: Final = (
 
 EVAPORATIVE_COOLING_UNCERTAIN_OUTPUTS: Final = (
     ("evaporated_mass", Dimension.MASS),
-    ("evaporated_fraction", Dimension.DIMENSIONLESS),
+    ("evaporated_fraction_of_product", Dimension.DIMENSIONLESS),
     ("heat_removed", Dimension.ENERGY),
     ("final_pressure", Dimension.PRESSURE),
 )
@@ -66,7 +66,7 @@ _STAGE_FIELDS: Final = (
 _TRAJECTORY_FIELDS: Final = (
     ("temperature", Dimension.TEMPERATURE),
     ("pressure", Dimension.PRESSURE),
-    ("evaporated_fraction", Dimension.DIMENSIONLESS),
+    ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
     ("ice_fraction", Dimension.DIMENSIONLESS),
     ("liquid_fraction", Dimension.DIMENSIONLESS),
 )
@@ -216,7 +216,7 @@ def flash_freeze_answer(
             result,
             (
                 ("evaporated_mass", Dimension.MASS),
-                ("evaporated_fraction", Dimension.DIMENSIONLESS),
+                ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
                 ("ice_mass", Dimension.MASS),
                 ("liquid_mass", Dimension.MASS),
                 ("final_temperature", Dimension.TEMPERATURE),
@@ -297,7 +297,7 @@ def evaporative_cooling_answer(
             result,
             (
                 ("evaporated_mass", Dimension.MASS),
-                ("evaporated_fraction", Dimension.DIMENSIONLESS),
+                ("evaporated_fraction_of_product", Dimension.DIMENSIONLESS),
                 ("prewetting_water_mass", Dimension.MASS),
                 ("start_pressure", Dimension.PRESSURE),
                 ("final_pressure", Dimension.PRESSURE),

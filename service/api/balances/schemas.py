@@ -236,7 +236,7 @@ class TrajectoryOut(ApiModel):
 
     temperature: QuantityOutput
     pressure: QuantityOutput = Field(description="Equilibrium vapor pressure (SI: Pa).")
-    evaporated_fraction: QuantityOutput = Field(
+    evaporated_fraction_of_water: QuantityOutput = Field(
         description="Mass evaporated so far / initial water mass (unit 1)."
     )
     ice_fraction: QuantityOutput = Field(description="Ice mass / initial water mass (unit 1).")
@@ -300,7 +300,7 @@ class FlashFreezeUncertaintyOut(ApiModel):
     method: str = Field(description="How the input uncertainties were propagated.")
     inputs: list[UncertainInputOut]
     evaporated_mass: QuantityOutput
-    evaporated_fraction: QuantityOutput
+    evaporated_fraction_of_water: QuantityOutput
     ice_mass: QuantityOutput
     final_temperature: QuantityOutput = Field(description="A temperature difference.")
 
@@ -312,7 +312,7 @@ class FlashFreezePublic(Envelope):
 
     method: Method = Field(description="The headline method of the top-level results.")
     evaporated_mass: QuantityOutput = Field(description="Vapor removed in all (SI: kg).")
-    evaporated_fraction: QuantityOutput = Field(
+    evaporated_fraction_of_water: QuantityOutput = Field(
         description="evaporated_mass / initial water mass (unit 1)."
     )
     ice_mass: QuantityOutput = Field(description="Ice at the end (SI: kg).")
@@ -485,7 +485,7 @@ class EvaporativeUncertaintyOut(ApiModel):
     method: str = Field(description="How the input uncertainties were propagated.")
     inputs: list[UncertainInputOut]
     evaporated_mass: QuantityOutput
-    evaporated_fraction: QuantityOutput
+    evaporated_fraction_of_product: QuantityOutput
     heat_removed: QuantityOutput
     final_pressure: QuantityOutput
 
@@ -494,7 +494,7 @@ class EvaporativeCoolingPublic(Envelope):
     """Evaporative (vacuum) cooling balance."""
 
     evaporated_mass: QuantityOutput = Field(description="Water evaporated (SI: kg).")
-    evaporated_fraction: QuantityOutput = Field(
+    evaporated_fraction_of_product: QuantityOutput = Field(
         description="evaporated_mass / initial product mass (unit 1)."
     )
     prewetting_water_mass: QuantityOutput = Field(

@@ -41,7 +41,7 @@ _SUMMARY: Final[tuple[tuple[str, Dimension], ...]] = (
     ("final_temperature", Dimension.TEMPERATURE),
     ("final_pressure", Dimension.PRESSURE),
     ("evaporated_mass", Dimension.MASS),
-    ("evaporated_fraction", Dimension.DIMENSIONLESS),
+    ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
     ("ice_mass", Dimension.MASS),
     ("vapor_to_pump", Dimension.MASS),
     ("vapor_to_condenser", Dimension.MASS),

@@ -322,7 +322,9 @@ class SimulationSummaryOut(ApiModel):
     final_temperature: QuantityOutput
     final_pressure: QuantityOutput
     evaporated_mass: QuantityOutput
-    evaporated_fraction: QuantityOutput = Field(description="Of the initial water (unit 1).")
+    evaporated_fraction_of_water: QuantityOutput = Field(
+        description="Of the initial water (unit 1)."
+    )
     ice_mass: QuantityOutput
     vapor_to_pump: QuantityOutput
     vapor_to_condenser: QuantityOutput

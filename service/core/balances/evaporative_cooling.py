@@ -162,7 +162,7 @@ class EvaporativeCoolingResult:
     ----------
     evaporated_mass : ndarray
         kg (integrated method).
-    evaporated_fraction : ndarray
+    evaporated_fraction_of_product : ndarray
         evaporated_mass / initial product mass.
     mean_vapor_enthalpy_evaporated_mass : ndarray
         kg, hand method (one vapor enthalpy at the mean temperature).
@@ -205,7 +205,7 @@ class EvaporativeCoolingResult:
     """
 
     evaporated_mass: FloatArray
-    evaporated_fraction: FloatArray
+    evaporated_fraction_of_product: FloatArray
     mean_vapor_enthalpy_evaporated_mass: FloatArray
     relative_difference: FloatArray
     prewetting_water_mass: FloatArray
@@ -526,7 +526,7 @@ def _assumptions(case: EvaporativeCoolingCase) -> tuple[str, ...]:
         "pressure (water activity 1 for the vapor pressure and the pressures reported).",
         "Flashing starts when the chamber reaches the saturation pressure at the initial "
         "temperature; the final set point is the saturation pressure at the final temperature.",
-        "evaporated_fraction = evaporated mass / initial product mass.",
+        "evaporated_fraction_of_product = evaporated mass / initial product mass.",
         "Pre-wetting water: free water added at the initial temperature that stays on the "
         "product, cools with it and evaporates; each kilogram evaporates a fraction f of "
         "itself to cool itself, so the water to add is m_evaporated / (1 - f), heat gain per "
@@ -615,7 +615,7 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     >>> result = evaporative_cooling(EvaporativeCoolingCase(
     ...     product_mass=1.0, initial_temperature=298.15, final_temperature=275.15,
     ...     specific_heat=4000.0))
-    >>> round(float(result.evaporated_fraction), 4)
+    >>> round(float(result.evaporated_fraction_of_product), 4)
     0.0366
     """
     shape, cases = expand_case(case)
@@ -657,7 +657,7 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     )
     return EvaporativeCoolingResult(
         evaporated_mass=evaporated,
-        evaporated_fraction=evaporated / masses,
+        evaporated_fraction_of_product=evaporated / masses,
         mean_vapor_enthalpy_evaporated_mass=hand,
         relative_difference=(hand - evaporated) / evaporated,
         prewetting_water_mass=stack(lambda n: n.prewetting),

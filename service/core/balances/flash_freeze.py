@@ -172,7 +172,7 @@ class FlashFreezeResult:
         The headline method.
     evaporated_mass : ndarray
         kg of vapor removed over the whole process.
-    evaporated_fraction : ndarray
+    evaporated_fraction_of_water : ndarray
         evaporated_mass / initial water mass.
     ice_mass : ndarray
         kg of ice at the end.
@@ -207,7 +207,7 @@ class FlashFreezeResult:
 
     method: str
     evaporated_mass: FloatArray
-    evaporated_fraction: FloatArray
+    evaporated_fraction_of_water: FloatArray
     ice_mass: FloatArray
     liquid_mass: FloatArray
     final_temperature: FloatArray
@@ -972,7 +972,7 @@ def _assumptions(case: FlashFreezeCase) -> tuple[str, ...]:
         "nodes (spectral accuracy); the energy residual is reported.",
         "Mean-vapor-enthalpy (hand) method: one vapor enthalpy per stage at the stage's mean "
         "temperature, condensed-phase enthalpies at the stage ends, V dp neglected.",
-        "evaporated_fraction = evaporated mass / initial water mass.",
+        "evaporated_fraction_of_water = evaporated mass / initial water mass.",
         "Vapor volume: the volume the removed vapor occupies at the stage's equilibrium states, "
         "integral of dm / rho_vapor(T, p).",
         "The trajectory is that of the integrated method.",
@@ -1121,7 +1121,7 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
     Examples
     --------
     >>> result = flash_freeze(FlashFreezeCase(initial_temperature=293.15))
-    >>> round(float(result.evaporated_fraction), 3)
+    >>> round(float(result.evaporated_fraction_of_water), 3)
     0.147
     """
     method = case.method
@@ -1167,7 +1167,7 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
     return FlashFreezeResult(
         method=method,
         evaporated_mass=evaporated,
-        evaporated_fraction=evaporated / water,
+        evaporated_fraction_of_water=evaporated / water,
         ice_mass=per_case(lambda ld, o, p: p.stages[-1].end_ice),
         liquid_mass=per_case(lambda ld, o, p: p.stages[-1].end_mass - p.stages[-1].end_ice),
         final_temperature=per_case(lambda ld, o, p: p.stages[-1].end_temperature),
@@ -1183,7 +1183,7 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
         trajectory=Trajectory(
             temperature=trajectory_field(0),
             pressure=trajectory_field(1),
-            evaporated_fraction=trajectory_field(2),
+            evaporated_fraction_of_water=trajectory_field(2),
             ice_fraction=trajectory_field(3),
             liquid_fraction=1.0 - trajectory_field(2) - trajectory_field(3),
             stage=trajectory_field(4).astype(np.int64),

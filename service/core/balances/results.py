@@ -70,7 +70,7 @@ class Trajectory:
         K.
     pressure : ndarray
         Equilibrium vapor pressure, Pa.
-    evaporated_fraction : ndarray
+    evaporated_fraction_of_water : ndarray
         Mass evaporated so far / initial water mass.
     ice_fraction : ndarray
         Ice mass / initial water mass.
@@ -82,7 +82,7 @@ class Trajectory:
 
     temperature: FloatArray
     pressure: FloatArray
-    evaporated_fraction: FloatArray
+    evaporated_fraction_of_water: FloatArray
     ice_fraction: FloatArray
     liquid_fraction: FloatArray
     stage: NDArray[np.int64]

@@ -155,7 +155,7 @@ class SimulationSummary:
     final_temperature: float
     final_pressure: float
     evaporated_mass: float
-    evaporated_fraction: float
+    evaporated_fraction_of_water: float
     ice_mass: float
     vapor_to_pump: float
     vapor_to_condenser: float

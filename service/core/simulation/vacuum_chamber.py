@@ -412,7 +412,7 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
         "IAPWS R14-08 (sublimation pressure), through piecewise Chebyshev tables fitted to "
         "the balances' equilibrium paths.",
         "Evaporated mass = water the product lost; ice_fraction = ice mass / initial water "
-        "mass; evaporated_fraction = evaporated mass / initial water mass.",
+        "mass; evaporated_fraction_of_water = evaporated mass / initial water mass.",
         "Schedule: a limit is met when the product is at or below it at its time; a limit "
         "after the process ended at a target at or below it counts as met.",
         f"Integration: scipy solve_ivp LSODA, rtol {_RELATIVE_TOLERANCE:g}, in segments "
@@ -710,7 +710,7 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         final_temperature=final_rates.product.temperature,
         final_pressure=final_rates.total_pressure,
         evaporated_mass=evaporated,
-        evaporated_fraction=evaporated / water0,
+        evaporated_fraction_of_water=evaporated / water0,
         ice_mass=final_rates.product.ice_mass,
         vapor_to_pump=float(final[PUMPED]),
         vapor_to_condenser=float(final[CONDENSED]),

@@ -106,7 +106,7 @@ def test_flash_freeze_defaults(client: TestClient) -> None:
         "value": pytest.approx(float(core.evaporated_mass)),
         "unit": "kg",
     }
-    assert body["evaporated_fraction"]["unit"] == "1"
+    assert body["evaporated_fraction_of_water"]["unit"] == "1"
     assert body["ice_mass"]["value"] == pytest.approx(float(core.ice_mass))
     assert body["final_temperature"] == {"value": pytest.approx(273.16), "unit": "K"}
     assert [stage["name"] for stage in body["stages"]] == ["cooling", "freezing"]
@@ -143,9 +143,9 @@ def test_flash_freeze_from_the_triple_point_matches_latent_heats(client: TestCli
     ice = _Ice(273.16, 0.000611657)
     expected = (liquid.h - ice["h"]) / (vapor.h - ice["h"])
     body = _post(client, FLASH, {"initial_temperature": 273.16}, FlashFreezePublic)
-    assert body["evaporated_fraction"]["value"] == pytest.approx(expected, rel=1e-5)
+    assert body["evaporated_fraction_of_water"]["value"] == pytest.approx(expected, rel=1e-5)
     # about 333.4 / 2834.4 = 0.1176 (triple-point latent heats, from memory)
-    assert body["evaporated_fraction"]["value"] == pytest.approx(0.1176, abs=2e-4)
+    assert body["evaporated_fraction_of_water"]["value"] == pytest.approx(0.1176, abs=2e-4)
 
 
 def test_flash_freeze_every_option(client: TestClient) -> None:
@@ -321,7 +321,7 @@ def test_flash_freeze_sweep_matches_single_calls(client: TestClient) -> None:
             assert body[name]["values"][position] == pytest.approx(single[name]["value"], rel=1e-12)
         assert body["trajectory"][position] == single["trajectory"][0]
     # evaporated fraction rises with the initial temperature (the invariant)
-    fractions = dict(zip(temperatures, body["evaporated_fraction"]["values"], strict=True))
+    fractions = dict(zip(temperatures, body["evaporated_fraction_of_water"]["values"], strict=True))
     assert fractions[5.0] < fractions[20.0] < fractions[40.0]
 
 
@@ -405,14 +405,19 @@ def test_input_uncertainty_is_propagated(client: TestClient) -> None:
         "final_ice_temperature",
     ]
     assert block["inputs"][0]["standard_uncertainty"] == {"value": 0.5, "unit": "K"}
-    for name in ("evaporated_mass", "evaporated_fraction", "ice_mass", "final_temperature"):
+    for name in (
+        "evaporated_mass",
+        "evaporated_fraction_of_water",
+        "ice_mass",
+        "final_temperature",
+    ):
         assert block[name]["value"] > 0.0, name
     assert block["final_temperature"]["value"] == pytest.approx(1.0, rel=1e-6)
     # contributions combine in quadrature (GUM, JCGM 100:2008, Eq. 10, uncorrelated inputs)
     parts = [item["evaporated_mass_contribution"]["value"] for item in block["inputs"]]
     assert block["evaporated_mass"]["value"] == pytest.approx(math.hypot(*parts), rel=1e-12)
     # the water mass enters linearly: its contribution is the evaporated fraction times u(m)
-    fraction = body["evaporated_fraction"]["value"]
+    fraction = body["evaporated_fraction_of_water"]["value"]
     assert parts[1] == pytest.approx(fraction * 0.01, rel=1e-6)
 
 
@@ -460,7 +465,7 @@ def test_evaporative_lumped_against_the_core_and_the_rule_of_thumb(client: TestC
     assert body["evaporated_mass"]["value"] == pytest.approx(float(core.evaporated_mass), rel=1e-12)
     # Produce loses about 1 % of its mass per 5-6 degC of vacuum cooling (common practice,
     # no source); a wide band around it: 0.13 to 0.25 % per K.
-    per_kelvin = body["evaporated_fraction"]["value"] * 100.0 / 20.0
+    per_kelvin = body["evaporated_fraction_of_product"]["value"] * 100.0 / 20.0
     assert 0.13 < per_kelvin < 0.25
     assert body["prewetting_water_mass"]["value"] > body["evaporated_mass"]["value"]
     assert body["warnings"] == []

@@ -24,7 +24,7 @@ def test_water_mass_uncertainty_scales_linearly() -> None:
     result = propagate_input_uncertainty(
         flash_freeze, case, {"water_mass": 0.01}, ("evaporated_mass",)
     )
-    fraction = float(flash_freeze(case).evaporated_fraction)
+    fraction = float(flash_freeze(case).evaporated_fraction_of_water)
     assert float(result.standard_uncertainty["evaporated_mass"]) == pytest.approx(
         fraction * 0.01, rel=1e-9
     )

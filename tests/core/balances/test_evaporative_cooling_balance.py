@@ -46,7 +46,7 @@ def _lettuce(**changes: object) -> EvaporativeCoolingCase:
 def test_lettuce_loses_one_percent_per_five_to_six_kelvin() -> None:
     # common practice, no source: ~1 % of mass per 5-6 degC; 25 -> 2 degC gives 3.5-5 %
     result = evaporative_cooling(_lettuce())
-    assert 0.035 <= float(result.evaporated_fraction) <= 0.05
+    assert 0.035 <= float(result.evaporated_fraction_of_product) <= 0.05
 
 
 def test_pressures_are_saturation_pressures() -> None:
@@ -80,7 +80,7 @@ def test_lumped_specific_heat_matches_the_textbook_estimate() -> None:
     )
     latent = IAPWS95(T=286.65, x=1.0).h - IAPWS95(T=286.65, x=0.0).h
     estimate = 4000.0 * 23.0 / (latent * 1e3)
-    assert float(result.evaporated_fraction) == pytest.approx(estimate, rel=0.02)
+    assert float(result.evaporated_fraction_of_product) == pytest.approx(estimate, rel=0.02)
 
 
 def test_prewetting_flows_and_condenser_load() -> None:
@@ -99,8 +99,8 @@ def test_prewetting_flows_and_condenser_load() -> None:
 
 def test_sweep_and_monotonic_in_initial_temperature() -> None:
     result = evaporative_cooling(_lettuce(initial_temperature=np.array([288.15, 298.15, 308.15])))
-    assert result.evaporated_fraction.shape == (3,)
-    assert np.all(np.diff(result.evaporated_fraction) > 0.0)
+    assert result.evaporated_fraction_of_product.shape == (3,)
+    assert np.all(np.diff(result.evaporated_fraction_of_product) > 0.0)
 
 
 @pytest.mark.parametrize(
@@ -134,9 +134,9 @@ def test_input_and_property_uncertainty() -> None:
     # linear sensitivity: d(fraction)/d(T_initial) ~ fraction / (T_i - T_f)
     case = _lettuce()
     propagated = propagate_input_uncertainty(
-        evaporative_cooling, case, {"initial_temperature": 0.5}, ("evaporated_fraction",)
+        evaporative_cooling, case, {"initial_temperature": 0.5}, ("evaporated_fraction_of_product",)
     )
-    base = float(evaporative_cooling(case).evaporated_fraction)
+    base = float(evaporative_cooling(case).evaporated_fraction_of_product)
     expected = base / 23.0 * 0.5
-    value = float(propagated.standard_uncertainty["evaporated_fraction"])
+    value = float(propagated.standard_uncertainty["evaporated_fraction_of_product"])
     assert value == pytest.approx(expected, rel=0.05)

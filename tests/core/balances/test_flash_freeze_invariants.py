@@ -95,7 +95,7 @@ def test_energy_balance_closes_for_a_freezing_solution(
 @given(st.floats(min_value=273.16, max_value=372.0), st.floats(min_value=0.05, max_value=1.0))
 def test_evaporated_fraction_rises_with_initial_temperature(lower: float, step: float) -> None:
     result = flash_freeze(FlashFreezeCase(initial_temperature=np.array([lower, lower + step])))
-    fractions = result.evaporated_fraction
+    fractions = result.evaporated_fraction_of_water
     assert fractions[1] > fractions[0]
 
 
@@ -136,7 +136,7 @@ def test_trajectory_has_at_least_50_points_and_ends_frozen() -> None:
     assert trajectory.temperature.size >= 50
     assert trajectory.temperature[0] == 300.0
     assert trajectory.ice_fraction[-1] == pytest.approx(float(result.ice_mass))
-    assert np.all(np.diff(trajectory.evaporated_fraction) >= -1e-15)
+    assert np.all(np.diff(trajectory.evaporated_fraction_of_water) >= -1e-15)
     names = [stage.name for stage in result.stages]
     assert names == ["cooling", "supercooled cooling", "recalescence", "freezing", "ice cooling"]
 
@@ -149,8 +149,8 @@ def test_supercooling_forms_ice_at_once_and_changes_little_in_total() -> None:
     recalescence = supercooled.stages[2]
     # sensible heat of 10 K of liquid over the heat of fusion: about 4.2 * 10 / 333 of the water
     assert 0.10 < float(recalescence.ice_formed) < 0.14
-    assert float(supercooled.evaporated_fraction) == pytest.approx(
-        float(plain.evaporated_fraction), rel=2e-3
+    assert float(supercooled.evaporated_fraction_of_water) == pytest.approx(
+        float(plain.evaporated_fraction_of_water), rel=2e-3
     )
 
 

@@ -65,4 +65,4 @@ def test_evaporated_fraction_matches_independent_iapws_integration(
     # source: independent scipy RK45 integration on iapws 1.5.5 IAPWS95 and _Ice (R10-06)
     expected = _independent_evaporated_fraction(initial_temperature)
     result = flash_freeze(FlashFreezeCase(initial_temperature=initial_temperature))
-    assert float(result.evaporated_fraction) == pytest.approx(expected, rel=tolerance)
+    assert float(result.evaporated_fraction_of_water) == pytest.approx(expected, rel=tolerance)
