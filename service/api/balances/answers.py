@@ -13,7 +13,7 @@ import numpy as np
 
 from service.api.balances.requests import BalanceInputs
 from service.api.http.envelope import envelope
-from service.api.http.quantities import quantity_output
+from service.api.http.quantities import echo_output, quantity_output
 from service.api.http.units import Dimension, UnitSet
 from service.core.balances import (
     EvaporativeCoolingCase,
@@ -86,6 +86,13 @@ class _Shaper:
     def __call__(self, si: Any, dimension: Dimension) -> dict[str, Any]:
         array = np.asarray(si, dtype=np.float64).reshape(-1)
         return quantity_output(array, dimension, self.unit_set, as_array=self.as_array)
+
+    def echo(self, field: str, si: Any, dimension: Dimension) -> dict[str, Any] | None:
+        """An input repeated in the answer, in the unit the caller sent it in."""
+        if si is None:
+            return None
+        array = np.asarray(si, dtype=np.float64).reshape(-1)
+        return echo_output(field, array, dimension, self.unit_set, as_array=self.as_array)
 
     def fields(
         self, source: object, fields: Iterable[tuple[str, Dimension]]
@@ -225,7 +232,9 @@ def flash_freeze_answer(
                 ("heat_gained", Dimension.ENERGY),
             ),
         ),
-        "trap_temperature": _optional(shape, result.trap_temperature, Dimension.TEMPERATURE),
+        "trap_temperature": shape.echo(
+            "trap_temperature", result.trap_temperature, Dimension.TEMPERATURE
+        ),
         "condenser_load": _optional(shape, result.condenser_load, Dimension.ENERGY),
         "stages": [_stage_output(stage, shape) for stage in result.stages],
         "trajectory": _trajectories(result, unit_set),
@@ -307,17 +316,11 @@ def evaporative_cooling_answer(
             ),
         ),
         "freezing_point_basis": result.freezing_point_basis,
-        "trap_temperature": _optional(
-            shape,
-            None if case.trap_temperature is None else np.asarray(case.trap_temperature),
-            Dimension.TEMPERATURE,
+        "trap_temperature": shape.echo(
+            "trap_temperature", case.trap_temperature, Dimension.TEMPERATURE
         ),
         "condenser_load": _optional(shape, result.condenser_load, Dimension.ENERGY),
-        "cooling_time": _optional(
-            shape,
-            None if case.cooling_time is None else np.asarray(case.cooling_time),
-            Dimension.TIME,
-        ),
+        "cooling_time": shape.echo("cooling_time", case.cooling_time, Dimension.TIME),
         "mean_vapor_mass_flow": _optional(shape, result.mean_vapor_mass_flow, Dimension.MASS_FLOW),
         "mean_vapor_volume_flow": _optional(
             shape, result.mean_vapor_volume_flow, Dimension.VOLUME_FLOW

@@ -9,7 +9,7 @@ from typing import Any, NoReturn
 import numpy as np
 
 from service.api.http.models import QuantityValue, QuantityValues
-from service.api.http.sent_units import note_unit
+from service.api.http.sent_units import note_unit, sent_unit
 from service.api.http.units import (
     Dimension,
     UnitSet,
@@ -18,12 +18,14 @@ from service.api.http.units import (
     number_to_si,
     output_unit,
     parse_quantity_text,
+    si_to_unit,
 )
 from service.core.errors import InvalidInputError
 from service.core.properties.phase import FloatArray
 
 __all__ = [
     "ParsedQuantity",
+    "echo_output",
     "quantity_output",
     "read_quantity",
     "require_exactly_one",
@@ -175,6 +177,26 @@ def quantity_output(
     if as_array:
         return {"values": values, "unit": unit}
     return {"value": float(converted.reshape(-1)[0]), "unit": unit}
+
+
+def echo_output(
+    field: str,
+    si_values: FloatArray,
+    dimension: Dimension,
+    unit_set: UnitSet,
+    *,
+    as_array: bool,
+) -> dict[str, Any]:
+    """An input repeated in the answer: in the unit the caller sent ``field`` in (as
+    noted during this request), else as :func:`quantity_output` gives it."""
+    sent = sent_unit(field)
+    if sent is None or sent.unit is None or sent.dimension is not dimension:
+        return quantity_output(si_values, dimension, unit_set, as_array=as_array)
+    values = [si_to_unit(float(item), sent.unit, dimension) for item in np.ravel(si_values)]
+    values = [float(f"{item:.12g}") for item in values]
+    if as_array:
+        return {"values": values, "unit": sent.unit.strip()}
+    return {"value": values[0], "unit": sent.unit.strip()}
 
 
 def scalar_output(

@@ -323,6 +323,10 @@ def _input_map(unit: str | None, dimension: Dimension, *, field: str) -> _Linear
     return linear
 
 
+OFFSET_DECIMALS = 10
+"""Decimals kept in a value converted to a unit with an offset (degC, degF)."""
+
+
 def si_unit_label(dimension: Dimension) -> str:
     """The SI label of ``dimension`` as the API writes it (``"m3"``, ``"1"``)."""
     return _SI_LABEL[dimension]
@@ -331,7 +335,8 @@ def si_unit_label(dimension: Dimension) -> str:
 def si_to_unit(value: float, unit: str, dimension: Dimension) -> float:
     """Express one SI ``value`` in ``unit`` (a unit already read for ``dimension``)."""
     linear = _linear_map(unit.strip(), dimension)
-    return (value - linear.offset) / linear.scale
+    converted = (value - linear.offset) / linear.scale
+    return round(converted, OFFSET_DECIMALS) + 0.0 if linear.offset != 0.0 else converted
 
 
 def output_unit(dimension: Dimension, unit_set: UnitSet) -> str:
@@ -357,7 +362,15 @@ def convert_from_si(
     linear = _linear_map(_OUTPUT_UNITS[unit_set][dimension], dimension)
     if linear.scale == 1.0 and linear.offset == 0.0:
         return values
-    return (values - linear.offset) / linear.scale
+    converted = (values - linear.offset) / linear.scale
+    if linear.offset != 0.0:
+        # Subtracting an offset of about 273 leaves noise near 1e-13 (273.16 K is
+        # 0.010000000000047748 degC): answers carry 1e-10 degree resolution, far below any
+        # formulation's uncertainty (adding 0.0 turns -0.0 into 0.0).
+        if isinstance(converted, float):
+            return round(converted, OFFSET_DECIMALS) + 0.0
+        return np.round(converted, OFFSET_DECIMALS) + 0.0
+    return converted
 
 
 def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:

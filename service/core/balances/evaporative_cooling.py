@@ -248,6 +248,12 @@ class _Numbers:
     composition_rescaled: bool
 
 
+FREEZING_POINT_WARNING_BAND: Final = 3.0
+"""K above 273.16 K below which a final temperature draws the freezing-point-assumed
+warning (common practice, no source: fresh foods begin to freeze between about -0.5 and
+-3 degC)."""
+
+
 def _freezing_point_basis(case: EvaporativeCoolingCase) -> FreezingPointBasis:
     if case.freezing_point is not None:
         return "given"
@@ -643,12 +649,20 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
             warnings.append(Advisory(code, message, indices))
 
     basis = _freezing_point_basis(case)
+    # Only where the assumption can change the answer: a final temperature within
+    # FREEZING_POINT_WARNING_BAND of pure water's freezing point, where a real product's
+    # lower freezing point decides whether it freezes.
+    near_freezing = [
+        float(np.asarray(c.final_temperature))
+        < TRIPLE_POINT_TEMPERATURE + FREEZING_POINT_WARNING_BAND
+        for c in cases
+    ]
     flag(
-        [basis == "pure water (no data)" for _ in numbers],
+        [basis == "pure water (no data)" and near for near in near_freezing],
         "freezing-point-assumed",
         "No product freezing point given and no dissolved solids to estimate it: pure "
         "water's 273.16 K was used for the range check; real products freeze lower (often "
-        "-0.5 to -2 degC).",
+        "-0.5 to -2 degC), which matters this close to freezing: give freezing_point.",
     )
     flag(
         [n.composition_rescaled for n in numbers],

@@ -25,6 +25,7 @@ from service.core.properties.advisories import Advisory, advise_where, near_crit
 from service.core.properties.constants import (
     CRITICAL_PRESSURE,
     CRITICAL_TEMPERATURE,
+    TRIPLE_POINT_PRESSURE,
     TRIPLE_POINT_TEMPERATURE,
 )
 from service.core.properties.helmholtz import MAXIMUM_TEMPERATURE as IAPWS95_MAXIMUM_TEMPERATURE
@@ -43,7 +44,13 @@ from service.core.properties.if97 import (
 from service.core.properties.phase import FloatArray, PhaseProperties
 from service.core.properties.phase_lines import melting_pressure, sublimation_pressure
 from service.core.properties.saturation import Formulation, saturation_pressure
-from service.core.validation import broadcast_pair, finite_array, require_within
+from service.core.validation import (
+    beyond_maximum,
+    beyond_minimum,
+    broadcast_pair,
+    finite_array,
+    require_within,
+)
 
 __all__ = [
     "MAXIMUM_PRESSURE",
@@ -127,7 +134,7 @@ def _stable_phase(temperature: FloatArray, pressure: FloatArray) -> NDArray[np.i
 
 
 def _requested_codes(
-    stable: NDArray[np.int8], temperature: FloatArray, phase: Phase | None
+    stable: NDArray[np.int8], temperature: FloatArray, pressure: FloatArray, phase: Phase | None
 ) -> NDArray[np.int8]:
     if phase is None:
         return stable
@@ -143,7 +150,14 @@ def _requested_codes(
             phase,
         )
     if phase == "ice":
-        not_ice = (stable == _LIQUID) | (temperature > TRIPLE_POINT_TEMPERATURE)
+        # At the triple point (R14-08: 273.16 K, 611.657 Pa) ice coexists with liquid and
+        # vapor; at 273.16 K it melts above that pressure (the melting curve falls).
+        at_triple_point = ~beyond_maximum(temperature, TRIPLE_POINT_TEMPERATURE) & ~beyond_maximum(
+            pressure, TRIPLE_POINT_PRESSURE
+        )
+        not_ice = ((stable == _LIQUID) & ~at_triple_point) | beyond_maximum(
+            temperature, TRIPLE_POINT_TEMPERATURE
+        )
         if not_ice.any():
             index = int(np.flatnonzero(not_ice.ravel())[0])
             raise UnsupportedStateError(
@@ -264,7 +278,7 @@ def state_at(
     require_within(p, "pressure", 0.0, MAXIMUM_PRESSURE, "Pa", reason, exclusive_minimum=True)
     batch = np.ndim(temperature) > 0 or np.ndim(pressure) > 0
     stable = _stable_phase(t, p)
-    code = _requested_codes(stable, t, phase)
+    code = _requested_codes(stable, t, p, phase)
     parts: list[tuple[NDArray[np.intp], PhaseProperties]] = []
     used: list[sources.PropertySource] = []
     # Supercritical states are solved on the dense (liquid) branch of the fluid.
@@ -291,6 +305,16 @@ def state_at(
         "near-critical-point",
         "Within 1 K and 1 % of the critical point: heat capacity and compressibility change "
         "steeply and the formulation's uncertainty is larger.",
+        batch=batch,
+    )
+    fluid = (code == _LIQUID) | (code == _VAPOR)
+    advisories += advise_where(
+        fluid & beyond_minimum(t, TRIPLE_POINT_TEMPERATURE, exclusive=False),
+        "extrapolated",
+        "Liquid or vapor below 273.16 K: IAPWS-95 is fitted to data at and above the "
+        "melting and sublimation lines, so here it is extrapolated (into supercooled liquid "
+        "or vapor over ice); its stated uncertainty does not cover these states, and the "
+        "values carry more doubt the further below 273.16 K they lie.",
         batch=batch,
     )
     unique_sources = tuple(dict.fromkeys(used))

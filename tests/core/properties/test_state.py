@@ -68,7 +68,7 @@ def test_ice_matches_r10_06_reference() -> None:
 def test_metastable_liquid_on_request_matches_iapws95() -> None:
     result = state_at(263.15, 101_325.0, phase="liquid")
     assert bool(result.metastable[0])
-    assert [advisory.code for advisory in result.advisories] == ["metastable"]
+    assert [advisory.code for advisory in result.advisories] == ["metastable", "extrapolated"]
     with warnings.catch_warnings():
         # iapws warns when it extrapolates below 273.15 K; that is expected here.
         warnings.simplefilter("ignore")
@@ -155,3 +155,28 @@ def test_if97_state_above_the_critical_temperature_is_region_2(
     # Above B23 (region 3) stays refused with a reason naming it.
     with pytest.raises(OutOfRangeError, match="region 3"):
         state_at(700.0, 50.0e6, formulation="IAPWS-IF97")
+
+
+def test_ice_at_the_triple_point_is_served() -> None:
+    # IAPWS R10-06(2009), Table 6: ice Ih at T = 273.16 K, p = 611.657 Pa has
+    # rho = 916.709492200 kg/m3. At the triple point ice coexists with liquid and vapor.
+    result = state_at(273.16, 611.657, phase="ice")
+    assert float(result.properties.density[0]) == pytest.approx(916.709492200, rel=1e-9)
+    # -30 degC style rounding of the temperature changes nothing.
+    again = state_at(0.01 + 273.15, 611.657, phase="ice")
+    assert float(again.properties.density[0]) == pytest.approx(916.709492200, rel=1e-9)
+    # Above the triple-point pressure at 273.16 K ice lies above its melting curve.
+    with pytest.raises(UnsupportedStateError, match="melting curve"):
+        state_at(273.16, 101325.0, phase="ice")
+
+
+def test_fluid_below_the_triple_point_temperature_is_flagged_as_extrapolated() -> None:
+    # IAPWS-95 is fitted at and above the melting and sublimation lines (R6-95(2018),
+    # range of validity); below 273.16 K a liquid or vapor state is an extrapolation.
+    result = state_at(np.array([263.15, 300.0, 263.15, 273.16]), np.array([1e5, 1e5, 100.0, 1e5]))
+    assert list(result.phase) == ["ice", "liquid", "vapor", "liquid"]
+    flagged = [item for item in result.advisories if item.code == "extrapolated"]
+    assert len(flagged) == 1 and flagged[0].indices == (2,)
+    supercooled = state_at(263.15, 1e5, phase="liquid")
+    assert {item.code for item in supercooled.advisories} == {"metastable", "extrapolated"}
+    assert not state_at(293.15, 1e5).advisories
