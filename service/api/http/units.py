@@ -236,6 +236,11 @@ def _refuse_common_mistakes(unit: str, dimension: Dimension) -> None:
             "reading) and send the result in an absolute unit, e.g. -0.95 barg is about "
             "0.063 bar"
         )
+    if dimension is Dimension.TEMPERATURE and "delta" in unit.lower():
+        raise ValueError(
+            f"{unit!r} is a temperature difference; this field is a temperature: write "
+            "degC, degF or K"
+        )
     letter = _TEMPERATURE_LETTERS.get(unit.strip().lower())
     if kind.startswith("TEMPERATURE") and letter is not None:
         spelling, reading = letter
