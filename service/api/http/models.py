@@ -39,7 +39,9 @@ class QuantityValue(ApiModel):
 
     value: FiniteFloat = Field(description="The number, in `unit`.")
     unit: str | None = Field(
-        None, description="Unit, e.g. `degC`, `kPa`; omitted means the field's default unit."
+        None,
+        description="Unit, e.g. `degC`, `kPa` (at most 64 characters); omitted means the "
+        "field's default unit.",
     )
     uncertainty: NonNegativeFloat | None = Field(
         None,
@@ -52,15 +54,19 @@ class QuantityValues(ApiModel):
     """An array of values sharing one unit (a batch or a sweep)."""
 
     values: list[FiniteFloat] = Field(min_length=1, description="The numbers, in `unit`.")
-    unit: str | None = Field(None, description="Unit; omitted means the field's default unit.")
+    unit: str | None = Field(
+        None,
+        description="Unit (at most 64 characters); omitted means the field's default unit.",
+    )
     uncertainty: NonNegativeFloat | None = Field(
         None, description="Standard uncertainty (k=1) of every value, in `unit`."
     )
 
 
 QuantityInput = FiniteFloat | str | QuantityValue | QuantityValues | list[FiniteFloat]
-"""A number in the default unit, `"25 degC"`, `{"value", "unit"}`, `{"values", "unit"}`,
-or a list."""
+"""A number in the default unit, `"25 degC"` (an ASCII number and one unit, at most 96
+characters; refused with a 422 naming the field before any parsing), `{"value", "unit"}`,
+`{"values", "unit"}`, or a list."""
 
 
 class QuantityOutput(ApiModel):

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import json
+import logging
 import math
 from typing import Any
 
@@ -11,7 +12,7 @@ from fastapi.exceptions import RequestValidationError
 from pydantic import BaseModel, Field
 from starlette.exceptions import HTTPException as StarletteHTTPException
 
-from service.api.http.responses import FastJSONResponse
+from service.api.http.responses import FastJSONResponse, NonFiniteResultError
 from service.api.http.sent_units import sent_unit
 from service.api.http.units import si_to_unit, si_unit_label
 from service.core.errors import (
@@ -41,6 +42,7 @@ __all__ = [
 ]
 
 PROBLEM_MEDIA_TYPE = "application/problem+json"
+_log = logging.getLogger("tripoint.errors")
 _TYPE_PREFIX = "urn:tripoint:problem:"
 _PROBLEM_SCHEMA_REF = "#/components/schemas/Problem"
 _DESCRIPTIONS = {
@@ -94,6 +96,9 @@ class Problem(BaseModel):
     detail: str = Field(description="What went wrong in this request.")
     instance: str | None = Field(None, description="Path of the request.")
     errors: list[FieldError] = Field(default_factory=list, description="Offending inputs.")
+    request_id: str | None = Field(
+        None, description="The request's id (as in `X-Request-ID`), on server errors."
+    )
 
 
 class ProblemError(Exception):
@@ -121,8 +126,15 @@ _JSON_INTEGER_RANGE = range(-(2**63), 2**64)
 """Integers the JSON renderer (orjson) writes as numbers; others are echoed as text."""
 
 
+_ECHO_LENGTH = 100
+"""Longest received text echoed in a problem document; longer ones are cut."""
+
+
 def _finite_or_none(value: object) -> object:
-    """The received value as JSON can carry it: non-finite floats and huge integers as text."""
+    """The received value as JSON can carry it: non-finite floats and huge integers as text,
+    long text cut to its first characters and its length."""
+    if isinstance(value, str) and len(value) > _ECHO_LENGTH:
+        return f"{value[:_ECHO_LENGTH]}... ({len(value)} characters)"
     if isinstance(value, float) and not math.isfinite(value):
         return str(value)
     if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
@@ -147,6 +159,8 @@ def problem_body(problem: Problem, instance: str | None) -> dict[str, Any]:
     """
     body = problem.model_dump()
     body["instance"] = instance
+    if body.get("request_id") is None:
+        body.pop("request_id", None)
     for error in body["errors"]:
         error["value"] = _finite_or_none(error["value"])
     return body
@@ -356,7 +370,35 @@ def install_problem_handlers(app: FastAPI) -> None:
         )
         return _render(request, problem, dict(error.headers) if error.headers else None)
 
+    async def on_non_finite(request: Request, error: Exception) -> FastJSONResponse:
+        problem = make_problem(
+            422,
+            "result-not-finite",
+            "Inputs outside what the calculation can hold",
+            "The inputs drive the calculation to a number that is not finite (an overflow "
+            "or a division by almost nothing); check the magnitudes sent.",
+            [FieldError(field="body", message="a result is not finite")],
+        )
+        return _render(request, problem)
+
+    async def on_unexpected(request: Request, error: Exception) -> FastJSONResponse:
+        request_id = request.scope.get("state", {}).get("request_id")
+        _log.error("unexpected error", exc_info=error, extra={"fields": {"path": request.url.path}})
+        problem = make_problem(
+            500,
+            "internal-error",
+            "Internal error",
+            "The service failed on this request; it is a defect. Quote the request id when "
+            "reporting it.",
+        )
+        body = problem_body(problem, request.url.path)
+        body["request_id"] = request_id
+        headers = {"X-Request-ID": request_id} if request_id else None
+        return FastJSONResponse(body, 500, media_type=PROBLEM_MEDIA_TYPE, headers=headers)
+
     app.add_exception_handler(ProblemError, on_problem)
+    app.add_exception_handler(NonFiniteResultError, on_non_finite)
+    app.add_exception_handler(Exception, on_unexpected)
     for kind in (OutOfRangeError, InvalidInputError, UnsupportedStateError, NotConvergedError):
         app.add_exception_handler(kind, on_core)
     app.add_exception_handler(RequestValidationError, on_validation)

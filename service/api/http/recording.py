@@ -23,7 +23,8 @@ from pydantic import BaseModel
 
 from service import __version__
 from service.api.http.observability import Metrics
-from service.api.http.problems import ProblemError
+from service.api.http.problems import FieldError, ProblemError
+from service.api.http.responses import NonFiniteResultError, check_finite
 from service.records import CalculationRecord, RecordStore, StoreUnavailableError
 
 __all__ = ["NOT_STORED_WARNING", "RecordKeeper", "record_calculation"]
@@ -197,6 +198,75 @@ def record_calculation(
         sent = inputs.model_dump(mode="json", exclude_unset=True, by_alias=True)
     else:
         sent = dict(inputs)
+    try:
+        check_finite(result)  # a record is written only for an answer that can be sent
+    except NonFiniteResultError:
+        raise non_finite_problem(sent) from None
     key_id = getattr(request.state, "api_key_id", None)
     keeper.record(kind=kind, inputs=sent, result=result, key_id=key_id)
     return result
+
+
+_EXTREME = (1.0e-12, 1.0e12)
+"""Magnitudes of an input number outside which it is named as the likely cause of a
+result that is not finite."""
+
+
+def _extreme_inputs(node: Any, path: str = "") -> list[tuple[str, object]]:
+    """Dotted paths and values of input numbers far from ordinary magnitudes."""
+    found: list[tuple[str, object]] = []
+    if isinstance(node, dict):
+        if "value" in node or "values" in node:
+            numbers = node.get("values", [node.get("value")])
+            numbers = numbers if isinstance(numbers, list) else [numbers]
+            if any(_is_extreme(item) for item in numbers):
+                found.append((path, node.get("value", node.get("values"))))
+            return found
+        for key, child in node.items():
+            found += _extreme_inputs(child, f"{path}.{key}" if path else str(key))
+    elif isinstance(node, list):
+        if any(_is_extreme(item) for item in node):
+            found.append((path, None))
+        for position, child in enumerate(node):
+            if isinstance(child, dict):
+                found += _extreme_inputs(child, f"{path}[{position}]")
+    elif _is_extreme(node) or (isinstance(node, str) and _text_is_extreme(node)):
+        found.append((path, node))
+    return found
+
+
+def _is_extreme(value: object) -> bool:
+    if isinstance(value, bool) or not isinstance(value, int | float):
+        return False
+    magnitude = abs(float(value))
+    return magnitude != 0.0 and not _EXTREME[0] <= magnitude <= _EXTREME[1]
+
+
+def _text_is_extreme(text: str) -> bool:
+    number = text.strip().split(" ", 1)[0]
+    try:
+        return _is_extreme(float(number))
+    except ValueError:
+        return False
+
+
+def non_finite_problem(sent: Mapping[str, Any]) -> ProblemError:
+    """The 422 for inputs that drive a calculation to a number that is not finite."""
+    suspects = _extreme_inputs(dict(sent))
+    named = ", ".join(path for path, _ in suspects) or "body"
+    return ProblemError(
+        422,
+        "result-not-finite",
+        "Inputs outside what the calculation can hold",
+        "The inputs drive the calculation to a number that is not finite (an overflow or "
+        f"a division by almost nothing); the likely cause: {named}. Nothing was stored.",
+        [
+            FieldError(
+                field=path,
+                message="magnitude far outside ordinary values (1e-12 to 1e12 in the unit sent)",
+                value=value if isinstance(value, int | float | str) else None,
+            )
+            for path, value in suspects
+        ]
+        or [FieldError(field="body", message="no single input stands out")],
+    )

@@ -9,7 +9,7 @@ import numpy as np
 import orjson
 from starlette.responses import JSONResponse
 
-__all__ = ["FastJSONResponse", "NonFiniteResultError"]
+__all__ = ["FastJSONResponse", "NonFiniteResultError", "check_finite"]
 
 _OPTIONS = orjson.OPT_SERIALIZE_NUMPY | orjson.OPT_NON_STR_KEYS
 
@@ -26,7 +26,7 @@ def _refuse() -> None:
     raise NonFiniteResultError("non-finite number in a response")
 
 
-def _check_finite(content: Any) -> None:
+def check_finite(content: Any) -> None:
     """Raise :class:`NonFiniteResultError` if ``content`` holds NaN or infinity anywhere.
 
     The walk tests exact types first (the common case of an answer built from dicts,
@@ -77,5 +77,5 @@ class FastJSONResponse(JSONResponse):
     media_type = "application/json"
 
     def render(self, content: Any) -> bytes:
-        _check_finite(content)
+        check_finite(content)
         return orjson.dumps(content, option=_OPTIONS)

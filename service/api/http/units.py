@@ -18,7 +18,7 @@ import math
 import re
 from dataclasses import dataclass
 from enum import Enum, StrEnum
-from functools import cache
+from functools import cache, lru_cache
 from typing import Any, overload
 
 import numpy as np
@@ -28,6 +28,8 @@ from service.core.errors import InvalidInputError
 from service.core.properties.phase import FloatArray
 
 __all__ = [
+    "MAX_QUANTITY_TEXT_LENGTH",
+    "MAX_UNIT_LENGTH",
     "Dimension",
     "UnitSet",
     "convert_from_si",
@@ -155,8 +157,19 @@ _ABSOLUTE_TEMPERATURE_ALIASES = {
 }
 
 _NUMBER_WITH_UNIT = re.compile(
-    r"^\s*(?P<number>[-+]?(?:\d+(?:\.\d*)?|\.\d+)(?:[eE][-+]?\d+)?)\s*(?P<unit>.*?)\s*$"
+    r"^ *(?P<number>[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]{1,3})?) *"
+    r"(?P<unit>.*?) *$"
 )
+"""A quantity text: an ASCII decimal number (exponent of at most three digits), then
+the unit; nothing else."""
+_UNIT_TEXT = re.compile(r"^[A-Za-z0-9µμ°º℃℉% *./^()_-]*$")
+"""The characters a unit may hold (letters, digits, the degree and micro signs, percent,
+and the operators ``* / ^ ( ) . _ -``). Refusing the rest (``#`` starts a comment for
+pint, control and non-ASCII digit characters) keeps one text to one meaning."""
+MAX_UNIT_LENGTH = 64
+"""Longest unit text read (longer ones are refused before any parsing)."""
+MAX_QUANTITY_TEXT_LENGTH = 96
+"""Longest quantity text (number and unit) read."""
 _OFFSET_IN_COMPOUND = re.compile(r"(°C|°F|\bdegC\b|\bdegF\b|\bcelsius\b|\bfahrenheit\b)")
 _BTU = re.compile(r"\b(?:Btu|BTU|btu)\b")
 """The International Table Btu (1055.05585 J), the one steam tables use."""
@@ -263,9 +276,22 @@ def _pint_spelling(unit: str, dimension: Dimension) -> str:
     return _OFFSET_IN_COMPOUND.sub(lambda match: _COMPOUND_REPLACEMENTS[match.group(1)], text)
 
 
-@cache
+@lru_cache(maxsize=1024)
 def _linear_map(unit: str, dimension: Dimension) -> _Linear:
-    """Return the cached (scale, offset) that takes ``unit`` to SI for ``dimension``."""
+    """Return the cached (scale, offset) that takes ``unit`` to SI for ``dimension``.
+
+    The cache holds the 1024 most recently used units: bounded whatever clients send.
+    """
+    if len(unit) > MAX_UNIT_LENGTH:
+        raise ValueError(
+            f"a unit of {len(unit)} characters is longer than the {MAX_UNIT_LENGTH} "
+            "characters a unit may have"
+        )
+    if not _UNIT_TEXT.match(unit):
+        raise ValueError(
+            "a unit holds letters, digits, the degree and micro signs, percent and "
+            "* / ^ ( ) . _ - only"
+        )
     registry = _registry()
     _refuse_common_mistakes(unit, dimension)
     spelling = _pint_spelling(unit, dimension)
@@ -322,7 +348,8 @@ def _input_map(unit: str | None, dimension: Dimension, *, field: str) -> _Linear
     try:
         linear = _linear_map(unit.strip(), dimension)
     except ValueError as error:
-        raise InvalidInputError(field, str(error), unit) from None
+        echoed = unit if len(unit) <= MAX_UNIT_LENGTH else None
+        raise InvalidInputError(field, str(error), echoed) from None
     if linear.scale == 1.0 and linear.offset == 0.0:
         return None
     return linear
@@ -386,10 +413,19 @@ def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:
     InvalidInputError
         If the text does not start with a finite number.
     """
+    if len(text) > MAX_QUANTITY_TEXT_LENGTH:
+        raise InvalidInputError(
+            field,
+            f"a quantity text of {len(text)} characters is longer than the "
+            f"{MAX_QUANTITY_TEXT_LENGTH} characters one may have",
+            None,
+        )
     match = _NUMBER_WITH_UNIT.match(text)
     if match is None:
         raise InvalidInputError(
-            field, f"{text!r} is not a number optionally followed by a unit", text
+            field,
+            f"{text!r} is not an ASCII decimal number optionally followed by a unit",
+            text,
         )
     number = float(match.group("number"))
     if not math.isfinite(number):  # pragma: no cover - regex admits finite literals only

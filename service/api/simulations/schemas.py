@@ -55,7 +55,9 @@ class ChamberInput(ApiModel):
     """The chamber: its free gas volume, the air in it at the start, its leak."""
 
     free_volume: QuantityInput = Field(
-        description=_described("Gas volume (chamber minus load). Default unit m3; > 0.")
+        description=_described(
+            "Gas volume (chamber minus load). Default unit m3; 1e-6 to 1e4 (1 mL to 10,000 m3)."
+        )
     )
     initial_pressure: QuantityInput = Field(
         101325.0,

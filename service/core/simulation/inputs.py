@@ -38,6 +38,7 @@ __all__ = [
 EvaporationModel = Literal["equilibrium", "kinetic"]
 
 SIMULATION_LIMITS: Final = {
+    "free_volume_min": 1.0e-6,
     "free_volume_max": 1.0e4,
     "initial_pressure_max": 2.0e5,
     "chamber_temperature_min": LIQUID_TEMPERATURE_MIN,
@@ -60,7 +61,7 @@ class Chamber:
     Attributes
     ----------
     free_volume : float
-        Gas volume, m3 (chamber minus product and fixtures), > 0.
+        Gas volume, m3 (chamber minus product and fixtures), 1e-6 to 1e4.
     initial_pressure : float
         Partial pressure of the air at the start, Pa, > 0.
     temperature : float
@@ -228,11 +229,11 @@ def _validate_chamber(chamber: Chamber) -> None:
     require_scalar_within(
         chamber.free_volume,
         "chamber.free_volume",
-        0.0,
+        limits["free_volume_min"],
         limits["free_volume_max"],
         "m3",
-        "the chamber needs a positive free volume",
-        exclusive_minimum=True,
+        "from 1 mL (smaller gas volumes make the chamber balance too stiff to integrate "
+        "and are not a vacuum chamber) to 10,000 m3",
     )
     require_scalar_within(
         chamber.initial_pressure,
