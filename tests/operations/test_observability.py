@@ -125,3 +125,20 @@ def test_cors_off_unless_configured(tmp_path: Path) -> None:
     assert allowed.status_code == 200, "a preflight needs no key"
     assert allowed.headers["access-control-allow-origin"] == "https://lims.example.org"
     assert other.status_code == 400
+
+
+def test_a_log_line_stays_small_and_carries_no_long_input() -> None:
+    unit = "m/" * 4_000_000  # an 8 MB unit string, as a hostile client might send
+    record = logging.LogRecord("tripoint.x", logging.ERROR, __file__, 1, "failed", (), None)
+    try:
+        raise ValueError(f"unknown unit {unit!r}")
+    except ValueError:
+        import sys
+
+        record.exc_info = sys.exc_info()
+    record.fields = {"reason": unit}  # type: ignore[attr-defined]
+    line = JsonFormatter().format(record)
+    assert len(line) < 10_000
+    entry = json.loads(line)
+    assert "characters not logged" in entry["exception"]
+    assert entry["reason"].endswith("(8000000 characters)")

@@ -48,6 +48,7 @@ from service.api.http.limits import TimeLimitExceededError, run_within_limit
 from service.api.http.negotiation import accept_qualities, json_quality
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
+from service.core.deadline import set_deadline
 
 __all__ = [
     "CSV_MEDIA_TYPE",
@@ -544,6 +545,7 @@ class CsvAdapter:
             await self.app(scope, receive, send)
             return
         conversion = _Conversion(wants_csv=wants_csv)
+        set_deadline(self.seconds)  # every route call of this request shares one deadline
         try:
             await run_within_limit(
                 self._convert(scope, receive, conversion, route, sends_csv, wants_csv),

@@ -18,6 +18,7 @@ from starlette.types import ASGIApp, Message, Receive, Scope, Send
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import FieldError, Problem, ProblemError, problem_answer
 from service.api.http.strict_query import StrictQueryRoute
+from service.core.deadline import DeadlineExceededError, set_deadline
 
 __all__ = [
     "BodySizeLimit",
@@ -200,6 +201,8 @@ class TimeLimitedRoute(StrictQueryRoute):
             return handler
 
         async def limited(request: Request) -> Response:
+            # The core's loops stop at the same limit (before the task copies the context).
+            set_deadline(request.app.state.settings.max_request_seconds)
             return await run_within_limit(
                 handler(request),
                 seconds=request.app.state.settings.max_request_seconds,
@@ -212,8 +215,13 @@ class TimeLimitedRoute(StrictQueryRoute):
 
 def _forget(pending: set[asyncio.Task[Any]], task: asyncio.Task[Any]) -> None:
     pending.discard(task)
-    if not task.cancelled() and task.exception() is not None:
-        _log.error("abandoned computation failed", exc_info=task.exception())
+    if task.cancelled():
+        return
+    error = task.exception()
+    if isinstance(error, DeadlineExceededError):
+        _log.info("abandoned computation stopped at its deadline")
+    elif error is not None:
+        _log.error("abandoned computation failed", exc_info=error)
 
 
 def document_time_limit(schema: dict[str, Any], seconds: float) -> None:

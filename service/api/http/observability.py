@@ -86,8 +86,30 @@ class JsonFormatter(logging.Formatter):
         if isinstance(fields, dict):
             entry.update(fields)
         if record.exc_info and record.exc_info[0] is not None:
-            entry["exception"] = "".join(traceback.format_exception(*record.exc_info)).strip()
+            entry["exception"] = _bounded_exception(record.exc_info)
+        for name, value in entry.items():
+            if isinstance(value, str) and len(value) > _LONGEST_FIELD:
+                entry[name] = f"{value[:_LONGEST_FIELD]}... ({len(value)} characters)"
         return orjson.dumps(entry, default=str).decode()
+
+
+_LONGEST_FIELD = 4000
+"""Characters kept of any one log field: one line stays a few KB whatever the request."""
+_LONGEST_EXCEPTION_MESSAGE = 200
+"""An exception message longer than this (it may hold an input) is logged by its length."""
+_FRAMES = 20
+"""Innermost traceback frames logged."""
+
+
+def _bounded_exception(info: Any) -> str:
+    """The traceback's innermost frames and the exception's type; its message only when
+    short, since a message may quote what a client sent."""
+    kind, error, trace = info
+    frames = "".join(traceback.format_tb(trace)[-_FRAMES:])
+    message = str(error)
+    if len(message) > _LONGEST_EXCEPTION_MESSAGE:
+        message = f"<message of {len(message)} characters not logged>"
+    return f"{frames}{kind.__name__}: {message}".strip()
 
 
 def logging_config(level: str) -> dict[str, Any]:

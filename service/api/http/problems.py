@@ -15,6 +15,7 @@ from starlette.exceptions import HTTPException as StarletteHTTPException
 from service.api.http.responses import FastJSONResponse, NonFiniteResultError
 from service.api.http.sent_units import sent_unit
 from service.api.http.units import si_to_unit, si_unit_label
+from service.core.deadline import DeadlineExceededError
 from service.core.errors import (
     InvalidInputError,
     NotConvergedError,
@@ -396,7 +397,20 @@ def install_problem_handlers(app: FastAPI) -> None:
         headers = {"X-Request-ID": request_id} if request_id else None
         return FastJSONResponse(body, 500, media_type=PROBLEM_MEDIA_TYPE, headers=headers)
 
+    async def on_deadline(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, DeadlineExceededError)
+        problem = make_problem(
+            503,
+            "time-limit",
+            "Computation took too long",
+            f"The computation did not finish within {error.seconds:g} s (setting "
+            "TRIPOINT_MAX_REQUEST_SECONDS) and was stopped. Ask for fewer points, or retry "
+            "later.",
+        )
+        return _render(request, problem, {"Retry-After": "1"})
+
     app.add_exception_handler(ProblemError, on_problem)
+    app.add_exception_handler(DeadlineExceededError, on_deadline)
     app.add_exception_handler(NonFiniteResultError, on_non_finite)
     app.add_exception_handler(Exception, on_unexpected)
     for kind in (OutOfRangeError, InvalidInputError, UnsupportedStateError, NotConvergedError):

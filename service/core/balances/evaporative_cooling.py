@@ -62,6 +62,7 @@ from service.core.balances.solution_freezing import (
 )
 from service.core.balances.stages import DEGREE, interval_of, solve_linear_mass
 from service.core.balances.sweeps import expand_case
+from service.core.deadline import check_deadline
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
 from service.core.properties.advisories import Advisory
 from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
@@ -626,7 +627,10 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     """
     shape, cases = expand_case(case)
     batch = len(shape) > 0
-    numbers = [_solve_scalar(c, i if batch else None) for i, c in enumerate(cases)]
+    numbers = []
+    for i, c in enumerate(cases):
+        check_deadline()  # a caller's time limit stops a long sweep between its cases
+        numbers.append(_solve_scalar(c, i if batch else None))
 
     def stack(function: Callable[[_Numbers], float]) -> FloatArray:
         return np.asarray([function(n) for n in numbers], dtype=np.float64).reshape(shape)

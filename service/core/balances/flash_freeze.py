@@ -66,6 +66,7 @@ from service.core.balances.stages import (
     single_phase_stage,
 )
 from service.core.balances.sweeps import expand_case
+from service.core.deadline import check_deadline
 from service.core.errors import InvalidInputError, NotConvergedError, OutOfRangeError
 from service.core.properties.advisories import Advisory
 from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
@@ -1136,7 +1137,10 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
         raise InvalidInputError("trajectory_points", "must be an integer from 50 to 2000", points)
     shape, cases = expand_case(case, frozenset({"trajectory_points"}))
     batch = len(shape) > 0
-    solved = [_solve_case(c, i if batch else None) for i, c in enumerate(cases)]
+    solved = []
+    for i, c in enumerate(cases):
+        check_deadline()  # a caller's time limit stops a long sweep between its cases
+        solved.append(_solve_case(c, i if batch else None))
     loads = [load for load, _ in solved]
     outcomes = [outcome for _, outcome in solved]
     use_hand = method == "mean-vapor-enthalpy"

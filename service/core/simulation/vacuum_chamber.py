@@ -16,6 +16,7 @@ from typing import Any, Final
 import numpy as np
 from scipy.integrate import solve_ivp
 
+from service.core.deadline import check_deadline
 from service.core.errors import NotConvergedError, UnsupportedStateError
 from service.core.properties.advisories import Advisory
 from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
@@ -222,11 +223,16 @@ def _integrate(
         ]
     )
     t0, y0 = 0.0, initial
+
+    def derivatives(time: float, state: FloatArray) -> FloatArray:
+        check_deadline()  # a caller's time limit stops the integration here
+        return model.derivatives(time, state)
+
     for _ in range(_MAX_SEGMENTS):
         events = _event_functions(model, case, load, run)
         names = list(events)
         solution = solve_ivp(
-            model.derivatives,
+            derivatives,
             (t0, case.end_time),
             y0,
             method="LSODA",
