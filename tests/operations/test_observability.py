@@ -136,7 +136,7 @@ def test_a_log_line_stays_small_and_carries_no_long_input() -> None:
         import sys
 
         record.exc_info = sys.exc_info()
-    record.fields = {"reason": unit}  # type: ignore[attr-defined]
+    record.fields = {"reason": unit}
     line = JsonFormatter().format(record)
     assert len(line) < 10_000
     entry = json.loads(line)
