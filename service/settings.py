@@ -9,6 +9,7 @@ held as :class:`pydantic.SecretStr`, so printing the settings never shows them.
 
 from __future__ import annotations
 
+import os
 import re
 from functools import cache
 from typing import Annotated, Literal
@@ -51,6 +52,34 @@ class Settings(BaseSettings):
         ge=1,
         le=50_000_000,
         description="Largest number of points (or CSV rows) one request may ask for (413).",
+    )
+    max_csv_rows: int = Field(
+        10_000,
+        ge=1,
+        le=1_000_000,
+        description="Largest number of rows one CSV body may hold (413). A CSV request is "
+        "read and written whole, so this bounds its memory (about 3 KB a row).",
+    )
+    max_concurrent_computations: int = Field(
+        default_factory=lambda: os.cpu_count() or 1,
+        ge=1,
+        le=256,
+        description="Computations (balances, simulations, batches, CSV) run at once; default "
+        "the number of CPU cores. Light lookups and /health, /ready never wait for them.",
+    )
+    max_queued_computations: int = Field(
+        32,
+        ge=0,
+        le=10_000,
+        description="Computations that may wait for a free slot; one more is answered 503 "
+        "with Retry-After at once.",
+    )
+    queue_wait_seconds: float = Field(
+        5.0,
+        ge=0,
+        le=600,
+        description="Longest wait for a free computation slot, in seconds (then 503 with "
+        "Retry-After).",
     )
     max_sweep_cases: int = Field(
         1_000,

@@ -166,7 +166,7 @@ def create_app(
     app.add_middleware(
         CsvAdapter,
         routes=csv_routes,
-        max_rows=settings.max_batch_points,
+        max_rows=settings.max_csv_rows,
         seconds=settings.max_request_seconds,
         pending=app.state.pending_computations,
     )

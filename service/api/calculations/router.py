@@ -14,12 +14,12 @@ from service.api.calculations.schemas import (
     CalculationPublic,
     CalculationSummaryPublic,
 )
-from service.api.http.limits import TimeLimitedRoute
+from service.api.http.limits import RecordRoute
 from service.api.http.problems import FieldError, ProblemError, problem_responses
 from service.api.http.recording import RecordKeeper
 from service.records import InvalidCursorError, RecordSummary, StoreUnavailableError
 
-router = APIRouter(prefix="/v1/calculations", tags=["calculations"], route_class=TimeLimitedRoute)
+router = APIRouter(prefix="/v1/calculations", tags=["calculations"], route_class=RecordRoute)
 
 _MAX_PAGE = 1000
 

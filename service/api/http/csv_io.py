@@ -41,6 +41,7 @@ from dataclasses import dataclass, field
 from typing import Any
 from urllib.parse import parse_qsl, urlencode
 
+import anyio.to_thread
 import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
@@ -426,6 +427,10 @@ def flatten_answers(answers: Sequence[dict[str, Any]]) -> tuple[list[str], list[
     return header, rows
 
 
+def _table_bytes(answers: list[dict[str, Any]]) -> bytes:
+    return render_csv(*flatten_answers(answers))
+
+
 def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
     """RFC 4180 text: CRLF line ends, quotes where needed, UTF-8."""
     buffer = io.StringIO()
@@ -509,7 +514,7 @@ class CsvAdapter:
     routes
         Which paths speak CSV, and how.
     max_rows
-        Most rows one CSV body may hold (413 above; setting TRIPOINT_MAX_BATCH_POINTS).
+        Most rows one CSV body may hold (413 above; setting TRIPOINT_MAX_CSV_ROWS).
     seconds
         Computation time allowed per request (setting TRIPOINT_MAX_REQUEST_SECONDS).
     pending
@@ -591,7 +596,8 @@ class CsvAdapter:
         try:
             options = _CsvOptions.read(scope)
             conversion.query_string = options.remaining
-            table = parse_csv(text)
+            # Reading and writing a table is CPU work: in a worker thread, off the event loop.
+            table = await anyio.to_thread.run_sync(parse_csv, text)
             if table.rows > self.max_rows:
                 await send_problem(
                     scope,
@@ -600,7 +606,7 @@ class CsvAdapter:
                     slug="too-many-points",
                     title="Batch too large",
                     detail=f"The CSV body has {table.rows} rows; the limit is {self.max_rows} "
-                    "(setting TRIPOINT_MAX_BATCH_POINTS).",
+                    "(setting TRIPOINT_MAX_CSV_ROWS).",
                     errors=[
                         FieldError(
                             field="body",
@@ -752,7 +758,7 @@ class CsvAdapter:
                     answer if "error" in answer else _part_of(answer, route.answer_part)
                     for answer in answers
                 ]
-            body = render_csv(*flatten_answers(answers))
+            body = await anyio.to_thread.run_sync(_table_bytes, answers)
             content_type = _CSV_RESPONSE_TYPE
         elif as_list:
             body = orjson.dumps(

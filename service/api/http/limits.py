@@ -15,6 +15,7 @@ from typing import Any, TypeVar
 from fastapi import Request, Response
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
+from service.api.http.admission import ComputationSlots
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import FieldError, Problem, ProblemError, problem_answer
 from service.api.http.strict_query import StrictQueryRoute
@@ -22,9 +23,11 @@ from service.core.deadline import DeadlineExceededError, set_deadline
 
 __all__ = [
     "BodySizeLimit",
+    "RecordRoute",
     "TimeLimitExceededError",
     "TimeLimitedRoute",
     "check_batch_size",
+    "computation_slots",
     "document_time_limit",
     "run_within_limit",
 ]
@@ -190,6 +193,9 @@ class TimeLimitedRoute(StrictQueryRoute):
             options["responses"] = responses
         super().__init__(path, endpoint, **options)
 
+    takes_slot = True
+    """Whether a call holds one of the computation slots (:mod:`admission`)."""
+
     @property
     def limited(self) -> bool:
         """Whether this route is held to the time limit (its endpoint is synchronous)."""
@@ -201,16 +207,44 @@ class TimeLimitedRoute(StrictQueryRoute):
             return handler
 
         async def limited(request: Request) -> Response:
+            if self.takes_slot:
+                slots = computation_slots(request.app)
+                await slots.acquire()  # 503 with Retry-After when busy
+                work = slots.run(handler(request))
+            else:
+                work = handler(request)
             # The core's loops stop at the same limit (before the task copies the context).
             set_deadline(request.app.state.settings.max_request_seconds)
             return await run_within_limit(
-                handler(request),
+                work,
                 seconds=request.app.state.settings.max_request_seconds,
                 pending=request.app.state.pending_computations,
                 path=request.url.path,
             )
 
         return limited
+
+
+class RecordRoute(TimeLimitedRoute):
+    """A time-limited route that reads the record store and takes no computation slot."""
+
+    takes_slot = False
+
+
+def computation_slots(app: Any) -> ComputationSlots:
+    """The app's computation slots, made for the running event loop on first use."""
+    loop = asyncio.get_running_loop()
+    state = app.state
+    if getattr(state, "computation_slots_loop", None) is not loop:
+        settings = state.settings
+        state.computation_slots = ComputationSlots(
+            settings.max_concurrent_computations,
+            settings.max_queued_computations,
+            settings.queue_wait_seconds,
+        )
+        state.computation_slots_loop = loop
+    slots: ComputationSlots = state.computation_slots
+    return slots
 
 
 def _forget(pending: set[asyncio.Task[Any]], task: asyncio.Task[Any]) -> None:
