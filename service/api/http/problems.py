@@ -131,11 +131,22 @@ _ECHO_LENGTH = 100
 """Longest received text echoed in a problem document; longer ones are cut."""
 
 
+def _encodable(text: str) -> str:
+    """``text`` as UTF-8 can carry it: lone surrogates written as ``\\udXXX`` escapes."""
+    try:
+        text.encode("utf-8")
+    except UnicodeEncodeError:
+        return text.encode("utf-8", "backslashreplace").decode("utf-8")
+    return text
+
+
 def _finite_or_none(value: object) -> object:
     """The received value as JSON can carry it: non-finite floats and huge integers as text,
-    long text cut to its first characters and its length."""
-    if isinstance(value, str) and len(value) > _ECHO_LENGTH:
-        return f"{value[:_ECHO_LENGTH]}... ({len(value)} characters)"
+    long text cut to its first characters and its length, lone surrogates escaped."""
+    if isinstance(value, str):
+        if len(value) > _ECHO_LENGTH:
+            value = f"{value[:_ECHO_LENGTH]}... ({len(value)} characters)"
+        return _encodable(value)
     if isinstance(value, float) and not math.isfinite(value):
         return str(value)
     if isinstance(value, int) and value not in _JSON_INTEGER_RANGE:
@@ -160,10 +171,13 @@ def problem_body(problem: Problem, instance: str | None) -> dict[str, Any]:
     """
     body = problem.model_dump()
     body["instance"] = instance
+    body["detail"] = _encodable(body["detail"])
     if body.get("request_id") is None:
         body.pop("request_id", None)
     for error in body["errors"]:
         error["value"] = _finite_or_none(error["value"])
+        error["message"] = _encodable(error["message"])
+        error["field"] = _encodable(error["field"])
     return body
 
 
@@ -368,6 +382,9 @@ def install_problem_handlers(app: FastAPI) -> None:
             title=str(error.detail),
             status=error.status_code,
             detail=str(error.detail),
+            errors=[FieldError(field="body", message=str(error.detail))]
+            if error.status_code in (400, 413, 415)
+            else [],
         )
         return _render(request, problem, dict(error.headers) if error.headers else None)
 
