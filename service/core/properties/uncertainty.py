@@ -11,16 +11,26 @@ section it comes from (``section``) and how the value got here (``basis``):
 - ``"derived"``: computed by tripoint from other entries and from deviations
   measured in tests/core/test_if97_vs_reference.py; the statement says how.
 
-At the time of writing every IAPWS-95, R10-06 and R14-08 entry is ``"from memory"``
-(the release texts could not be read from here) and every IAPWS-IF97 entry is
-``"derived"``. Relative uncertainties are fractions (0.00025 means 0.025 %).
-IAPWS states its uncertainty estimates as expanded uncertainties with coverage
-factor k = 2 (about 95 % confidence); ``coverage`` repeats what each entry assumes.
+Verification state (checked 2026-12-03 with the project's search tool, corpora of
+stored web pages, documentation and public repositories): the uncertainty sections of
+IAPWS R6-95(2018), R10-06(2009) and R14-08(2011), and of their companion articles, are
+not stored there (only cover pages, abstracts and the releases' web pages are), so every
+IAPWS-95, R10-06 and R14-08 entry is still ``"from memory"`` and says in its statement
+which document could not be read. :func:`statement_defects` enforces this: an entry
+may claim ``"release text"`` only with a section, table or figure citation, and a
+``"from memory"`` entry must name its missing document. Every IAPWS-IF97 entry is
+``"derived"``. Where the NIST Chemistry WebBook's notes on the IAPWS-95 equation of
+state (a secondary source, not the release) give a figure for the same quantity, the
+entry says whether it agrees. Relative uncertainties are fractions (0.00025 means
+0.025 %). IAPWS states its uncertainty estimates as expanded uncertainties with
+coverage factor k = 2 (about 95 % confidence) as far as recalled; ``coverage`` repeats
+what each entry assumes.
 """
 
 from __future__ import annotations
 
 import functools
+import re
 from dataclasses import dataclass
 from typing import Final, Literal
 
@@ -45,11 +55,21 @@ __all__ = [
     "covered_quantities",
     "stated_uncertainty",
     "statement_at",
+    "statement_defects",
 ]
 
 Basis = Literal["release text", "from memory", "derived"]
 
-_K2_RECALLED: Final = "k = 2 (expanded, about 95 %) assumed: IAPWS convention, coverage recalled"
+_K2_FROM_MEMORY: Final = (
+    "k = 2 (expanded, about 95 %) assumed from the IAPWS convention as recalled; the "
+    "release's own wording of the coverage was not read (release text not found)"
+)
+_K2_DERIVED: Final = (
+    "k = 2 (expanded, about 95 %) assumed, as for the entries it is derived from; a "
+    "tripoint derivation, not a release statement"
+)
+_NOT_FOUND: Final = "Release text not found:"
+_CITATION: Final = re.compile(r"\b(section|sec\.|table|figure|fig\.)\s*\d", re.IGNORECASE)
 _AMBIENT_PRESSURE_LIMIT: Final = 1.0e6  # Pa; "ambient pressure" statements are not used above
 
 
@@ -114,12 +134,43 @@ _IAPWS95_SECTION: Final = (
     "IAPWS R6-95(2018), uncertainty estimates (section number not verified); "
     "W. Wagner and A. Pruss, J. Phys. Chem. Ref. Data 31, 387 (2002)"
 )
-_ICE_SECTION: Final = "IAPWS R10-06(2009), uncertainty estimates (section number not verified)"
-_CURVES_SECTION: Final = "IAPWS R14-08(2011), uncertainty estimates (section number not verified)"
+_ICE_SECTION: Final = (
+    "IAPWS R10-06(2009), uncertainty estimates (section number not verified); "
+    "R. Feistel and W. Wagner, J. Phys. Chem. Ref. Data 35, 1021 (2006)"
+)
+_CURVES_SECTION: Final = (
+    "IAPWS R14-08(2011), uncertainty estimates (section number not verified); "
+    "W. Wagner, T. Riethmann, R. Feistel and A. H. Harvey, J. Phys. Chem. Ref. Data 40, "
+    "043103 (2011)"
+)
 _IF97_SECTION: Final = (
     "derived by tripoint from IAPWS R6-95(2018) entries and measured IF97 - IAPWS-95 "
     "deviations (tests/core/test_if97_vs_reference.py); IAPWS R7-97(2012) uncertainty "
     "statements not read"
+)
+_R6_95_NOT_FOUND: Final = (
+    f"{_NOT_FOUND} the uncertainty section of IAPWS R6-95(2018) and that of Wagner and "
+    "Pruss (2002) could not be read (only their cover pages are stored)."
+)
+_R10_06_NOT_FOUND: Final = (
+    f"{_NOT_FOUND} the uncertainty statements of IAPWS R10-06(2009) and of Feistel and "
+    "Wagner (2006) could not be read (only the release's web page is stored)."
+)
+_R14_08_NOT_FOUND: Final = (
+    f"{_NOT_FOUND} the uncertainty statements of IAPWS R14-08(2011) and of Wagner et al. "
+    "(2011) could not be read (only the release's cover page and the article's abstract "
+    "are stored; the abstract says only that the new equations have significantly less "
+    "uncertainty than the 1993 ones)."
+)
+# Read (2026-12-03) as quoted, with its WebBook citation, in the public repository
+# hydraulic-institute/edb, source/02_fluid-properties-II/01_water-properties.md.
+_WEBBOOK: Final = (
+    "Secondary source, not the release: the NIST Chemistry WebBook's notes on this "
+    "equation of state (SRD 69; Lemmon, McLinden and Friend)"
+)
+_IAPWS95_DERIVED_SECTION: Final = (
+    "derived by tripoint from the IAPWS-95 entries above (IAPWS R6-95(2018); W. Wagner and "
+    "A. Pruss, J. Phys. Chem. Ref. Data 31, 387 (2002))"
 )
 
 STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
@@ -130,10 +181,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         647.096,
         0.00025,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Vapor pressure from IAPWS-95 (phase-equilibrium condition): relative "
-        "uncertainty 0.025 % from the triple point to the critical point. Recalled, "
-        "not read from the release.",
+        "uncertainty 0.025 % from the triple point to the critical point, as recalled. "
+        f"{_R6_95_NOT_FOUND} {_WEBBOOK} also state 0.025 % in vapor pressure.",
         _IAPWS95_SECTION,
         "from memory",
     ),
@@ -143,10 +194,11 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         373.15,
         0.000001,
-        _K2_RECALLED,
-        "Liquid density near ambient pressure: relative uncertainty 0.0001 %; applied "
-        "by tripoint to saturated liquid up to 373.15 K, where p_sat <= 0.1 MPa. "
-        "Recalled, not read from the release.",
+        _K2_FROM_MEMORY,
+        "Liquid density near ambient pressure: relative uncertainty 0.0001 %, as "
+        "recalled; applied by tripoint to saturated liquid up to 373.15 K, where "
+        f"p_sat <= 0.1 MPa. {_R6_95_NOT_FOUND} {_WEBBOOK} state 0.0025 % in "
+        "saturated liquid density, larger than the value used here.",
         _IAPWS95_SECTION,
         "from memory",
     ),
@@ -156,9 +208,11 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         373.15,
         623.15,
         0.0002,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Liquid density in the main liquid region: relative uncertainty 0.001 % to "
-        "0.02 %; the upper value is used. Recalled, not read from the release.",
+        f"0.02 %, as recalled; the upper value is used. {_R6_95_NOT_FOUND} "
+        f"{_WEBBOOK} state 0.0025 % in saturated liquid density, rising toward the "
+        "critical point.",
         _IAPWS95_SECTION,
         "from memory",
     ),
@@ -168,9 +222,11 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.0005,
-        _K2_RECALLED,
-        "Vapor density in the gas region: relative uncertainty 0.03 % to 0.05 %; the "
-        "upper value is used for saturated vapor. Recalled, not read from the release.",
+        _K2_FROM_MEMORY,
+        "Vapor density in the gas region: relative uncertainty 0.03 % to 0.05 %, as "
+        f"recalled; the upper value is used for saturated vapor. {_R6_95_NOT_FOUND} "
+        f"{_WEBBOOK} state 0.1 % in saturated vapor density, larger than the value "
+        "used here.",
         _IAPWS95_SECTION,
         "from memory",
     ),
@@ -180,9 +236,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.15,
         373.124,
         0.000001,
-        _K2_RECALLED,
-        "Liquid density at ambient pressure: relative uncertainty at most 0.0001 %. "
-        "Used only up to 1 MPa. Recalled, not read from the release.",
+        _K2_FROM_MEMORY,
+        "Liquid density at ambient pressure: relative uncertainty at most 0.0001 %, as "
+        f"recalled. Used only up to 1 MPa. {_R6_95_NOT_FOUND} {_WEBBOOK} also state "
+        "0.0001 % for the liquid at 1 atm.",
         _IAPWS95_SECTION,
         "from memory",
         _AMBIENT_PRESSURE_LIMIT,
@@ -193,9 +250,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.15,
         623.15,
         0.001,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Isobaric heat capacity in the main liquid region: relative uncertainty "
-        "0.1 %. Recalled, not read from the release.",
+        f"0.1 %, as recalled. {_R6_95_NOT_FOUND} {_WEBBOOK} also state 0.1 % in the "
+        "liquid, rising in the critical region and at high pressures.",
         _IAPWS95_SECTION,
         "from memory",
     ),
@@ -205,12 +263,12 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.00056,
-        _K2_RECALLED,
+        _K2_DERIVED,
         "No direct statement used. Clapeyron equation, h'' - h' = T (v'' - v') dp_s/dT: "
-        "the p_s (0.025 %) and saturated vapor density (0.05 %) entries added in "
-        "quadrature, taking the relative uncertainty of dp_s/dT equal to that of p_s "
-        "(an approximation).",
-        _IAPWS95_SECTION,
+        "the p_s (0.025 %) and saturated vapor density (0.05 %) entries, both from "
+        "memory, added in quadrature, taking the relative uncertainty of dp_s/dT equal "
+        "to that of p_s (an approximation).",
+        _IAPWS95_DERIVED_SECTION,
         "derived",
     ),
     StatedUncertainty(
@@ -219,11 +277,11 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.00056,
-        _K2_RECALLED,
+        _K2_DERIVED,
         "No direct statement used. h'' = h' + (h'' - h') with the reference state at "
         "the triple-point liquid; the enthalpy of vaporization entry is applied to h'' "
         "(conservative while h' >= 0, i.e. from the triple point up).",
-        _IAPWS95_SECTION,
+        _IAPWS95_DERIVED_SECTION,
         "derived",
     ),
     # ----------------------------------------------------------------- IAPWS-IF97
@@ -233,9 +291,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.00043,
-        _K2_RECALLED,
-        "IAPWS-95 p_s entry (0.025 %) plus the largest measured |Eq. 30 - IAPWS-95| "
-        "deviation, 0.0176 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 p_s entry (0.025 %, from memory) plus the largest measured "
+        "|Eq. 30 - IAPWS-95| deviation, 0.0176 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -245,9 +303,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         373.15,
         0.000017,
-        _K2_RECALLED,
-        "IAPWS-95 entry (0.0001 %) plus the largest measured region 1 - IAPWS-95 "
-        "deviation at saturation up to 373.15 K, 0.0016 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 entry (0.0001 %, from memory) plus the largest measured region 1 - "
+        "IAPWS-95 deviation at saturation up to 373.15 K, 0.0016 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -257,9 +315,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         373.15,
         623.15,
         0.00024,
-        _K2_RECALLED,
-        "IAPWS-95 entry (0.02 %) plus the largest measured region 1 - IAPWS-95 "
-        "deviation at saturation, 0.0031 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 entry (0.02 %, from memory) plus the largest measured region 1 - "
+        "IAPWS-95 deviation at saturation, 0.0031 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -269,9 +327,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.00092,
-        _K2_RECALLED,
-        "IAPWS-95 entry (0.05 %) plus the largest measured region 2 - IAPWS-95 "
-        "deviation at saturation, 0.042 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 entry (0.05 %, from memory) plus the largest measured region 2 - "
+        "IAPWS-95 deviation at saturation, 0.042 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -281,10 +339,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.15,
         373.124,
         0.000017,
-        _K2_RECALLED,
-        "IAPWS-95 ambient-pressure entry (0.0001 %) plus the largest measured region 1 - "
-        "IAPWS-95 density deviation at 0.1 MPa and 1 MPa up to 373.12 K, 0.0016 %, added "
-        "linearly. Used only up to 1 MPa.",
+        _K2_DERIVED,
+        "IAPWS-95 ambient-pressure entry (0.0001 %, from memory) plus the largest "
+        "measured region 1 - IAPWS-95 density deviation at 0.1 MPa and 1 MPa up to "
+        "373.12 K, 0.0016 %, added linearly. Used only up to 1 MPa.",
         _IF97_SECTION,
         "derived",
         _AMBIENT_PRESSURE_LIMIT,
@@ -295,9 +353,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.0025,
-        _K2_RECALLED,
-        "IAPWS-95 entry (0.1 %) plus the largest measured region 1 - IAPWS-95 "
-        "deviation along the saturation line, 0.15 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 entry (0.1 %, from memory) plus the largest measured region 1 - "
+        "IAPWS-95 deviation along the saturation line, 0.15 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -307,9 +365,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         273.16,
         623.15,
         0.0009,
-        _K2_RECALLED,
-        "IAPWS-95 entry (0.056 %) plus the largest measured IF97 - IAPWS-95 deviation "
-        "of h'' - h', 0.034 %, added linearly.",
+        _K2_DERIVED,
+        "IAPWS-95 entry (0.056 %, derived from from-memory entries) plus the largest "
+        "measured IF97 - IAPWS-95 deviation of h'' - h', 0.034 %, added linearly.",
         _IF97_SECTION,
         "derived",
     ),
@@ -320,9 +378,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         0.0,
         273.16,
         0.0002,
-        _K2_RECALLED,
-        "Density of ice Ih at normal pressure: relative uncertainty about 0.02 %. "
-        "Recalled with low confidence, not read from the release.",
+        _K2_FROM_MEMORY,
+        "Density of ice Ih at normal pressure: relative uncertainty about 0.02 %, "
+        f"recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
     ),
@@ -332,9 +390,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         0.0,
         273.16,
         0.02,
-        _K2_RECALLED,
-        "Isobaric heat capacity of ice Ih: relative uncertainty about 2 %. Recalled "
-        "with low confidence, not read from the release.",
+        _K2_FROM_MEMORY,
+        "Isobaric heat capacity of ice Ih: relative uncertainty about 2 %, recalled "
+        f"with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
     ),
@@ -344,10 +402,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         0.0,
         273.16,
         0.001,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Enthalpy of ice Ih relative to the IAPWS reference state, dominated by the "
-        "enthalpy of melting at the triple point: relative uncertainty about 0.1 %. "
-        "Recalled with low confidence, not read from the release.",
+        "enthalpy of melting at the triple point: relative uncertainty about 0.1 %, "
+        f"recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
     ),
@@ -357,9 +415,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         0.0,
         273.16,
         0.001,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Enthalpy of sublimation from R10-06 with IAPWS-95: relative uncertainty about "
-        "0.1 %. Recalled with low confidence, not read from the release.",
+        f"0.1 %, recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
     ),
@@ -370,10 +428,10 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         190.0,
         273.16,
         0.005,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Sublimation pressure of ice Ih, 190 K to the triple point: relative "
-        "uncertainty at most about 0.5 %, smaller near the triple point. Recalled with "
-        "low confidence, not read from the release.",
+        "uncertainty at most about 0.5 %, smaller near the triple point, recalled with "
+        f"low confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
     ),
@@ -383,9 +441,9 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         50.0,
         190.0,
         0.05,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Sublimation pressure of ice Ih below 190 K: uncertainty grows to several "
-        "percent; 5 % is used. Recalled with low confidence, not read from the release.",
+        f"percent; 5 % is used, recalled with low confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
     ),
@@ -395,15 +453,62 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         251.165,
         273.16,
         0.01,
-        _K2_RECALLED,
+        _K2_FROM_MEMORY,
         "Melting pressure of ice Ih: relative uncertainty about 1 % of the pressure "
-        "(smaller in absolute terms near the triple point). Recalled with low "
-        "confidence, not read from the release.",
+        "(smaller in absolute terms near the triple point), recalled with low "
+        f"confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
     ),
 )
 """Every uncertainty statement tripoint knows, in lookup order."""
+
+
+def statement_defects(entry: StatedUncertainty) -> tuple[str, ...]:
+    """What keeps one table entry from being quotable as its ``basis`` claims.
+
+    Parameters
+    ----------
+    entry : StatedUncertainty
+        One entry of :data:`STATEMENTS` (or a candidate for it).
+
+    Returns
+    -------
+    tuple of str
+        One sentence per defect; empty when the entry is well formed:
+
+        - ``"release text"``: ``section`` cites a section, table or figure by number
+          (``Section 6``, ``Table 3``, ``Fig. 2``...), says nothing is unverified, and
+          neither text says the value was recalled or that the release was not found;
+        - ``"from memory"``: ``statement`` says which document could not be read
+          (``"Release text not found:"`` followed by the release);
+        - ``"derived"``: ``section`` says it was derived and by whom.
+
+    Examples
+    --------
+    >>> [statement_defects(entry) for entry in STATEMENTS if statement_defects(entry)]
+    []
+    """
+    defects: list[str] = []
+    if entry.basis == "release text":
+        if not _CITATION.search(entry.section):
+            defects.append("a release-text entry must cite a section, table or figure by number")
+        if "not verified" in entry.section:
+            defects.append("a release-text entry cannot have an unverified section")
+        for text in (entry.statement, entry.coverage):
+            lowered = text.lower()
+            if "recalled" in lowered or _NOT_FOUND.lower().rstrip(":") in lowered:
+                defects.append("a release-text entry cannot say it was recalled or not found")
+                break
+    elif entry.basis == "from memory":
+        at = entry.statement.find(_NOT_FOUND)
+        if at < 0 or "IAPWS R" not in entry.statement[at:]:
+            defects.append(
+                f"a from-memory entry must say {_NOT_FOUND!r} and name the missing release"
+            )
+    elif not entry.section.startswith("derived"):
+        defects.append("a derived entry's section must say how it was derived")
+    return tuple(defects)
 
 
 def covered_quantities() -> tuple[tuple[str, str], ...]:
