@@ -37,7 +37,7 @@ __all__ = [
     "simulate_primary_drying",
 ]
 
-_RELATIVE_TOLERANCE: Final = 1.0e-9
+_RELATIVE_TOLERANCE: Final = 1.0e-11
 _DETECTION_POINTS: Final = 4001
 _QUADRATURE_NODES: Final = 64
 
@@ -270,7 +270,7 @@ def simulate_primary_drying(case: PrimaryDryingCase) -> PrimaryDryingResult:
     The ice mass per container m obeys ``dm/dt = -A_p (p_sub(T_f) - P_c) / R_p(l)`` with
     ``l = L_0 (1 - m / m_0)`` and ``T_f`` from the quasi-steady balance of
     :func:`service.core.drying.front.solve_sublimation_front` at the recipe's shelf
-    temperature and chamber pressure. Integrated by RK45 (rtol 1e-9) piece by piece between
+    temperature and chamber pressure. Integrated by RK45 (rtol 1e-11) piece by piece between
     set points, ending when the ice is gone (the drying time) or at the maximum duration.
     Events are found on a 4001-point grid and refined by Brent's method to 1e-6 s.
 
