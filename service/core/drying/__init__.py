@@ -19,6 +19,13 @@ from service.core.drying.coefficients import (
     DriedLayerResistance,
     VialHeatTransfer,
 )
+from service.core.drying.design_space import (
+    CELL_STATUSES,
+    MAXIMUM_GRID_SIDE,
+    DesignSpaceCase,
+    DesignSpaceResult,
+    primary_drying_design_space,
+)
 from service.core.drying.front import (
     STATUS_FRONT_AT_TRIPLE_POINT,
     STATUS_NO_DRIVING_FORCE,
@@ -37,12 +44,16 @@ from service.core.drying.run import (
 )
 
 __all__ = [
+    "CELL_STATUSES",
     "CHAMBER_PRESSURE_RANGE",
     "ICE_THERMAL_CONDUCTIVITY",
+    "MAXIMUM_GRID_SIDE",
     "SHELF_TEMPERATURE_RANGE",
     "STATUS_FRONT_AT_TRIPLE_POINT",
     "STATUS_NO_DRIVING_FORCE",
     "STATUS_SUBLIMATING",
+    "DesignSpaceCase",
+    "DesignSpaceResult",
     "DriedLayerResistance",
     "DryingEvent",
     "DryingLoad",
@@ -56,6 +67,7 @@ __all__ = [
     "SublimationFront",
     "VialHeatTransfer",
     "latent_heat_of_sublimation",
+    "primary_drying_design_space",
     "simulate_primary_drying",
     "solve_sublimation_front",
 ]
