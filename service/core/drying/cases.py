@@ -89,7 +89,7 @@ class DryingLoad:
             )
         _positive(self.heat_transfer_area, "load.outer_area", "m2", "an area is positive")
         _positive(self.product_area, "load.inner_area", "m2", "an area is positive")
-        _positive(self.fill_mass, "load.fill", "kg", "no ice left: the fill is empty")
+        _positive(self.fill_mass, "load.fill_mass", "kg", "no ice left: the fill is empty")
         _positive(self.solution_density, "load.solution_density", "kg/m3", "density > 0")
         _positive(self.frozen_conductivity, "load.frozen_layer_conductivity", "W/(m*K)", "> 0")
         require_within(
@@ -102,7 +102,7 @@ class DryingLoad:
         )
         require_within(
             np.asarray(self.fill_depth),
-            "load.fill",
+            "load.fill_volume",
             0.0,
             0.2,
             "m",
@@ -154,8 +154,9 @@ class Recipe:
         return np.unique(self.times)
 
     def validate(self) -> None:
-        """Raise for times out of order, values out of range, or no sublimation at a set
-        point (chamber pressure at or above the ice's vapor pressure at the shelf)."""
+        """Raise for times out of order, values out of range, or a recipe that sublimes at
+        no set point (chamber pressure at or above the ice's vapor pressure at the shelf
+        temperature throughout; for part of a recipe the rate is simply zero)."""
         if self.times.size < 1:
             raise InvalidInputError("recipe", "give at least one set point")
         if self.times[0] != 0.0:
@@ -187,19 +188,23 @@ class Recipe:
                 "Pa",
                 "the chamber pressure must lie below the triple-point pressure",
             )
-            shelf = float(self.shelf_temperatures[index])
-            if shelf < 273.16:
-                limit = float(sublimation_pressure(shelf))
-                if self.chamber_pressures[index] >= limit:
-                    raise OutOfRangeError(
-                        f"recipe[{index}].chamber_pressure",
-                        float(self.chamber_pressures[index]),
-                        CHAMBER_PRESSURE_RANGE[0],
-                        limit,
-                        "Pa",
-                        "at or above the ice's vapor pressure at the shelf temperature "
-                        f"({shelf:.2f} K): no ice can sublime",
-                    )
+        limits = [
+            float(sublimation_pressure(min(float(shelf), 273.16)))
+            for shelf in self.shelf_temperatures
+        ]
+        if all(
+            pressure >= limit
+            for pressure, limit in zip(self.chamber_pressures, limits, strict=True)
+        ):
+            raise OutOfRangeError(
+                "recipe[0].chamber_pressure",
+                float(self.chamber_pressures[0]),
+                CHAMBER_PRESSURE_RANGE[0],
+                limits[0],
+                "Pa",
+                "at every set point the chamber pressure is at or above the ice's vapor "
+                "pressure at the shelf temperature: no ice can sublime",
+            )
 
 
 @dataclass(frozen=True)
@@ -229,12 +234,12 @@ class EquipmentLimit:
         """Raise unless the points are increasing and cover every pressure used."""
         if self.pressures.size < 2 or np.any(np.diff(self.pressures) <= 0.0):
             raise InvalidInputError(
-                "equipment_limit.chamber_pressures",
+                "equipment_limit",
                 "give at least two chamber pressures in increasing order",
             )
         require_within(
             self.maximum_rates,
-            "equipment_limit.maximum_sublimation_rates",
+            "equipment_limit",
             0.0,
             float("inf"),
             "kg/s",

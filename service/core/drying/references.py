@@ -42,5 +42,8 @@ ASSUMPTIONS: Final = (
     "pressure at its top; every container in the batch behaves alike (no edge vials).",
     "The collapse check uses the ice-front temperature, the product temperature next to "
     "the dried layer; the bottom temperature (what a thermocouple reads) is reported too.",
+    "While the chamber pressure is at or above the ice's vapor pressure at the shelf "
+    "temperature (e.g. at the start of a shelf ramp) nothing sublimes and the product sits "
+    "at the shelf temperature (no condensation onto the product is modelled).",
     "K_v and R_p are the client's measured constants; the answer is as good as they are.",
 )

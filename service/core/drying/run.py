@@ -114,6 +114,7 @@ class PrimaryDryingResult:
     summary: PrimaryDryingSummary
     balance: IceBalance
     equipment_rate_limit: FloatArray | None
+    critical_temperature: float
     assumptions: tuple[str, ...]
     references: tuple[str, ...]
     warnings: tuple[Advisory, ...]
@@ -418,6 +419,7 @@ def simulate_primary_drying(case: PrimaryDryingCase) -> PrimaryDryingResult:
         equipment_rate_limit=None
         if case.equipment_limit is None
         else case.equipment_limit.at(series.chamber_pressure),
+        critical_temperature=critical,
         assumptions=ASSUMPTIONS,
         references=REFERENCES,
         warnings=tuple(warnings),
