@@ -187,7 +187,7 @@ def test_run_stops_at_the_maximum_duration_with_ice_left() -> None:
 _TWO_POINTS = np.array([0.0, 60.0])
 _SHORT_RECIPES = {
     "pressure-above-ice-vapor-pressure": Recipe(
-        _TWO_POINTS, np.array([233.15, 238.15]), np.array([20.0, 20.0])
+        _TWO_POINTS, np.array([233.15, 238.15]), np.array([25.0, 25.0])
     ),
     "recipe-not-at-zero": Recipe(np.array([5.0]), np.array([263.15]), np.array([10.0])),
 }
@@ -199,17 +199,10 @@ _SHORT_RECIPES = {
         ({"load": dataclasses.replace(LOAD, solids_fraction=1.0)}, "load.solids_fraction"),
         ({"load": dataclasses.replace(LOAD, fill_mass=0.0)}, "load.fill_mass"),
         (
-            {
-                "recipe": Recipe(
-                    np.array([0.0, 60.0]), np.array([263.15, 233.15]), np.array([10, 20])
-                )
-            },
+            {"recipe": _SHORT_RECIPES["pressure-above-ice-vapor-pressure"]},
             "recipe[0].chamber_pressure",
         ),
-        (
-            {"recipe": Recipe(np.array([5.0]), np.array([263.15]), np.array([10.0]))},
-            "recipe[0].time",
-        ),
+        ({"recipe": _SHORT_RECIPES["recipe-not-at-zero"]}, "recipe[0].time"),
         ({"critical_temperature": 280.0}, "critical_temperature"),
         (
             {"resistance": DriedLayerResistance(0.0, 1.0, 0.0)},
