@@ -11,7 +11,11 @@ from typing import Final
 
 import numpy as np
 
-from service.core.drying.coefficients import DriedLayerResistance, VialHeatTransfer
+from service.core.drying.coefficients import (
+    DriedLayerResistance,
+    VialHeatTransfer,
+    require_at_least,
+)
 from service.core.drying.front import FRONT_TEMPERATURE_RANGE
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.properties.constants import TRIPLE_POINT_PRESSURE
@@ -35,9 +39,7 @@ CHAMBER_PRESSURE_RANGE: Final = (0.05, TRIPLE_POINT_PRESSURE)
 
 
 def _positive(value: float, name: str, unit: str, reason: str) -> None:
-    require_within(
-        finite_array(value, name), name, 0.0, float("inf"), unit, reason, exclusive_minimum=True
-    )
+    require_at_least(value, name, 0.0, unit, reason, exclusive_minimum=True)
 
 
 @dataclass(frozen=True)
@@ -237,11 +239,10 @@ class EquipmentLimit:
                 "equipment_limit",
                 "give at least two chamber pressures in increasing order",
             )
-        require_within(
+        require_at_least(
             self.maximum_rates,
             "equipment_limit",
             0.0,
-            float("inf"),
             "kg/s",
             "a rate limit is non-negative",
         )
@@ -305,7 +306,7 @@ class PrimaryDryingCase:
         if self.condenser_capacity is not None:
             _positive(self.condenser_capacity, "condenser_capacity", "kg", "capacity > 0")
         if self.equipment_limit is not None:
-            self.equipment_limit.validate(self.recipe.chamber_pressures, "recipe.chamber_pressure")
+            self.equipment_limit.validate(self.recipe.chamber_pressures, "equipment_limit")
         _positive(self.maximum_duration, "maximum_duration", "s", "a duration is positive")
         if not 2 <= self.series_points <= 5000:
             raise OutOfRangeError(

@@ -18,19 +18,47 @@ from typing import Final
 import numpy as np
 from numpy.typing import ArrayLike
 
+from service.core.errors import OutOfRangeError
 from service.core.properties.phase import FloatArray
-from service.core.validation import finite_array, require_within
+from service.core.validation import finite_array
 
 __all__ = [
     "ICE_THERMAL_CONDUCTIVITY",
     "DriedLayerResistance",
     "VialHeatTransfer",
+    "require_at_least",
 ]
 
 ICE_THERMAL_CONDUCTIVITY: Final = 2.4
 """W/(m K): ice Ih near 250 K (from memory: about 2.4 W/(m K) at 250 K, G. A. Slack,
 Phys. Rev. B 22, 3065 (1980)); the default for the frozen layer, which a solute lowers
 a little."""
+
+
+def require_at_least(
+    value: ArrayLike,
+    variable: str,
+    minimum: float,
+    unit: str,
+    reason: str,
+    *,
+    exclusive_minimum: bool = False,
+) -> None:
+    """Raise :class:`OutOfRangeError` (open above: no maximum) for a value below
+    ``minimum`` (or at it, with ``exclusive_minimum``); NaN and infinity are refused."""
+    array = finite_array(value, variable)
+    below = array <= minimum if exclusive_minimum else array < minimum
+    if np.any(below):
+        index = int(np.flatnonzero(below.ravel())[0])
+        raise OutOfRangeError(
+            variable=variable,
+            value=float(array.ravel()[index]),
+            minimum=minimum,
+            maximum=None,
+            unit=unit,
+            reason=reason,
+            index=index if array.ndim > 0 else None,
+        )
 
 
 @dataclass(frozen=True)
@@ -66,21 +94,18 @@ class VialHeatTransfer:
         """Raise OutOfRangeError for a negative or non-finite constant; the sum must be > 0."""
         units = {"contact": "W/(m2*K)", "gas_conduction": "W/(m2*K*Pa)"}
         for name in ("contact", "gas_conduction", "gas_conduction_saturation"):
-            value = finite_array(getattr(self, name), f"{prefix}.{name}")
-            require_within(
-                value,
+            require_at_least(
+                getattr(self, name),
                 f"{prefix}.{name}",
                 0.0,
-                float("inf"),
                 units.get(name, "1/Pa"),
                 "the three constants of the vial heat-transfer coefficient are non-negative",
             )
         if self.contact <= 0.0 and self.gas_conduction <= 0.0:
-            require_within(
-                np.asarray(self.contact),
+            require_at_least(
+                self.contact,
                 f"{prefix}.contact",
                 0.0,
-                float("inf"),
                 "W/(m2*K)",
                 "the container must conduct some heat: contact or gas conduction above zero",
                 exclusive_minimum=True,
@@ -119,22 +144,20 @@ class DriedLayerResistance:
 
     def validate(self, prefix: str) -> None:
         """Raise OutOfRangeError for a constant out of range (R_0 > 0, A_1 >= 0, A_2 >= 0)."""
-        require_within(
-            finite_array(self.at_zero_thickness, f"{prefix}.at_zero_thickness"),
+        require_at_least(
+            self.at_zero_thickness,
             f"{prefix}.at_zero_thickness",
             0.0,
-            float("inf"),
             "m2*Pa*s/kg",
             "the resistance of a dried layer of zero thickness must be positive",
             exclusive_minimum=True,
         )
         units = {"thickness_coefficient": "m*Pa*s/kg", "thickness_saturation": "1/m"}
         for name, unit in units.items():
-            require_within(
-                finite_array(getattr(self, name), f"{prefix}.{name}"),
+            require_at_least(
+                getattr(self, name),
                 f"{prefix}.{name}",
                 0.0,
-                float("inf"),
                 unit,
                 "the dried-layer resistance may not fall with thickness",
             )

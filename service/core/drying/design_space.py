@@ -122,7 +122,7 @@ class DesignSpaceCase:
             "a collapse temperature lies below the melting point of ice",
         )
         if self.equipment_limit is not None:
-            self.equipment_limit.validate(self.chamber_pressures, "chamber_pressures")
+            self.equipment_limit.validate(self.chamber_pressures, "equipment_limit")
         if self.dried_layer_thickness is not None:
             require_within(
                 finite_array(self.dried_layer_thickness, "dried_layer_thickness"),

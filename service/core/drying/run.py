@@ -21,6 +21,7 @@ from service.core.drying.references import ASSUMPTIONS, REFERENCES
 from service.core.properties.advisories import Advisory
 from service.core.properties.lookups import ReportedUncertainty, path_uncertainties
 from service.core.properties.phase import FloatArray
+from service.core.properties.phase_lines import sublimation_temperature
 from service.core.properties.sources import (
     IAPWS_95,
     ICE_IH,
@@ -194,11 +195,34 @@ class _Solution:
         return values
 
 
+def _onsets(run: _Run, starts: list[float]) -> list[float]:
+    """Times inside recipe segments where sublimation starts or stops (the shelf crosses
+    the chamber's frost point), so that no integration piece holds that kink."""
+    recipe = run.case.recipe
+    ends = [*starts[1:], run.case.maximum_duration]
+
+    def margin(time: float) -> float:
+        shelf, pressure = recipe.at(time)
+        return shelf - float(sublimation_temperature(pressure))
+
+    found: list[float] = []
+    for start, end in zip(starts, ends, strict=True):
+        if end <= start or (start >= float(recipe.times[-1])):
+            continue
+        samples = np.linspace(start, end, 65)
+        values = np.array([margin(float(t)) for t in samples])
+        for index in np.flatnonzero(np.sign(values[1:]) != np.sign(values[:-1])):
+            low, high = float(samples[index]), float(samples[index + 1])
+            if margin(low) * margin(high) < 0.0:
+                found.append(float(brentq(margin, low, high, xtol=1e-9, rtol=1e-14)))
+    return found
+
+
 def _integrate(run: _Run) -> tuple[_Solution, float, bool, int]:
     """Integrate dm/dt = -sublimation rate until the ice is gone or the time is up."""
     case = run.case
     breaks = [float(t) for t in case.recipe.breaks() if 0.0 < t < case.maximum_duration]
-    edges = [0.0, *breaks, case.maximum_duration]
+    edges = sorted({0.0, *breaks, *_onsets(run, [0.0, *breaks]), case.maximum_duration})
     solution = _Solution()
     ice = run.ice0
     steps = 0

@@ -132,7 +132,7 @@ def test_twenty_by_twenty_grid_is_one_vectorized_call() -> None:
             OutOfRangeError,
             "chamber_pressures",
         ),
-        ({"chamber_pressures": np.array([0.5, 3.0])}, OutOfRangeError, "chamber_pressures"),
+        ({"chamber_pressures": np.array([0.5, 3.0])}, OutOfRangeError, "equipment_limit"),
     ],
     ids=["no-ice-left", "not-increasing", "above-triple-point", "nothing-sublimes", "limit-range"],
 )

@@ -211,7 +211,7 @@ _SHORT_RECIPES = {
         ({"heat_transfer": VialHeatTransfer(-1.0, 0.1, 0.0)}, "vial_heat_transfer.contact"),
         (
             {"equipment_limit": EquipmentLimit(np.array([20.0, 30.0]), np.array([1.0, 1.0]))},
-            "recipe.chamber_pressure",
+            "equipment_limit",
         ),
     ],
     ids=[
