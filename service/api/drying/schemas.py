@@ -174,9 +174,13 @@ class EquipmentLimitPointInput(ApiModel):
 
 
 class _DryingInputs(ApiModel):
-    load: DryingLoadInput
-    vial_heat_transfer: VialHeatTransferInput
-    dried_layer_resistance: DriedLayerResistanceInput
+    load: DryingLoadInput = Field(description="The containers and their frozen fill.")
+    vial_heat_transfer: VialHeatTransferInput = Field(
+        description="The three constants of K_v(P_c), measured for the container and dryer."
+    )
+    dried_layer_resistance: DriedLayerResistanceInput = Field(
+        description="The three constants of R_p(l), measured for the formulation."
+    )
     critical_temperature: QuantityInput = Field(
         description=_one(
             "Collapse (or eutectic) temperature of the product, the highest the ice front may "
