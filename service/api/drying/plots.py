@@ -4,13 +4,12 @@ the format is chosen by :func:`service.api.simulations.plots.plot_format_for`.""
 
 from __future__ import annotations
 
-import io
-from typing import Any, Final
+from typing import Final
 
 import numpy as np
 
 from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
-from service.api.simulations.plots import PlotFormat
+from service.api.simulations.plots import PlotFormat, figure_bytes, mark_events
 from service.core.drying import DesignSpaceResult, PrimaryDryingResult
 
 __all__ = ["plot_design_space", "plot_primary_drying"]
@@ -26,13 +25,6 @@ _EVENT_LABELS: Final = {
     "front-reaches-triple-point": "melting",
 }
 _HOUR: Final = 3600.0
-
-
-def _image(figure: Any, kind: PlotFormat) -> bytes:
-    buffer = io.BytesIO()
-    metadata = {"Date": None} if kind == "svg" else None
-    figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
-    return buffer.getvalue()
 
 
 def plot_primary_drying(result: PrimaryDryingResult, unit_set: UnitSet, kind: PlotFormat) -> bytes:
@@ -82,25 +74,14 @@ def plot_primary_drying(result: PrimaryDryingResult, unit_set: UnitSet, kind: Pl
     lower.set_xlabel("time [h]")
     lower.legend(loc="upper right", fontsize="small")
     lower.grid(True, alpha=0.3)
-    for event in result.events:
-        label = _EVENT_LABELS.get(event.name)
-        if label is None:
-            continue
-        at = event.time / _HOUR
-        for axis in (upper, lower):
-            axis.axvline(at, color="grey", lw=0.8, ls="-.")
-        upper.annotate(
-            label,
-            xy=(at, 1.0),
-            xycoords=("data", "axes fraction"),
-            rotation=90,
-            va="top",
-            ha="right",
-            fontsize="x-small",
-            color="dimgrey",
-        )
+    marks = [
+        (event.time / _HOUR, _EVENT_LABELS[event.name])
+        for event in result.events
+        if event.name in _EVENT_LABELS
+    ]
+    mark_events((upper, lower), upper, marks)
     figure.suptitle("Primary drying")
-    return _image(figure, kind)
+    return figure_bytes(figure, kind)
 
 
 def _hour_levels(hours: np.ndarray) -> list[float]:
@@ -171,4 +152,4 @@ def plot_design_space(result: DesignSpaceResult, unit_set: UnitSet, kind: PlotFo
     axis.grid(True, alpha=0.3)
     title = "Primary drying design space (shaded: safe)"
     figure.suptitle(title)
-    return _image(figure, kind)
+    return figure_bytes(figure, kind)

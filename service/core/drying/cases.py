@@ -30,12 +30,25 @@ __all__ = [
     "EquipmentLimit",
     "PrimaryDryingCase",
     "Recipe",
+    "validate_critical_temperature",
 ]
 
 SHELF_TEMPERATURE_RANGE: Final = (FRONT_TEMPERATURE_RANGE[0], 400.0)
 """K."""
 CHAMBER_PRESSURE_RANGE: Final = (0.05, TRIPLE_POINT_PRESSURE)
 """Pa (0.05 Pa is the ice's vapor pressure near 192 K)."""
+
+
+def validate_critical_temperature(value: float) -> None:
+    """Raise unless the collapse temperature lies in 150 K to 273.16 K."""
+    require_within(
+        finite_array(value, "critical_temperature"),
+        "critical_temperature",
+        150.0,
+        273.16,
+        "K",
+        "a collapse temperature lies below the melting point of ice",
+    )
 
 
 def _positive(value: float, name: str, unit: str, reason: str) -> None:
@@ -295,14 +308,7 @@ class PrimaryDryingCase:
         self.heat_transfer.validate("vial_heat_transfer")
         self.resistance.validate("dried_layer_resistance")
         self.recipe.validate()
-        require_within(
-            finite_array(self.critical_temperature, "critical_temperature"),
-            "critical_temperature",
-            150.0,
-            273.16,
-            "K",
-            "a collapse temperature lies below the melting point of ice",
-        )
+        validate_critical_temperature(self.critical_temperature)
         if self.condenser_capacity is not None:
             _positive(self.condenser_capacity, "condenser_capacity", "kg", "capacity > 0")
         if self.equipment_limit is not None:

@@ -26,6 +26,7 @@ from service.core.drying.cases import (
     SHELF_TEMPERATURE_RANGE,
     DryingLoad,
     EquipmentLimit,
+    validate_critical_temperature,
 )
 from service.core.drying.coefficients import DriedLayerResistance, VialHeatTransfer
 from service.core.drying.front import (
@@ -113,14 +114,7 @@ class DesignSpaceCase:
             if np.any(np.diff(array) <= 0.0):
                 raise InvalidInputError(name, "values must be strictly increasing")
             require_within(array, name, *limits, unit, "drying model range")
-        require_within(
-            finite_array(self.critical_temperature, "critical_temperature"),
-            "critical_temperature",
-            150.0,
-            273.16,
-            "K",
-            "a collapse temperature lies below the melting point of ice",
-        )
+        validate_critical_temperature(self.critical_temperature)
         if self.equipment_limit is not None:
             self.equipment_limit.validate(self.chamber_pressures, "equipment_limit")
         if self.dried_layer_thickness is not None:

@@ -258,7 +258,7 @@ def _integrate(run: _Run) -> tuple[_Solution, float, bool, int]:
     return solution, case.maximum_duration, False, steps
 
 
-def _crossings(times: FloatArray, values: FloatArray) -> list[tuple[int, int]]:
+def _crossings(values: FloatArray) -> list[tuple[int, int]]:
     """(index before, +1 rising / -1 falling) where ``values`` changes sign."""
     positive = values > 0.0
     changes = np.flatnonzero(positive[1:] != positive[:-1])
@@ -309,7 +309,6 @@ def simulate_primary_drying(case: PrimaryDryingCase) -> PrimaryDryingResult:
     solution, end_time, dry, steps = _integrate(run)
     grid = np.unique(np.concatenate([np.linspace(0.0, end_time, _DETECTION_POINTS)]))
     detection, status = run.states(grid, solution.ice(grid))
-    count = case.load.container_count
 
     def at(time: float) -> DryingStates:
         return run.states(np.array([time]), solution.ice(np.array([time])))[0]
@@ -331,7 +330,7 @@ def simulate_primary_drying(case: PrimaryDryingCase) -> PrimaryDryingResult:
     def add_crossings(difference: FloatArray, function: Any, up: str, down: str, text: str) -> None:
         if difference[0] > 0.0:
             events.append(DryingEvent(up, 0.0, f"{text} at the start", at(0.0)))
-        for index, direction in _crossings(grid, difference):
+        for index, direction in _crossings(difference):
             time = _refine(function, float(grid[index]), float(grid[index + 1]))
             name = up if direction > 0 else down
             events.append(
@@ -434,7 +433,6 @@ def simulate_primary_drying(case: PrimaryDryingCase) -> PrimaryDryingResult:
         condenser_capacity_reached=condenser[0] if condenser else None,
         solver_steps=steps,
     )
-    del count
     return PrimaryDryingResult(
         series=series,
         events=tuple(events),
