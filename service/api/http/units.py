@@ -195,8 +195,8 @@ _COMPOUND_REPLACEMENTS = {
 def _registry() -> pint.UnitRegistry[float]:
     """Build the unit registry once per process, on first use."""
     registry: pint.UnitRegistry[float] = pint.UnitRegistry()
-    registry.define("psia = psi")
     registry.define("Torr = torr")  # the spelling of the trade; mTorr follows
+    registry.define("psia = psi")
     return registry
 
 
