@@ -16,6 +16,7 @@ from starlette.middleware.cors import CORSMiddleware
 from service import __version__
 from service.api.balances import router as balances
 from service.api.calculations import router as calculations
+from service.api.drying import router as drying
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
@@ -46,6 +47,7 @@ CSV_ROUTES = (
     CsvRoute("/v1/properties/"),
     CsvRoute("/v1/balances/", one_call_per_row=True),
     CsvRoute("/v1/simulations/", one_call_per_row=True, answer_part="series"),
+    CsvRoute("/v1/design-spaces/", one_call_per_row=True, answer_part="cells"),
 )
 """Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
 
@@ -160,6 +162,7 @@ def create_app(
     app.include_router(properties.router)
     app.include_router(balances.router)
     app.include_router(simulations.router)
+    app.include_router(drying.router)
     app.include_router(calculations.router)
 
     # Added inner to outer: the last one added sees the request first.

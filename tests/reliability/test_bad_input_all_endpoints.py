@@ -76,6 +76,8 @@ _STATE = "/v1/properties/state"
 _FLASH = "/v1/balances/flash-freeze"
 _EVAP = "/v1/balances/evaporative-cooling"
 _CHAMBER = "/v1/simulations/vacuum-chamber"
+_DRYING = "/v1/simulations/primary-drying"
+_DESIGN = "/v1/design-spaces/primary-drying"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
 
@@ -333,6 +335,47 @@ CASES: list[Case] = [
         422,
         "mass",
         body=_spoiled("post_vacuum_chamber_simulation", "product.mass", False),
+    ),
+    # primary drying
+    Case(
+        "drying-no-ice",
+        "POST",
+        _DRYING,
+        422,
+        "load.solids_fraction",
+        body=_spoiled("post_primary_drying_simulation", "load.solids_fraction", 1.0),
+    ),
+    Case(
+        "drying-dimension",
+        "POST",
+        _DRYING,
+        422,
+        "recipe[0].chamber_pressure",
+        body=_spoiled("post_primary_drying_simulation", "recipe.0.chamber_pressure", "3 kg"),
+    ),
+    Case(
+        "drying-nan",
+        "POST",
+        _DRYING,
+        422,
+        "critical_temperature",
+        body=_spoiled("post_primary_drying_simulation", "critical_temperature", "nan degC"),
+    ),
+    Case(
+        "design-space-no-ice-left",
+        "POST",
+        _DESIGN,
+        422,
+        "dried_layer_thickness",
+        body=_spoiled("post_primary_drying_design_space", "dried_layer_thickness", "20 mm"),
+    ),
+    Case(
+        "design-space-unknown",
+        "POST",
+        _DESIGN,
+        422,
+        "colour",
+        body=_spoiled("post_primary_drying_design_space", "colour", "red"),
     ),
     # calculation records
     Case(

@@ -62,6 +62,14 @@ class Dimension(Enum):
     MOLAR_MASS = ("kg/mol", "[mass] / [substance]")
     LEAK_RATE = ("Pa*m**3/s", "[length] ** 2 * [mass] / [time] ** 3")
     THERMAL_CONDUCTANCE = ("W/K", "[length] ** 2 * [mass] / [temperature] / [time] ** 3")
+    LENGTH = ("m", "[length]")
+    RECIPROCAL_LENGTH = ("1/m", "1 / [length]")
+    RECIPROCAL_PRESSURE = ("1/Pa", "[length] * [time] ** 2 / [mass]")
+    THERMAL_CONDUCTIVITY = ("W/(m*K)", "[length] * [mass] / [temperature] / [time] ** 3")
+    HEAT_TRANSFER_COEFFICIENT = ("W/(m**2*K)", "[mass] / [temperature] / [time] ** 3")
+    HEAT_TRANSFER_COEFFICIENT_PER_PRESSURE = ("W/(m**2*K*Pa)", "[length] / [temperature] / [time]")
+    FLOW_RESISTANCE = ("m**2*Pa*s/kg", "[length] / [time]")
+    FLOW_RESISTANCE_PER_LENGTH = ("m*Pa*s/kg", "1 / [time]")
     DIMENSIONLESS = ("", "")
 
     @property
@@ -97,8 +105,26 @@ _SI_LABEL: dict[Dimension, str] = {
     Dimension.MOLAR_MASS: "kg/mol",
     Dimension.LEAK_RATE: "Pa*m3/s",
     Dimension.THERMAL_CONDUCTANCE: "W/K",
+    Dimension.LENGTH: "m",
+    Dimension.RECIPROCAL_LENGTH: "1/m",
+    Dimension.RECIPROCAL_PRESSURE: "1/Pa",
+    Dimension.THERMAL_CONDUCTIVITY: "W/(m*K)",
+    Dimension.HEAT_TRANSFER_COEFFICIENT: "W/(m2*K)",
+    Dimension.HEAT_TRANSFER_COEFFICIENT_PER_PRESSURE: "W/(m2*K*Pa)",
+    Dimension.FLOW_RESISTANCE: "m2*Pa*s/kg",
+    Dimension.FLOW_RESISTANCE_PER_LENGTH: "m*Pa*s/kg",
     Dimension.DIMENSIONLESS: "1",
 }
+_KEPT_IN_SI = (
+    Dimension.RECIPROCAL_LENGTH,
+    Dimension.RECIPROCAL_PRESSURE,
+    Dimension.THERMAL_CONDUCTIVITY,
+    Dimension.HEAT_TRANSFER_COEFFICIENT,
+    Dimension.HEAT_TRANSFER_COEFFICIENT_PER_PRESSURE,
+    Dimension.FLOW_RESISTANCE,
+    Dimension.FLOW_RESISTANCE_PER_LENGTH,
+)
+"""Transfer coefficients of the drying model: reported in SI in every unit set."""
 
 _OUTPUT_UNITS: dict[UnitSet, dict[Dimension, str]] = {
     UnitSet.SI: _SI_LABEL,
@@ -113,6 +139,7 @@ _OUTPUT_UNITS: dict[UnitSet, dict[Dimension, str]] = {
         Dimension.MASS_FLOW: "kg/h",
         Dimension.VOLUME_FLOW: "m3/h",
         Dimension.LEAK_RATE: "mbar*L/s",
+        Dimension.LENGTH: "mm",
     },
     UnitSet.US: {
         Dimension.TEMPERATURE: "degF",
@@ -132,6 +159,8 @@ _OUTPUT_UNITS: dict[UnitSet, dict[Dimension, str]] = {
         Dimension.MOLAR_MASS: "kg/mol",
         Dimension.LEAK_RATE: "torr*L/s",
         Dimension.THERMAL_CONDUCTANCE: "Btu/(h*degF)",
+        Dimension.LENGTH: "in",
+        **{dimension: _SI_LABEL[dimension] for dimension in _KEPT_IN_SI},
         Dimension.DIMENSIONLESS: "1",
     },
 }
@@ -187,6 +216,7 @@ _COMPOUND_REPLACEMENTS = {
 def _registry() -> pint.UnitRegistry[float]:
     """Build the unit registry once per process, on first use."""
     registry: pint.UnitRegistry[float] = pint.UnitRegistry()
+    registry.define("Torr = torr")  # the spelling of the trade; mTorr follows
     registry.define("psia = psi")
     # A micron of mercury (micrometre of mercury), the freeze-drying chamber's unit:
     # 1e-3 mmHg = 0.133322387415 Pa (1 mTorr is 0.133322368 Pa, 1.4e-7 apart).

@@ -7,7 +7,8 @@ is safe in worker threads and needs no display. matplotlib is imported on first 
 from __future__ import annotations
 
 import io
-from typing import Final, Literal
+from collections.abc import Sequence
+from typing import Any, Final, Literal
 
 import numpy as np
 
@@ -15,7 +16,14 @@ from service.api.http.negotiation import accept_qualities, json_quality
 from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
 from service.core.simulation import VacuumChamberResult
 
-__all__ = ["PLOT_MEDIA_TYPES", "PlotFormat", "plot_format_for", "plot_simulation"]
+__all__ = [
+    "PLOT_MEDIA_TYPES",
+    "PlotFormat",
+    "figure_bytes",
+    "mark_events",
+    "plot_format_for",
+    "plot_simulation",
+]
 
 PlotFormat = Literal["svg", "png"]
 
@@ -115,14 +123,23 @@ def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFo
     lower.set_xlabel(f"time [{time_unit}]")
     lower.grid(True, alpha=0.3)
     scale = float(series.time[-1] / time[-1]) if time.size and time[-1] > 0 else 1.0
-    for event in result.events:
-        label = _EVENT_LABELS.get(event.name)
-        if label is None:
-            continue
-        at = event.time / scale
-        for axis in (upper, lower):
+    marks = [
+        (event.time / scale, _EVENT_LABELS[event.name])
+        for event in result.events
+        if event.name in _EVENT_LABELS
+    ]
+    mark_events((upper, lower), lower, marks)
+    figure.suptitle("Vacuum chamber simulation")
+    return figure_bytes(figure, kind)
+
+
+def mark_events(axes: Sequence[Any], labelled: Any, marks: Sequence[tuple[float, str]]) -> None:
+    """A vertical line on every one of ``axes`` at each mark's time (in the axis' time
+    unit), its label written along the line at the top of the axis ``labelled``."""
+    for at, label in marks:
+        for axis in axes:
             axis.axvline(at, color="grey", lw=0.8, ls="-.")
-        lower.annotate(
+        labelled.annotate(
             label,
             xy=(at, 1.0),
             xycoords=("data", "axes fraction"),
@@ -132,7 +149,10 @@ def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFo
             fontsize="x-small",
             color="dimgrey",
         )
-    figure.suptitle("Vacuum chamber simulation")
+
+
+def figure_bytes(figure: Any, kind: PlotFormat) -> bytes:
+    """The figure as SVG (no date, so the same answer gives the same bytes) or PNG."""
     buffer = io.BytesIO()
     metadata = {"Date": None} if kind == "svg" else None
     figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)

@@ -1,0 +1,1 @@
+"""Primary drying: the run over a recipe and the design space."""
