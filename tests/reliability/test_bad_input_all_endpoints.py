@@ -76,6 +76,7 @@ _STATE = "/v1/properties/state"
 _FLASH = "/v1/balances/flash-freeze"
 _EVAP = "/v1/balances/evaporative-cooling"
 _CHAMBER = "/v1/simulations/vacuum-chamber"
+_CALIBRATION = "/v1/calibrations/vacuum-chamber"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
 
@@ -333,6 +334,31 @@ CASES: list[Case] = [
         422,
         "mass",
         body=_spoiled("post_vacuum_chamber_simulation", "product.mass", False),
+    ),
+    # calibration
+    Case(
+        "calibration-unknown-field",
+        "POST",
+        _CALIBRATION,
+        422,
+        "estimate[0].parameter",
+        body=_spoiled("post_vacuum_chamber_calibration", "estimate.0.parameter", "chamber.colour"),
+    ),
+    Case(
+        "calibration-series-unit",
+        "POST",
+        _CALIBRATION,
+        422,
+        "measured.total_pressure",
+        body=_spoiled("post_vacuum_chamber_calibration", "measured.total_pressure.unit", "degC"),
+    ),
+    Case(
+        "calibration-bound-dimension",
+        "POST",
+        _CALIBRATION,
+        422,
+        "estimate[2].upper",
+        body=_spoiled("post_vacuum_chamber_calibration", "estimate.2.upper", "1 kg"),
     ),
     # calculation records
     Case(
