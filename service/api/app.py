@@ -15,8 +15,8 @@ from starlette.middleware.cors import CORSMiddleware
 
 from service import __version__
 from service.api.balances import router as balances
-from service.api.calibrations import router as calibrations
 from service.api.calculations import router as calculations
+from service.api.calibrations import router as calibrations
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
