@@ -568,7 +568,17 @@ def calibrate_vacuum_chamber(
         raise InvalidInputError(
             "measured", f"needs more readings ({points}) than estimated fields ({count})", points
         )
-    objective = _Objective(_fit_case(case, run), run, scales)
+    fit_case = _fit_case(case, run)
+    try:
+        validate_case(fit_case)
+    except TripointError as error:
+        raise InvalidInputError(
+            "measured.time",
+            f"the readings span {run.end_time:.6g} s after the pump start, which the model "
+            f"cannot run ({error})",
+            run.end_time,
+        ) from None
+    objective = _Objective(fit_case, run, scales)
     bounds = (
         np.array([scale.search_bounds[0] for scale in scales]),
         np.array([scale.search_bounds[1] for scale in scales]),

@@ -239,3 +239,20 @@ def test_bad_requests_name_field_and_row(
     fields = [error["field"] for error in problem["errors"]]
     assert field in fields, problem
     assert words in json.dumps(problem)
+
+
+def test_speed_scale_is_written_into_the_speed_curve(client: TestClient) -> None:
+    body = copy.deepcopy(JSON_BODY)
+    body["case"]["pump"]["speed_curve"] = [
+        {"pressure": "1 mbar", "speed": "200 m3/h"},
+        {"pressure": "1000 mbar", "speed": "250 m3/h"},
+    ]
+    body["estimate"] = [{"parameter": "pump.speed_scale", "lower": 0.5, "upper": 1.5}]
+    response = client.post(PATH, json=body)
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    scale = answer["estimates"][0]["value"]["value"]
+    curve = answer["fitted_case"]["pump"]["speed_curve"]
+    assert curve[0]["speed"]["value"] == pytest.approx(200 / 3600 * scale)
+    assert curve[1]["speed"]["value"] == pytest.approx(250 / 3600 * scale)
+    assert curve[0]["pressure"] == "1 mbar"

@@ -264,3 +264,11 @@ def test_too_few_readings_are_refused() -> None:
     run = MeasuredRun((_series("total_pressure", [0.0, 60.0], [1e5, 2e3]),))
     with pytest.raises(InvalidInputError, match="more readings"):
         calibrate_vacuum_chamber(_start_case(), run, PARAMETERS)
+
+
+def test_a_log_longer_than_the_model_allows_is_refused() -> None:
+    days = 40 * 86400.0  # the simulation runs at most 30 days
+    run = MeasuredRun((_series("total_pressure", [0.0, 60.0, days], [1e5, 2e3, 1e3]),))
+    with pytest.raises(InvalidInputError) as caught:
+        calibrate_vacuum_chamber(_start_case(), run, PARAMETERS[:1])
+    assert caught.value.variable == "measured.time" and "end_time" in str(caught.value)
