@@ -16,6 +16,7 @@ from starlette.middleware.cors import CORSMiddleware
 from service import __version__
 from service.api.balances import router as balances
 from service.api.calculations import router as calculations
+from service.api.calibrations import router as calibrations
 from service.api.drying import router as drying
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
@@ -163,6 +164,7 @@ def create_app(
     app.include_router(balances.router)
     app.include_router(simulations.router)
     app.include_router(drying.router)
+    app.include_router(calibrations.router)
     app.include_router(calculations.router)
 
     # Added inner to outer: the last one added sees the request first.

@@ -78,6 +78,7 @@ _EVAP = "/v1/balances/evaporative-cooling"
 _CHAMBER = "/v1/simulations/vacuum-chamber"
 _DRYING = "/v1/simulations/primary-drying"
 _DESIGN = "/v1/design-spaces/primary-drying"
+_CALIBRATION = "/v1/calibrations/vacuum-chamber"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
 
@@ -376,6 +377,31 @@ CASES: list[Case] = [
         422,
         "colour",
         body=_spoiled("post_primary_drying_design_space", "colour", "red"),
+    ),
+    # calibration
+    Case(
+        "calibration-unknown-field",
+        "POST",
+        _CALIBRATION,
+        422,
+        "estimate[0].parameter",
+        body=_spoiled("post_vacuum_chamber_calibration", "estimate.0.parameter", "chamber.colour"),
+    ),
+    Case(
+        "calibration-series-unit",
+        "POST",
+        _CALIBRATION,
+        422,
+        "measured.total_pressure",
+        body=_spoiled("post_vacuum_chamber_calibration", "measured.total_pressure.unit", "degC"),
+    ),
+    Case(
+        "calibration-bound-dimension",
+        "POST",
+        _CALIBRATION,
+        422,
+        "estimate[2].upper",
+        body=_spoiled("post_vacuum_chamber_calibration", "estimate.2.upper", "1 kg"),
     ),
     # calculation records
     Case(

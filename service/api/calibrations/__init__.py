@@ -1,0 +1,1 @@
+"""Calibrations: fit the chamber model to a measured run."""
