@@ -76,6 +76,7 @@ _STATE = "/v1/properties/state"
 _FLASH = "/v1/balances/flash-freeze"
 _EVAP = "/v1/balances/evaporative-cooling"
 _CHAMBER = "/v1/simulations/vacuum-chamber"
+_SIZING = "/v1/sizing/vacuum-chamber"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
 
@@ -333,6 +334,39 @@ CASES: list[Case] = [
         422,
         "mass",
         body=_spoiled("post_vacuum_chamber_simulation", "product.mass", False),
+    ),
+    # sizing
+    Case(
+        "sizing-find-not-monotone",
+        "POST",
+        _SIZING,
+        422,
+        "find",
+        body=_spoiled("post_vacuum_chamber_sizing", "find", "product.water_fraction"),
+    ),
+    Case(
+        "sizing-target-dimension",
+        "POST",
+        _SIZING,
+        422,
+        "temperature",
+        body=_spoiled("post_vacuum_chamber_sizing", "target.temperature", "25 kg"),
+    ),
+    Case(
+        "sizing-case-missing",
+        "POST",
+        _SIZING,
+        422,
+        "case",
+        body=_spoiled("post_vacuum_chamber_sizing", "case", _MISSING),
+    ),
+    Case(
+        "sizing-case-field",
+        "POST",
+        _SIZING,
+        422,
+        "free_volume",
+        body=_spoiled("post_vacuum_chamber_sizing", "case.chamber.free_volume", "6 kg"),
     ),
     # calculation records
     Case(

@@ -100,6 +100,10 @@ class SizingResult:
     at_bracket_end : bool
         The bracket's end on the unfavourable side already meets the target: the boundary
         may lie beyond it.
+    target : CoolingTarget or None
+        The target solved for (None: the case's schedule).
+    relative_tolerance : float
+        The tolerance asked for.
     warnings : tuple of Advisory
     assumptions : tuple of str
     """
@@ -117,5 +121,7 @@ class SizingResult:
     design_curve: tuple[DesignPoint, ...]
     simulations: int
     at_bracket_end: bool
+    target: CoolingTarget | None
+    relative_tolerance: float
     warnings: tuple[Advisory, ...]
     assumptions: tuple[str, ...]

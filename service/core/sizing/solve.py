@@ -478,6 +478,8 @@ def size_vacuum_chamber(sizing: SizingCase) -> SizingResult:
         design_curve=tuple(curve),
         simulations=len(trials.done),
         at_bracket_end=at_end,
+        target=target,
+        relative_tolerance=sizing.relative_tolerance,
         warnings=tuple(warnings),
         assumptions=_assumptions(item, target),
     )
