@@ -7,7 +7,7 @@ from typing import Any, Final
 from service.api.http.envelope import envelope
 from service.api.http.quantities import quantity_output, scalar_output
 from service.api.http.units import Dimension, UnitSet
-from service.core.simulation import ChamberStates, VacuumChamberResult
+from service.core.simulation import ChamberStates, EquipmentChecks, VacuumChamberResult
 
 __all__ = ["STATE_DIMENSIONS", "simulation_answer"]
 
@@ -69,6 +69,42 @@ _BALANCE: Final[tuple[tuple[str, Dimension], ...]] = (
 )
 
 
+_CHECKS: Final[tuple[tuple[str, Dimension], ...]] = (
+    ("peak_pump_inlet_volume_flow", Dimension.VOLUME_FLOW),
+    ("peak_pump_inlet_pressure", Dimension.PRESSURE),
+    ("end_pump_inlet_volume_flow", Dimension.VOLUME_FLOW),
+    ("end_pump_inlet_pressure", Dimension.PRESSURE),
+    ("pump_vapor_mass", Dimension.MASS),
+    ("peak_pump_vapor_mass_flow", Dimension.MASS_FLOW),
+    ("pump_water_vapor_tolerance", Dimension.MASS_FLOW),
+    ("time_above_water_vapor_tolerance", Dimension.TIME),
+    ("peak_trap_load", Dimension.POWER),
+    ("peak_trap_load_time", Dimension.TIME),
+    ("trap_refrigeration_capacity", Dimension.POWER),
+    ("trap_ice", Dimension.MASS),
+    ("trap_ice_capacity", Dimension.MASS),
+    ("trap_ice_capacity_used", Dimension.DIMENSIONLESS),
+    ("trap_limited_time", Dimension.TIME),
+)
+"""Fields of :class:`EquipmentChecks` with their dimensions, in response order."""
+
+
+def _checks(checks: EquipmentChecks | None, unit_set: UnitSet) -> dict[str, Any] | None:
+    if checks is None:
+        return None
+    answer: dict[str, Any] = {
+        name: scalar_output(getattr(checks, name), dimension, unit_set)
+        for name, dimension in _CHECKS
+    }
+    tolerance = checks.pump_water_vapor_tolerance
+    answer["water_vapor_tolerance_exceeded"] = (
+        None if tolerance is None else checks.peak_pump_vapor_mass_flow > tolerance
+    )
+    capacity = checks.trap_ice_capacity_used
+    answer["trap_ice_capacity_exceeded"] = None if capacity is None else capacity > 1.0
+    return answer
+
+
 def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict[str, Any]:
     return {
         name: quantity_output(getattr(states, name), dimension, unit_set, as_array=as_array)
@@ -120,6 +156,7 @@ def simulation_answer(
             name: scalar_output(getattr(balance, name), dimension, unit_set)
             for name, dimension in _BALANCE
         },
+        "checks": _checks(result.checks, unit_set),
         "model_references": list(result.references),
         **envelope(
             unit_set=unit_set,

@@ -71,6 +71,9 @@ def _pump(pump: PumpInput) -> Pump:
         ),
         speed_curve_pressures=pressures,
         speed_curve_speeds=speeds,
+        water_vapor_tolerance=_maybe(
+            pump.water_vapor_tolerance, "pump.water_vapor_tolerance", Dimension.MASS_FLOW
+        ),
     )
 
 

@@ -13,7 +13,15 @@ from service.core.sizing import MARGIN_FACTOR, DesignPoint, SizingResult
 
 __all__ = ["sizing_answer"]
 
-_SIMULATION_PARTS = ("summary", "events", "series", "schedule", "balance", "model_references")
+_SIMULATION_PARTS = (
+    "summary",
+    "events",
+    "series",
+    "schedule",
+    "balance",
+    "checks",
+    "model_references",
+)
 
 
 def _time(value: float | None, unit_set: UnitSet) -> dict[str, Any] | None:

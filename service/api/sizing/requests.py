@@ -38,6 +38,7 @@ _DIMENSIONS: Final[dict[str, Dimension]] = {
     "m2": Dimension.AREA,
     "W/K": Dimension.THERMAL_CONDUCTANCE,
     "s": Dimension.TIME,
+    "kg/s": Dimension.MASS_FLOW,
 }
 """SI unit of a case field -> its dimension."""
 

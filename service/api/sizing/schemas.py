@@ -14,6 +14,7 @@ from pydantic import Field
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.simulations.schemas import (
     ChamberStatesOut,
+    EquipmentChecksOut,
     MassEnergyBalanceOut,
     ScheduleCheckOut,
     SimulationEventOut,
@@ -130,6 +131,7 @@ class ForwardSimulationOut(ApiModel):
     series: ChamberStatesOut
     schedule: list[ScheduleCheckOut]
     balance: MassEnergyBalanceOut
+    checks: EquipmentChecksOut
     model_references: list[str]
 
 

@@ -37,6 +37,7 @@ from service.core.simulation.chamber_model import (
     ChamberModel,
     Regime,
 )
+from service.core.simulation.checks import equipment_checks
 from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.evaporation import KineticEvaporation
 from service.core.simulation.inputs import VacuumChamberCase, validate_case
@@ -744,4 +745,5 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         references=REFERENCES,
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
         property_uncertainties=tuple(path_uncertainties(series.product_temperature)),
+        checks=equipment_checks(case, series, float(final[PUMPED])),
     )
