@@ -8,7 +8,7 @@ Every numeric input is a single value: a number in its default unit, a string wi
 
 from __future__ import annotations
 
-from typing import Literal
+from typing import Any, Literal
 
 from pydantic import Field
 
@@ -32,6 +32,7 @@ __all__ = [
     "SpeedPointInput",
     "VacuumChamberSimulationCreate",
     "VacuumChamberSimulationPublic",
+    "VacuumChamberSweepPublic",
 ]
 
 _ONE_VALUE = (
@@ -416,3 +417,23 @@ class VacuumChamberSimulationPublic(Envelope):
     balance: MassEnergyBalanceOut
     checks: EquipmentChecksOut = Field(description="Equipment checks of the run.")
     model_references: list[str] = Field(description="Published basis of the model.")
+
+
+class VacuumChamberSweepPublic(Envelope):
+    """A sweep: the summary and checks of every case as `values`, in the order of the
+    request's arrays."""
+
+    cases: int = Field(description="Number of cases.")
+    swept: list[str] = Field(description="Dotted paths of the inputs given as arrays.")
+    inputs: dict[str, QuantityOutput] = Field(
+        description="The swept case fields, per case (those with a scalar path)."
+    )
+    summary: dict[str, QuantityOutput | list[Any]] = Field(
+        description="Each summary field as `{values, unit}` (null where the event did not "
+        "happen), or a list for `end_reason`, `schedule_met`, `solver_steps`, "
+        "`right_hand_side_evaluations`."
+    )
+    checks: dict[str, QuantityOutput | list[Any]] = Field(
+        description="Each equipment check as `{values, unit}`, or a list of true/false/null."
+    )
+    model_references: list[str]

@@ -17,6 +17,7 @@ from pydantic import BaseModel
 from service.api.http.models import QuantityValue
 from service.api.http.quantities import read_quantity
 from service.api.http.units import Dimension, number_to_si, parse_quantity_text
+from service.api.simulations.answers import FIELD_DIMENSIONS
 from service.api.simulations.requests import read_vacuum_chamber
 from service.api.sizing.schemas import VacuumChamberSizingCreate
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
@@ -25,22 +26,7 @@ from service.core.sizing import CoolingTarget, SizingCase
 
 __all__ = ["FieldUnit", "case_errors_in_request", "read_sizing"]
 
-_DIMENSIONS: Final[dict[str, Dimension]] = {
-    "m3": Dimension.VOLUME,
-    "Pa": Dimension.PRESSURE,
-    "K": Dimension.TEMPERATURE,
-    "Pa*m3/s": Dimension.LEAK_RATE,
-    "m3/s": Dimension.VOLUME_FLOW,
-    "1": Dimension.DIMENSIONLESS,
-    "kg": Dimension.MASS,
-    "W": Dimension.POWER,
-    "J/(kg*K)": Dimension.SPECIFIC_ENTROPY,
-    "m2": Dimension.AREA,
-    "W/K": Dimension.THERMAL_CONDUCTANCE,
-    "s": Dimension.TIME,
-    "kg/s": Dimension.MASS_FLOW,
-}
-"""SI unit of a case field -> its dimension."""
+_DIMENSIONS: Final = FIELD_DIMENSIONS
 
 _SIZING_FIELDS: Final = frozenset(
     {
