@@ -88,6 +88,21 @@ class Settings(BaseSettings):
         description="Largest number of cases one balance request may sweep (413). Each case "
         "is a full integration (about 0.5 ms for pure water, up to 0.1 s with a solute).",
     )
+    max_simulation_sweep_cases: int = Field(
+        256,
+        ge=1,
+        le=100_000,
+        description="Largest number of cases one chamber-simulation request may sweep (413). "
+        "Each case is a full simulation (about 0.1 to 0.5 s of one core).",
+    )
+    simulation_workers: int = Field(
+        2,
+        ge=1,
+        le=64,
+        description="Processes that compute a chamber-simulation sweep in parallel (one pool "
+        "per server process, started on the first sweep); 1 computes sweeps in the request's "
+        "own thread.",
+    )
     max_body_bytes: int = Field(
         32 * 1024 * 1024,
         ge=1024,

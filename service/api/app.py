@@ -36,6 +36,7 @@ from service.api.http.units import Dimension
 from service.api.operations import router as operations
 from service.api.properties import router as properties
 from service.api.simulations import router as simulations
+from service.api.sizing import router as sizing
 from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
@@ -165,6 +166,7 @@ def create_app(
     app.include_router(simulations.router)
     app.include_router(drying.router)
     app.include_router(calibrations.router)
+    app.include_router(sizing.router)
     app.include_router(calculations.router)
 
     # Added inner to outer: the last one added sees the request first.

@@ -79,6 +79,7 @@ _CHAMBER = "/v1/simulations/vacuum-chamber"
 _DRYING = "/v1/simulations/primary-drying"
 _DESIGN = "/v1/design-spaces/primary-drying"
 _CALIBRATION = "/v1/calibrations/vacuum-chamber"
+_SIZING = "/v1/sizing/vacuum-chamber"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
 
@@ -402,6 +403,39 @@ CASES: list[Case] = [
         422,
         "estimate[2].upper",
         body=_spoiled("post_vacuum_chamber_calibration", "estimate.2.upper", "1 kg"),
+    ),
+    # sizing
+    Case(
+        "sizing-find-not-monotone",
+        "POST",
+        _SIZING,
+        422,
+        "find",
+        body=_spoiled("post_vacuum_chamber_sizing", "find", "product.water_fraction"),
+    ),
+    Case(
+        "sizing-target-dimension",
+        "POST",
+        _SIZING,
+        422,
+        "temperature",
+        body=_spoiled("post_vacuum_chamber_sizing", "target.temperature", "25 kg"),
+    ),
+    Case(
+        "sizing-case-missing",
+        "POST",
+        _SIZING,
+        422,
+        "case",
+        body=_spoiled("post_vacuum_chamber_sizing", "case", _MISSING),
+    ),
+    Case(
+        "sizing-case-field",
+        "POST",
+        _SIZING,
+        422,
+        "free_volume",
+        body=_spoiled("post_vacuum_chamber_sizing", "case.chamber.free_volume", "6 kg"),
     ),
     # calculation records
     Case(

@@ -325,6 +325,9 @@ def evaporative_cooling_answer(
         "mean_vapor_volume_flow": _optional(
             shape, result.mean_vapor_volume_flow, Dimension.VOLUME_FLOW
         ),
+        "final_vapor_volume_flow": _optional(
+            shape, result.final_vapor_volume_flow, Dimension.VOLUME_FLOW
+        ),
         "comparison": {
             "integrated_evaporated_mass": shape(evaporated, Dimension.MASS),
             "mean_vapor_enthalpy_evaporated_mass": shape(hand, Dimension.MASS),

@@ -536,6 +536,12 @@ class EvaporativeCoolingPublic(Envelope):
         None,
         description="vapor_volume / cooling_time (SI: m3/s); null without `cooling_time`.",
     )
+    final_vapor_volume_flow: QuantityOutput | None = Field(
+        None,
+        description="mean_vapor_mass_flow as saturated vapor at the final pressure and "
+        "temperature (SI: m3/s): the volume flow the vapor takes at the end, which the pump "
+        "and trap must handle there; null without `cooling_time`.",
+    )
     comparison: EvaporativeComparisonOut
     energy_balance: EvaporativeEnergyBalanceOut
     input_uncertainty: EvaporativeUncertaintyOut | None = Field(

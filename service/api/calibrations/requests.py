@@ -23,6 +23,7 @@ from service.api.http.csv_io import CsvError, parse_csv
 from service.api.http.models import QuantityValues
 from service.api.http.quantities import read_quantity
 from service.api.http.units import Dimension
+from service.api.simulations.answers import FIELD_DIMENSIONS as SI_UNIT_DIMENSIONS
 from service.api.simulations.answers import STATE_DIMENSIONS
 from service.api.simulations.requests import read_vacuum_chamber
 from service.core.calibration import (
@@ -39,20 +40,7 @@ from service.core.simulation.case_fields import CASE_FIELDS
 
 __all__ = ["FIELD_DIMENSIONS", "CalibrationInputs", "read_calibration", "series_dimension"]
 
-_BY_SI_UNIT: Final[dict[str, Dimension]] = {
-    "m3": Dimension.VOLUME,
-    "Pa": Dimension.PRESSURE,
-    "K": Dimension.TEMPERATURE,
-    "Pa*m3/s": Dimension.LEAK_RATE,
-    "m3/s": Dimension.VOLUME_FLOW,
-    "1": Dimension.DIMENSIONLESS,
-    "kg": Dimension.MASS,
-    "W": Dimension.POWER,
-    "J/(kg*K)": Dimension.SPECIFIC_ENTROPY,
-    "m2": Dimension.AREA,
-    "W/K": Dimension.THERMAL_CONDUCTANCE,
-    "s": Dimension.TIME,
-}
+_BY_SI_UNIT: Final = SI_UNIT_DIMENSIONS
 
 FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
     path: _BY_SI_UNIT[field.unit] for path, field in CASE_FIELDS.items()

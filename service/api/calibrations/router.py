@@ -38,7 +38,7 @@ _RESPONSES: dict[int | str, dict[str, Any]] = {
             "image/png": {"schema": {"type": "string", "format": "binary"}},
         },
     },
-    **problem_responses(413, 422, 503),
+    **problem_responses(400, 413, 422, 503),
 }
 
 

@@ -849,7 +849,10 @@ class _CsvOptions:
 
 
 def _part_of(answer: dict[str, Any], part: str) -> dict[str, Any]:
-    """The ``part`` member of an answer, led by the answer's calculation id."""
+    """The ``part`` member of an answer, led by the answer's calculation id; the whole
+    answer when it has no such member (a sweep answers its cases as ``values``)."""
+    if part not in answer:
+        return answer
     calculation_id = answer.get("meta", {}).get("calculation_id")
     selected = answer.get(part)
     body = selected if isinstance(selected, dict) else {part: selected}

@@ -2,14 +2,40 @@
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from typing import Any, Final
 
 from service.api.http.envelope import envelope
 from service.api.http.quantities import quantity_output, scalar_output
-from service.api.http.units import Dimension, UnitSet
-from service.core.simulation import ChamberStates, VacuumChamberResult
+from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
+from service.core.properties.advisories import Advisory
+from service.core.simulation import (
+    ChamberStates,
+    EquipmentChecks,
+    SimulationSummary,
+    VacuumChamberCase,
+    VacuumChamberResult,
+)
+from service.core.simulation.case_fields import CASE_FIELDS, case_field_value
 
-__all__ = ["STATE_DIMENSIONS", "simulation_answer"]
+__all__ = ["FIELD_DIMENSIONS", "STATE_DIMENSIONS", "simulation_answer", "sweep_answer"]
+
+FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
+    "m3": Dimension.VOLUME,
+    "Pa": Dimension.PRESSURE,
+    "K": Dimension.TEMPERATURE,
+    "Pa*m3/s": Dimension.LEAK_RATE,
+    "m3/s": Dimension.VOLUME_FLOW,
+    "1": Dimension.DIMENSIONLESS,
+    "kg": Dimension.MASS,
+    "W": Dimension.POWER,
+    "J/(kg*K)": Dimension.SPECIFIC_ENTROPY,
+    "m2": Dimension.AREA,
+    "W/K": Dimension.THERMAL_CONDUCTANCE,
+    "s": Dimension.TIME,
+    "kg/s": Dimension.MASS_FLOW,
+}
+"""SI unit of a case field (:data:`CASE_FIELDS`) -> its dimension."""
 
 STATE_DIMENSIONS: Final[tuple[tuple[str, Dimension], ...]] = (
     ("time", Dimension.TIME),
@@ -69,6 +95,135 @@ _BALANCE: Final[tuple[tuple[str, Dimension], ...]] = (
 )
 
 
+_CHECKS: Final[tuple[tuple[str, Dimension], ...]] = (
+    ("peak_pump_inlet_volume_flow", Dimension.VOLUME_FLOW),
+    ("peak_pump_inlet_pressure", Dimension.PRESSURE),
+    ("end_pump_inlet_volume_flow", Dimension.VOLUME_FLOW),
+    ("end_pump_inlet_pressure", Dimension.PRESSURE),
+    ("pump_vapor_mass", Dimension.MASS),
+    ("peak_pump_vapor_mass_flow", Dimension.MASS_FLOW),
+    ("pump_water_vapor_tolerance", Dimension.MASS_FLOW),
+    ("time_above_water_vapor_tolerance", Dimension.TIME),
+    ("peak_trap_load", Dimension.POWER),
+    ("peak_trap_load_time", Dimension.TIME),
+    ("trap_refrigeration_capacity", Dimension.POWER),
+    ("trap_ice", Dimension.MASS),
+    ("trap_ice_capacity", Dimension.MASS),
+    ("trap_ice_capacity_used", Dimension.DIMENSIONLESS),
+    ("trap_limited_time", Dimension.TIME),
+)
+"""Fields of :class:`EquipmentChecks` with their dimensions, in response order."""
+
+
+def _checks(checks: EquipmentChecks | None, unit_set: UnitSet) -> dict[str, Any] | None:
+    if checks is None:
+        return None
+    answer: dict[str, Any] = {
+        name: scalar_output(getattr(checks, name), dimension, unit_set)
+        for name, dimension in _CHECKS
+    }
+    tolerance = checks.pump_water_vapor_tolerance
+    answer["water_vapor_tolerance_exceeded"] = (
+        None if tolerance is None else checks.peak_pump_vapor_mass_flow > tolerance
+    )
+    capacity = checks.trap_ice_capacity_used
+    answer["trap_ice_capacity_exceeded"] = None if capacity is None else capacity > 1.0
+    return answer
+
+
+def _summary(summary: SimulationSummary, unit_set: UnitSet) -> dict[str, Any]:
+    return {
+        "end_reason": summary.end_reason,
+        **{
+            name: scalar_output(getattr(summary, name), dimension, unit_set)
+            for name, dimension in _SUMMARY
+        },
+        "schedule_met": summary.schedule_met,
+        "solver_steps": summary.solver_steps,
+        "right_hand_side_evaluations": summary.right_hand_side_evaluations,
+    }
+
+
+def _column(
+    items: list[Any], dimension: Dimension | None, unit_set: UnitSet
+) -> dict[str, Any] | list[Any]:
+    """Per-case items (``{"value", "unit"}`` or None; or plain values) as one column."""
+    if dimension is None:
+        return items
+    return {
+        "values": [None if item is None else item["value"] for item in items],
+        "unit": output_unit(dimension, unit_set),
+    }
+
+
+def _columns(
+    rows: list[dict[str, Any]], dimensions: dict[str, Dimension], unit_set: UnitSet
+) -> dict[str, Any]:
+    return {
+        name: _column([row[name] for row in rows], dimensions.get(name), unit_set)
+        for name in rows[0]
+    }
+
+
+def _sweep_inputs(
+    cases: Sequence[VacuumChamberCase], swept: tuple[str, ...], unit_set: UnitSet
+) -> dict[str, Any]:
+    inputs: dict[str, Any] = {}
+    for path in swept:
+        known = CASE_FIELDS.get(path)
+        if known is None:
+            continue
+        dimension = FIELD_DIMENSIONS[known.unit]
+        values = [case_field_value(case, path) for case in cases]
+        inputs[path] = {
+            "values": [
+                None if value is None else convert_from_si(value, dimension, unit_set)
+                for value in values
+            ],
+            "unit": output_unit(dimension, unit_set),
+        }
+    return inputs
+
+
+def _merged_advisories(results: Sequence[VacuumChamberResult]) -> list[Advisory]:
+    """Each distinct warning once, with the indices of the cases it applies to."""
+    found: dict[tuple[str, str], list[int]] = {}
+    for index, result in enumerate(results):
+        for advisory in result.warnings:
+            found.setdefault((advisory.code, advisory.message), []).append(index)
+    return [Advisory(code, message, tuple(indices)) for (code, message), indices in found.items()]
+
+
+def sweep_answer(
+    results: Sequence[VacuumChamberResult],
+    cases: Sequence[VacuumChamberCase],
+    swept: tuple[str, ...],
+    unit_set: UnitSet,
+    extra_assumptions: tuple[str, ...] = (),
+) -> dict[str, Any]:
+    """The response body of a sweep (see ``VacuumChamberSweepPublic``): every result as
+    ``values`` in case order."""
+    summaries = [_summary(result.summary, unit_set) for result in results]
+    checks = [_checks(result.checks, unit_set) or {} for result in results]
+    assumptions = dict.fromkeys(item for result in results for item in result.assumptions)
+    first = results[0]
+    return {
+        "cases": len(results),
+        "swept": list(swept),
+        "inputs": _sweep_inputs(cases, swept, unit_set),
+        "summary": _columns(summaries, dict(_SUMMARY), unit_set),
+        "checks": _columns(checks, dict(_CHECKS), unit_set),
+        "model_references": list(first.references),
+        **envelope(
+            unit_set=unit_set,
+            assumptions=(*assumptions, *extra_assumptions),
+            sources=first.property_sources,
+            uncertainties=first.property_uncertainties,
+            advisories=_merged_advisories(results),
+        ),
+    }
+
+
 def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict[str, Any]:
     return {
         name: quantity_output(getattr(states, name), dimension, unit_set, as_array=as_array)
@@ -80,19 +235,9 @@ def simulation_answer(
     result: VacuumChamberResult, unit_set: UnitSet, extra_assumptions: tuple[str, ...] = ()
 ) -> dict[str, Any]:
     """The response body of one simulation (see ``VacuumChamberSimulationPublic``)."""
-    summary = result.summary
     balance = result.balance
     return {
-        "summary": {
-            "end_reason": summary.end_reason,
-            **{
-                name: scalar_output(getattr(summary, name), dimension, unit_set)
-                for name, dimension in _SUMMARY
-            },
-            "schedule_met": summary.schedule_met,
-            "solver_steps": summary.solver_steps,
-            "right_hand_side_evaluations": summary.right_hand_side_evaluations,
-        },
+        "summary": _summary(result.summary, unit_set),
         "events": [
             {
                 "name": event.name,
@@ -120,6 +265,7 @@ def simulation_answer(
             name: scalar_output(getattr(balance, name), dimension, unit_set)
             for name, dimension in _BALANCE
         },
+        "checks": _checks(result.checks, unit_set),
         "model_references": list(result.references),
         **envelope(
             unit_set=unit_set,

@@ -10,8 +10,12 @@ from __future__ import annotations
 from dataclasses import replace
 from typing import Any
 
+from pydantic import BaseModel
+
 from service.api.balances.requests import check_companion, material_assumptions
 from service.api.balances.schemas import CompanionInput, CompositionInput, SoluteInput
+from service.api.http.limits import check_batch_size
+from service.api.http.models import QuantityValue, QuantityValues
 from service.api.http.quantities import read_quantity
 from service.api.http.units import Dimension
 from service.api.simulations.schemas import (
@@ -26,7 +30,7 @@ from service.core.balances import (
     Composition,
     Solute,
 )
-from service.core.errors import InvalidInputError
+from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.simulation import (
     Chamber,
     Condenser,
@@ -37,14 +41,14 @@ from service.core.simulation import (
     VacuumChamberCase,
 )
 
-__all__ = ["read_vacuum_chamber"]
+__all__ = ["read_vacuum_chamber", "read_vacuum_chamber_sweep"]
 
 
 def _one(raw: Any, path: str, dimension: Dimension) -> float:
     """One SI value; an array is refused."""
     parsed = read_quantity(raw, field=path, dimension=dimension)
     if parsed.is_array or parsed.size != 1:
-        raise InvalidInputError(path, "must be a single value (simulations take no sweeps)")
+        raise InvalidInputError(path, "must be a single value (this input takes no sweep)")
     return float(parsed.si[0])
 
 
@@ -71,6 +75,9 @@ def _pump(pump: PumpInput) -> Pump:
         ),
         speed_curve_pressures=pressures,
         speed_curve_speeds=speeds,
+        water_vapor_tolerance=_maybe(
+            pump.water_vapor_tolerance, "pump.water_vapor_tolerance", Dimension.MASS_FLOW
+        ),
     )
 
 
@@ -251,3 +258,94 @@ def read_vacuum_chamber(
         series_points=body.series_points,
     )
     return case, notes
+
+
+def _is_plain_array(value: Any) -> bool:
+    return (
+        isinstance(value, list)
+        and bool(value)
+        and all(isinstance(item, int | float) and not isinstance(item, bool) for item in value)
+    )
+
+
+def _arrays(model: BaseModel, prefix: str = "") -> dict[str, int]:
+    """Dotted path -> length of every quantity given as an array in ``model``."""
+    found: dict[str, int] = {}
+    for name in type(model).model_fields:
+        value = getattr(model, name)
+        path = f"{prefix}{name}"
+        if isinstance(value, QuantityValues):
+            found[path] = len(value.values)
+        elif _is_plain_array(value):
+            found[path] = len(value)
+        elif isinstance(value, BaseModel):
+            found.update(_arrays(value, f"{path}."))
+        elif isinstance(value, list):
+            for index, item in enumerate(value):
+                if isinstance(item, BaseModel):
+                    found.update(_arrays(item, f"{path}[{index}]."))
+    return found
+
+
+def _element(model: BaseModel, index: int) -> Any:
+    """A copy of ``model`` with every array quantity replaced by its ``index``-th value
+    (a one-value array stands for every case)."""
+    update: dict[str, Any] = {}
+    for name in type(model).model_fields:
+        value = getattr(model, name)
+        if isinstance(value, QuantityValues):
+            values = value.values
+            update[name] = QuantityValue(
+                value=values[index if len(values) > 1 else 0], unit=value.unit
+            )
+        elif _is_plain_array(value):
+            update[name] = float(value[index if len(value) > 1 else 0])
+        elif isinstance(value, BaseModel):
+            update[name] = _element(value, index)
+        elif isinstance(value, list) and any(isinstance(item, BaseModel) for item in value):
+            update[name] = [
+                _element(item, index) if isinstance(item, BaseModel) else item for item in value
+            ]
+    return model.model_copy(update=update)
+
+
+def read_vacuum_chamber_sweep(
+    body: VacuumChamberSimulationCreate, max_cases: int
+) -> tuple[list[VacuumChamberCase], tuple[str, ...], tuple[str, ...]]:
+    """The request's cases: one, or one per element of its array inputs (a sweep).
+
+    Every array must have the same length, or one value (used for every case); at most
+    ``max_cases`` cases (413 above, before any case is read).
+
+    Returns
+    -------
+    cases, assumptions the HTTP layer adds, swept paths (empty: no sweep)
+
+    Raises
+    ------
+    InvalidInputError
+        Arrays of different lengths, or any input :func:`read_vacuum_chamber` refuses (an
+        out-of-range value names its case by ``index``).
+    """
+    arrays = _arrays(body)
+    if not arrays:
+        single, single_notes = read_vacuum_chamber(body)
+        return [single], single_notes, ()
+    count = max(arrays.values())
+    check_batch_size(count, max_cases, noun="cases", setting="TRIPOINT_MAX_SIMULATION_SWEEP_CASES")
+    for path, length in arrays.items():
+        if length not in (1, count):
+            raise InvalidInputError(
+                path,
+                f"a sweep's arrays must all have {count} values (or one); this one has {length}",
+                length,
+            )
+    cases: list[VacuumChamberCase] = []
+    notes: tuple[str, ...] = ()
+    for index in range(count):
+        try:
+            case, notes = read_vacuum_chamber(_element(body, index))
+        except OutOfRangeError as error:
+            raise replace(error, index=index) from None
+        cases.append(case)
+    return cases, notes, tuple(arrays)

@@ -16,23 +16,25 @@ from service.api.http.limits import TimeLimitedRoute
 from service.api.http.problems import problem_responses
 from service.api.http.recording import record_calculation
 from service.api.http.responses import FastJSONResponse
-from service.api.simulations.answers import simulation_answer
+from service.api.simulations.answers import simulation_answer, sweep_answer
 from service.api.simulations.plots import PLOT_MEDIA_TYPES, plot_format_for, plot_simulation
-from service.api.simulations.requests import read_vacuum_chamber
+from service.api.simulations.requests import read_vacuum_chamber_sweep
 from service.api.simulations.schemas import (
     VacuumChamberSimulationCreate,
     VacuumChamberSimulationPublic,
+    VacuumChamberSweepPublic,
 )
-from service.core.simulation import simulate_vacuum_chamber
+from service.core.simulation.sweeps import simulate_vacuum_chambers
+from service.settings import Settings
 
 router = APIRouter(prefix="/v1/simulations", tags=["simulations"], route_class=TimeLimitedRoute)
 
 _RESPONSES: dict[int | str, dict[str, Any]] = {
     200: {
         "description": "The simulation: JSON by default; `text/csv` (the series, one row per "
-        "time) or a plot of pressure and temperature against time with the events marked "
-        "(`image/svg+xml`, `image/png`) by `Accept`. A plot's `X-Calculation-ID` header names "
-        "its stored record.",
+        "time; for a sweep, one row per case) or a plot of pressure and temperature against "
+        "time with the events marked (`image/svg+xml`, `image/png`) by `Accept`. A plot's "
+        "`X-Calculation-ID` header names its stored record.",
         "content": {
             "image/svg+xml": {"schema": {"type": "string"}},
             "image/png": {"schema": {"type": "string", "format": "binary"}},
@@ -45,7 +47,7 @@ _RESPONSES: dict[int | str, dict[str, Any]] = {
 @router.post(
     "/vacuum-chamber",
     operation_id="post_vacuum_chamber_simulation",
-    response_model=VacuumChamberSimulationPublic,
+    response_model=VacuumChamberSimulationPublic | VacuumChamberSweepPublic,
     responses=_RESPONSES,
     summary="Vacuum chamber with pump, condenser and product, simulated over time",
 )
@@ -54,9 +56,17 @@ def post_vacuum_chamber_simulation(request: Request, body: VacuumChamberSimulati
     chamber: chamber air and vapor balances with pump and condenser, product energy balance
     on IAPWS properties, integrated over time with event detection. Answers events with
     their states, a time series, a summary, the mass and energy balance and the schedule
-    check."""
-    case, notes = read_vacuum_chamber(body)
-    result = simulate_vacuum_chamber(case)
+    check. Any scalar input may be an array (`{"values": [...], "unit"}`): a sweep, computed
+    in parallel, answered as the summary and checks of every case as `values` in order
+    (JSON or CSV; a sweep has no plot)."""
+    settings: Settings = request.app.state.settings
+    cases, notes, swept = read_vacuum_chamber_sweep(body, settings.max_simulation_sweep_cases)
+    results = simulate_vacuum_chambers(cases, settings.simulation_workers)
+    if swept:
+        sweep = sweep_answer(results, cases, swept, body.output_units, notes)
+        record_calculation(request, "simulations.vacuum_chamber_sweep", body, sweep)
+        return FastJSONResponse(sweep)
+    result = results[0]
     answer = simulation_answer(result, body.output_units, notes)
     record_calculation(request, "simulations.vacuum_chamber", body, answer)
     kind = plot_format_for(request.headers.get("accept"))

@@ -8,7 +8,7 @@ Every numeric input is a single value: a number in its default unit, a string wi
 
 from __future__ import annotations
 
-from typing import Literal
+from typing import Any, Literal
 
 from pydantic import Field
 
@@ -20,6 +20,7 @@ __all__ = [
     "ChamberInput",
     "ChamberStatesOut",
     "CondenserInput",
+    "EquipmentChecksOut",
     "HeatGainRateInput",
     "MassEnergyBalanceOut",
     "ProductInput",
@@ -31,6 +32,7 @@ __all__ = [
     "SpeedPointInput",
     "VacuumChamberSimulationCreate",
     "VacuumChamberSimulationPublic",
+    "VacuumChamberSweepPublic",
 ]
 
 _ONE_VALUE = (
@@ -114,6 +116,14 @@ class PumpInput(ApiModel):
         max_length=100,
         description="Speed against pressure (pressures increasing), interpolated linearly in "
         "ln p and held constant beyond its ends; replaces `nominal_speed` where given.",
+    )
+    water_vapor_tolerance: QuantityInput | None = Field(
+        None,
+        description=_described(
+            'Water-vapor tolerance the maker states for the pump. Default unit kg/s (`"2 kg/h"`); '
+            "> 0. Checked against the vapor the pump takes (`checks`), not modelled. Omit for "
+            "no check."
+        ),
     )
 
 
@@ -360,6 +370,47 @@ class MassEnergyBalanceOut(ApiModel):
     relative_energy_residual: QuantityOutput
 
 
+class EquipmentChecksOut(ApiModel):
+    """What the pump and the trap must handle, read on the series points."""
+
+    peak_pump_inlet_volume_flow: QuantityOutput = Field(
+        description="Largest gas volume flow (air and vapor) into the pump, S_eff(p), at the "
+        "chamber pressure and temperature (SI: m3/s; engineering: m3/h)."
+    )
+    peak_pump_inlet_pressure: QuantityOutput = Field(description="Chamber pressure then.")
+    end_pump_inlet_volume_flow: QuantityOutput = Field(
+        description="The same at the end of the run."
+    )
+    end_pump_inlet_pressure: QuantityOutput
+    pump_vapor_mass: QuantityOutput = Field(
+        description="Water vapor the pump itself takes, not captured by the trap (SI: kg)."
+    )
+    peak_pump_vapor_mass_flow: QuantityOutput = Field(description="(SI: kg/s).")
+    pump_water_vapor_tolerance: QuantityOutput | None = Field(
+        description="As stated in `pump.water_vapor_tolerance`; null without."
+    )
+    time_above_water_vapor_tolerance: QuantityOutput | None = Field(
+        description="Time the vapor mass flow into the pump exceeds that tolerance (SI: s)."
+    )
+    water_vapor_tolerance_exceeded: bool | None
+    peak_trap_load: QuantityOutput | None = Field(
+        description="Largest refrigeration load of the trap (SI: W); null without a trap."
+    )
+    peak_trap_load_time: QuantityOutput | None
+    trap_refrigeration_capacity: QuantityOutput | None = Field(description="As stated.")
+    trap_ice: QuantityOutput | None = Field(description="Ice collected on the trap (SI: kg).")
+    trap_ice_capacity: QuantityOutput | None = Field(description="As stated.")
+    trap_ice_capacity_used: QuantityOutput | None = Field(
+        description="trap_ice / trap_ice_capacity (unit 1)."
+    )
+    trap_ice_capacity_exceeded: bool | None
+    trap_limited_time: QuantityOutput | None = Field(
+        description="Time the trap's capture ran at its refrigeration capacity, so that the "
+        "trap, not the pump, limited the vapor removal (SI: s); 0 without a stated capacity, "
+        "null without a trap."
+    )
+
+
 class VacuumChamberSimulationPublic(Envelope):
     """Events, time series, summary and balances of one simulation."""
 
@@ -368,4 +419,25 @@ class VacuumChamberSimulationPublic(Envelope):
     series: ChamberStatesOut
     schedule: list[ScheduleCheckOut]
     balance: MassEnergyBalanceOut
+    checks: EquipmentChecksOut = Field(description="Equipment checks of the run.")
     model_references: list[str] = Field(description="Published basis of the model.")
+
+
+class VacuumChamberSweepPublic(Envelope):
+    """A sweep: the summary and checks of every case as `values`, in the order of the
+    request's arrays."""
+
+    cases: int = Field(description="Number of cases.")
+    swept: list[str] = Field(description="Dotted paths of the inputs given as arrays.")
+    inputs: dict[str, QuantityOutput] = Field(
+        description="The swept case fields, per case (those with a scalar path)."
+    )
+    summary: dict[str, QuantityOutput | list[Any]] = Field(
+        description="Each summary field as `{values, unit}` (null where the event did not "
+        "happen), or a list for `end_reason`, `schedule_met`, `solver_steps`, "
+        "`right_hand_side_evaluations`."
+    )
+    checks: dict[str, QuantityOutput | list[Any]] = Field(
+        description="Each equipment check as `{values, unit}`, or a list of true/false/null."
+    )
+    model_references: list[str]

@@ -193,6 +193,11 @@ class EvaporativeCoolingResult:
         kg/s, evaporated_mass / cooling_time.
     mean_vapor_volume_flow : ndarray or None
         m3/s, vapor_volume / cooling_time.
+    final_vapor_volume_flow : ndarray or None
+        m3/s, mean_vapor_mass_flow / rho_vapor(final): the mean mass flow as saturated
+        vapor at the final pressure and temperature, the volume flow the vapor takes at
+        the end of the cooling (the mean understates it: it averages over the pressures
+        from the flash point down).
     energy_residual : ndarray
         J, sensible_heat_released + heat_gained - latent heat carried, the latter computed
         with the evaporation rate from differentiating the solution (integration error).
@@ -227,6 +232,7 @@ class EvaporativeCoolingResult:
     assumptions: tuple[str, ...]
     warnings: tuple[Advisory, ...]
     property_sources: tuple[PropertySource, ...]
+    final_vapor_volume_flow: FloatArray | None = None
 
 
 @dataclass
@@ -244,6 +250,7 @@ class _Numbers:
     condenser_load: float | None
     mass_flow: float | None
     volume_flow: float | None
+    final_volume_flow: float | None
     freezing_point: float
     residual: float
     composition_rescaled: bool
@@ -516,6 +523,9 @@ def _solve_scalar(case: EvaporativeCoolingCase, index: int | None) -> _Numbers:
         condenser_load=condenser_load,
         mass_flow=None if time is None else evaporated / time,
         volume_flow=None if time is None else vapor_volume / time,
+        final_volume_flow=None
+        if time is None
+        else evaporated / time / float(states.vapor.density[nodes][0]),
         freezing_point=freezing,
         residual=residual,
         composition_rescaled=rescaled,
@@ -696,6 +706,11 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
         ),
         mean_vapor_volume_flow=(
             stack(lambda n: float(n.volume_flow or 0.0)) if case.cooling_time is not None else None
+        ),
+        final_vapor_volume_flow=(
+            stack(lambda n: float(n.final_volume_flow or 0.0))
+            if case.cooling_time is not None
+            else None
         ),
         energy_residual=residual,
         relative_energy_residual=residual / heat_removed,

@@ -17,6 +17,7 @@ from service.core.simulation.inputs import (
 )
 from service.core.simulation.results import (
     ChamberStates,
+    EquipmentChecks,
     MassEnergyBalance,
     ScheduleCheck,
     SimulationEvent,
@@ -31,6 +32,7 @@ __all__ = [
     "Chamber",
     "ChamberStates",
     "Condenser",
+    "EquipmentChecks",
     "HeatGainRate",
     "MassEnergyBalance",
     "Product",

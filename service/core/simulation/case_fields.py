@@ -55,6 +55,7 @@ CASE_FIELDS: Final[dict[str, CaseField]] = _fields(
     ("pump.nominal_speed", "m3/s", "pump volume flow at the inlet (no speed curve)"),
     ("pump.ultimate_pressure", "Pa", "pressure where the pump's speed falls to zero"),
     ("pump.speed_scale", "1", "factor on the pump's whole speed, curve included"),
+    ("pump.water_vapor_tolerance", "kg/s", "vapor mass flow the pump tolerates (checked only)"),
     ("condenser.surface_temperature", "K", "condenser (cold trap) surface temperature"),
     ("condenser.vapor_conductance", "m3/s", "vapor volume flow the condenser takes in"),
     ("condenser.ice_capacity", "kg", "ice the condenser holds"),

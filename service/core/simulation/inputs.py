@@ -92,12 +92,16 @@ class Pump:
     speed_curve_pressures, speed_curve_speeds : tuple of float
         Optional speed curve: pressures (Pa, > 0, strictly increasing) and speeds
         (m3/s, >= 0), interpolated linearly in ln p and held constant beyond its ends.
+    water_vapor_tolerance : float or None
+        kg/s, > 0: the largest vapor mass flow the maker states the pump takes (with gas
+        ballast) without condensing inside; checked, not modelled.
     """
 
     nominal_speed: float
     ultimate_pressure: float = 0.0
     speed_curve_pressures: tuple[float, ...] = ()
     speed_curve_speeds: tuple[float, ...] = ()
+    water_vapor_tolerance: float | None = None
 
 
 @dataclass(frozen=True)
@@ -283,6 +287,16 @@ def _validate_pump(pump: Pump, initial_pressure: float) -> None:
         "Pa",
         "the pump's ultimate pressure lies below the chamber's initial pressure",
     )
+    if pump.water_vapor_tolerance is not None:
+        require_scalar_within(
+            pump.water_vapor_tolerance,
+            "pump.water_vapor_tolerance",
+            0.0,
+            None,
+            "kg/s",
+            "must be > 0",
+            exclusive_minimum=True,
+        )
     pressures, speeds = pump.speed_curve_pressures, pump.speed_curve_speeds
     if len(pressures) != len(speeds):
         raise InvalidInputError(

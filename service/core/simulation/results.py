@@ -11,6 +11,7 @@ from service.core.properties.sources import PropertySource
 
 __all__ = [
     "ChamberStates",
+    "EquipmentChecks",
     "MassEnergyBalance",
     "ScheduleCheck",
     "SimulationEvent",
@@ -169,6 +170,65 @@ class SimulationSummary:
 
 
 @dataclass(frozen=True)
+class EquipmentChecks:
+    """What the pump and the trap must handle, from the simulated run (SI).
+
+    Rates are read on the series points (they include every event), so peaks and times
+    are resolved to the series spacing.
+
+    Attributes
+    ----------
+    peak_pump_inlet_volume_flow : float
+        m3/s, largest effective pumping speed S_eff(p): the gas volume flow (air and vapor)
+        entering the pump at the chamber pressure and temperature.
+    peak_pump_inlet_pressure : float
+        Pa, chamber pressure at that point.
+    end_pump_inlet_volume_flow, end_pump_inlet_pressure : float
+        m3/s and Pa at the end of the run.
+    pump_vapor_mass : float
+        kg of water vapor the pump itself takes (not captured by the trap).
+    peak_pump_vapor_mass_flow : float
+        kg/s, largest vapor mass flow into the pump.
+    pump_water_vapor_tolerance : float or None
+        kg/s, as stated for the pump.
+    time_above_water_vapor_tolerance : float or None
+        s during which the vapor mass flow into the pump exceeds that tolerance.
+    peak_trap_load : float or None
+        W, largest heat the trap removes (None without a trap).
+    peak_trap_load_time : float or None
+        s.
+    trap_refrigeration_capacity : float or None
+        W, as stated.
+    trap_ice : float or None
+        kg of ice on the trap at the end.
+    trap_ice_capacity : float or None
+        kg, as stated.
+    trap_ice_capacity_used : float or None
+        trap_ice / trap_ice_capacity (above 1: exceeded).
+    trap_limited_time : float or None
+        s during which the trap's capture ran at its refrigeration capacity, so that the
+        trap rather than the pump limited the vapor removal (0 without a stated capacity;
+        None without a trap).
+    """
+
+    peak_pump_inlet_volume_flow: float
+    peak_pump_inlet_pressure: float
+    end_pump_inlet_volume_flow: float
+    end_pump_inlet_pressure: float
+    pump_vapor_mass: float
+    peak_pump_vapor_mass_flow: float
+    pump_water_vapor_tolerance: float | None
+    time_above_water_vapor_tolerance: float | None
+    peak_trap_load: float | None
+    peak_trap_load_time: float | None
+    trap_refrigeration_capacity: float | None
+    trap_ice: float | None
+    trap_ice_capacity: float | None
+    trap_ice_capacity_used: float | None
+    trap_limited_time: float | None
+
+
+@dataclass(frozen=True)
 class VacuumChamberResult:
     """Output of :func:`service.core.simulation.simulate_vacuum_chamber`."""
 
@@ -182,3 +242,4 @@ class VacuumChamberResult:
     references: tuple[str, ...]
     property_sources: tuple[PropertySource, ...]
     property_uncertainties: tuple[ReportedUncertainty, ...] = ()
+    checks: EquipmentChecks | None = None

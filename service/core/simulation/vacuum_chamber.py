@@ -17,7 +17,7 @@ import numpy as np
 from scipy.integrate import solve_ivp
 
 from service.core.deadline import check_deadline
-from service.core.errors import NotConvergedError, UnsupportedStateError
+from service.core.errors import NotConvergedError, TripointError, UnsupportedStateError
 from service.core.properties.advisories import Advisory
 from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 from service.core.properties.helmholtz import fluid_properties_at
@@ -38,6 +38,7 @@ from service.core.simulation.chamber_model import (
     ChamberModel,
     Regime,
 )
+from service.core.simulation.checks import equipment_checks
 from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.evaporation import KineticEvaporation
 from service.core.simulation.inputs import VacuumChamberCase, validate_case
@@ -231,16 +232,27 @@ def _integrate(
     for _ in range(_MAX_SEGMENTS):
         events = _event_functions(model, case, load, run)
         names = list(events)
-        solution = solve_ivp(
-            derivatives,
-            (t0, case.end_time),
-            y0,
-            method="LSODA",
-            rtol=_RELATIVE_TOLERANCE,
-            atol=_ABSOLUTE_SCALE * scale,
-            events=list(events.values()),
-            dense_output=True,
-        )
+        try:
+            solution = solve_ivp(
+                derivatives,
+                (t0, case.end_time),
+                y0,
+                method="LSODA",
+                rtol=_RELATIVE_TOLERANCE,
+                atol=_ABSOLUTE_SCALE * scale,
+                events=list(events.values()),
+                dense_output=True,
+            )
+        except ValueError as error:
+            if isinstance(error, TripointError):
+                raise
+            # scipy's event location (brentq) refuses an event function whose sign at the
+            # ends of a step differs between its two evaluations: the product hovers at a
+            # regime boundary (e.g. boiling starting and stopping at the pump's ultimate
+            # pressure with an air leak). Report it as a failed solve, not a crash.
+            raise NotConvergedError(
+                f"vacuum-chamber event location near t = {t0:.6g} s ({error})", run.steps, 0.0
+            ) from None
         if solution.status < 0:
             raise NotConvergedError(
                 f"vacuum-chamber ODE integration ({solution.message})", len(solution.t), 0.0
@@ -745,4 +757,5 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         references=REFERENCES,
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
         property_uncertainties=tuple(path_uncertainties(series.product_temperature)),
+        checks=equipment_checks(case, series, float(final[PUMPED])),
     )

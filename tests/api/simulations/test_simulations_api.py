@@ -159,7 +159,13 @@ def test_schema_errors_name_the_field(
     [
         ({"chamber": {**BODY["chamber"], "free_volume": "-1 m3"}}, "chamber.free_volume"),
         ({"pump": {"nominal_speed": "10 kg"}}, "pump.nominal_speed"),
-        ({"product": {"mass": [1.0, 2.0], "initial_temperature": "20 degC"}}, "product.mass"),
+        (
+            {
+                "product": {"mass": [1.0, 2.0], "initial_temperature": "20 degC"},
+                "end_time": {"values": [600.0, 900.0, 1200.0], "unit": "s"},
+            },
+            "product.mass",
+        ),
         (
             {"product": {"mass": "1 kg", "initial_temperature": "-5 degC"}},
             "product.initial_temperature",

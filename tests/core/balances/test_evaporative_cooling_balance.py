@@ -140,3 +140,15 @@ def test_input_and_property_uncertainty() -> None:
     expected = base / 23.0 * 0.5
     value = float(propagated.standard_uncertainty["evaporated_fraction_of_product"])
     assert value == pytest.approx(expected, rel=0.05)
+
+
+def test_final_vapor_volume_flow_is_mean_mass_flow_at_final_vapor_density() -> None:
+    # source: iapws 1.5.5 IAPWS95 class, saturated vapor density at the final 2 degC
+    result = evaporative_cooling(_lettuce(cooling_time=1200.0, product_mass=500.0))
+    assert result.final_vapor_volume_flow is not None and result.mean_vapor_volume_flow is not None
+    density = IAPWS95(T=275.15, x=1.0).rho
+    expected = float(result.evaporated_mass) / 1200.0 / density
+    assert float(result.final_vapor_volume_flow) == pytest.approx(expected, rel=1e-7)
+    # the mean averages over higher pressures, where the vapor is denser
+    assert float(result.final_vapor_volume_flow) > float(result.mean_vapor_volume_flow)
+    assert evaporative_cooling(_lettuce()).final_vapor_volume_flow is None

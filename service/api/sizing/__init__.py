@@ -1,0 +1,1 @@
+"""Sizing: the value of one case field that meets a cooling target (/v1/sizing)."""
