@@ -13,7 +13,7 @@ See :mod:`service.core.balances.stages` for the stage equations.
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import cache, lru_cache
 from typing import Final, Literal
 
@@ -52,7 +52,11 @@ from service.core.balances.solutes import (
     liquid_water_mass_at_activity,
     water_activity,
 )
-from service.core.balances.solution_freezing import ice_solution_equilibrium_temperature
+from service.core.balances.solution_freezing import (
+    LOWEST_FREEZING_TEMPERATURE,
+    ice_solution_equilibrium_temperature,
+    model_log_water_activity,
+)
 from service.core.balances.stages import (
     DEGREE,
     ZERO_LENGTH,
@@ -76,6 +80,7 @@ from service.core.properties.sources import (
     MELTING_AND_SUBLIMATION,
     PropertySource,
 )
+from service.core.solutions.aqueous import SolutionModel
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",
@@ -89,7 +94,7 @@ Method = Literal["integrated", "mean-vapor-enthalpy"]
 FLASH_FREEZE_LIMITS: Final = {
     "initial_temperature_max": 373.15,
     "final_ice_temperature_min": 173.15,
-    "liquid_temperature_min": 243.15,
+    "liquid_temperature_min": LOWEST_FREEZING_TEMPERATURE,
     "trap_temperature_min": 173.15,
     "solute_mass_fraction_max": 0.5,
     "trajectory_points_min": 50,
@@ -132,7 +137,8 @@ class FlashFreezeCase:
     final_ice_temperature : array_like or None
         K. Pure water: after all is frozen, the ice cools by sublimation down to it
         (173.15 K to 273.16 K). Solution: end temperature of the progressive freezing
-        (required; from 243.15 K to below the freezing onset).
+        (required; from 235 K, or the end of a named solute's model range, to below the
+        freezing onset).
     method : {"integrated", "mean-vapor-enthalpy"}
         Which answer is headline; both are always computed (see ``comparison``).
     companions : tuple of Companion
@@ -143,7 +149,7 @@ class FlashFreezeCase:
         Dissolved solute; the solution freezes progressively.
     nucleation_temperature : array_like or None
         K. Supercooling: the liquid cools to this temperature (below its freezing
-        onset, >= 243.15 K) before ice nucleates.
+        onset, >= 235 K) before ice nucleates.
     trap_temperature : array_like or None
         K, condenser / cold-trap temperature (173.15 K to 273.16 K) for its load.
     trajectory_points : int
@@ -227,15 +233,28 @@ class FlashFreezeResult:
 
 @dataclass(frozen=True)
 class _SoluteLoad:
+    """The load's solute: ideal (Raoult) or a non-ideal model evaluated at ``model_temperature``
+    (the initial freezing onset; the models' temperature dependence is weak)."""
+
     mass: float
     molar_mass: float
     van_t_hoff_factor: float
+    model: SolutionModel | None = None
+    model_temperature: float = TRIPLE_POINT_TEMPERATURE
 
     def log_activity(self, water_mass: FloatArray | float) -> FloatArray:
+        if self.model is not None:
+            fraction = self.mass / (self.mass + np.asarray(water_mass, dtype=np.float64))
+            return self.model.log_water_activity(fraction, self.model_temperature)
         activity = water_activity(water_mass, self.mass, self.molar_mass, self.van_t_hoff_factor)
         return np.asarray(np.log(activity), dtype=np.float64)
 
     def liquid_water(self, log_activity: FloatArray) -> FloatArray:
+        if self.model is not None:
+            fraction = self.model.mass_fraction_at_log_activity(
+                log_activity, self.model_temperature
+            )
+            return np.asarray(self.mass * (1.0 - fraction) / fraction, dtype=np.float64)
         return liquid_water_mass_at_activity(
             log_activity, self.mass, self.molar_mass, self.van_t_hoff_factor
         )
@@ -294,6 +313,31 @@ def _freezing_temperature(log_activity: float, index: int | None) -> float:
         ) from error
 
 
+def _solute_load(
+    solute: Solute, mass: float, molar: float, factor: float, fraction: float, index: int | None
+) -> _SoluteLoad:
+    """The load's solute; a non-ideal model is evaluated at the solution's freezing onset."""
+    model = solute.activity_model
+    if model is None:
+        return _SoluteLoad(mass, molar, factor)
+    try:
+        log_activity = float(model_log_water_activity(model, fraction))
+    except OutOfRangeError as error:
+        raise replace(error, index=index) from error
+    onset = _freezing_temperature(log_activity, index)
+    return _SoluteLoad(mass, molar, factor, model, onset)
+
+
+def _lowest_final_temperature(solute: _SoluteLoad | None) -> float:
+    """K: the unfrozen solution must stay within its model's range (w <= maximum)."""
+    lowest = FLASH_FREEZE_LIMITS["liquid_temperature_min"]
+    if solute is None or solute.model is None:
+        return lowest
+    top = solute.model.maximum_mass_fraction
+    log_activity = solute.model.log_water_activity(top, solute.model_temperature)
+    return max(lowest, float(ice_solution_equilibrium_temperature(log_activity)))
+
+
 def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
     limits = FLASH_FREEZE_LIMITS
     initial = finite_scalar(case.initial_temperature, "initial_temperature")
@@ -335,7 +379,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         )
         if fraction > 0.0:
             solute_mass = fraction / (1.0 - fraction) * water
-            solute = _SoluteLoad(solute_mass, molar, factor)
+            solute = _solute_load(case.solute, solute_mass, molar, factor, fraction, index)
             capacity += solute_mass * specific
             onset = _freezing_temperature(float(solute.log_activity(water)), index)
     require_scalar_within(
@@ -359,11 +403,13 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         require_scalar_within(
             final,
             "final_ice_temperature",
-            limits["liquid_temperature_min"],
+            _lowest_final_temperature(solute),
             onset,
             "K",
             "a freezing solution must end below its freezing onset, within the "
-            "supercooled-liquid range of IAPWS-95 used for its water",
+            "supercooled-liquid range of IAPWS-95 used for its water and, for a named "
+            "solute, where its unfrozen solution stays within the activity model's range "
+            "(sodium chloride: the eutectic)",
             index,
         )
     elif final is not None:
@@ -982,8 +1028,10 @@ def _assumptions(case: FlashFreezeCase) -> tuple[str, ...]:
             "Companion masses have constant specific heats and stay at the load temperature."
         )
     if case.solute is not None:
+        model = case.solute.activity_model
+        reference = SOLUTE_MODEL_REFERENCE if model is None else model.source
         items.append(
-            f"Solute: {SOLUTE_MODEL_REFERENCE}. No heat of mixing; the solute stays in the "
+            f"Solute: {reference}. No heat of mixing; the solute stays in the "
             "unfrozen solution (no eutectic crystallization, none in the ice) and adds only "
             "m_s c_s dT. Vapor pressure over the solution from equal chemical potentials."
         )

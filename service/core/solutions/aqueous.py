@@ -62,6 +62,8 @@ memory)."""
 _A_PHI_25C: Final = 0.3915
 """A_phi at 25 degC, kg**0.5/mol**0.5 (Pitzer 1991, from memory)."""
 
+_BISECTIONS: Final = 60
+
 _PITZER_B: Final = 1.2
 _PITZER_ALPHA: Final = 2.0
 
@@ -156,6 +158,25 @@ class SolutionModel:
             return np.asarray(log_activity + 0.0 * t, dtype=np.float64)
         particles = self.van_t_hoff_factor * molality
         return np.asarray(-np.log1p(particles / water_moles) + 0.0 * t, dtype=np.float64)
+
+    def mass_fraction_at_log_activity(
+        self, log_activity: ArrayLike, temperature: ArrayLike
+    ) -> FloatArray:
+        """The mass fraction w whose ln a_w(w, T) is ``log_activity`` (< 0), dimensionless.
+
+        Bisection over 0 <= w <= 0.999 (ln a_w falls as w rises in every model here), to
+        the resolution of a float (60 halvings).
+        """
+        target = np.asarray(log_activity, dtype=np.float64)
+        t = np.broadcast_to(np.asarray(temperature, dtype=np.float64), target.shape)
+        low = np.zeros(target.shape)
+        high = np.full(target.shape, 0.999)
+        for _ in range(_BISECTIONS):
+            middle = 0.5 * (low + high)
+            above = self.log_water_activity(middle, t) > target
+            low = np.where(above, middle, low)
+            high = np.where(above, high, middle)
+        return np.asarray(0.5 * (low + high), dtype=np.float64)
 
 
 def _pitzer_log_activity(

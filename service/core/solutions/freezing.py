@@ -61,7 +61,6 @@ branch, near the homogeneous-nucleation limit of water)."""
 _NORMAL_PRESSURE: Final = 101325.0
 _ITERATIONS: Final = 40
 _TOLERANCE: Final = 1e-9
-_BISECTIONS: Final = 60
 
 
 def ice_log_water_activity(temperature: FloatArray, pressure: FloatArray) -> FloatArray:
@@ -189,15 +188,8 @@ def solute_freezing_point(
 
 
 def _unfrozen(model: SolutionModel, temperature: FloatArray, target: FloatArray) -> FloatArray:
-    """Bisection in w on ln a_w(w, T) = target over [0, 0.999] (ln a_w falls with w)."""
-    low = np.zeros_like(temperature)
-    high = np.full_like(temperature, 0.999)
-    for _ in range(_BISECTIONS):
-        middle = 0.5 * (low + high)
-        above = model.log_water_activity(middle, temperature) > target
-        low = np.where(above, middle, low)
-        high = np.where(above, high, middle)
-    return np.asarray(0.5 * (low + high), dtype=np.float64)
+    """The unfrozen solution's mass fraction at ln a_w = target."""
+    return model.mass_fraction_at_log_activity(target, temperature)
 
 
 def lowest_temperature(model: SolutionModel, pressure: ArrayLike = _NORMAL_PRESSURE) -> FloatArray:
