@@ -7,12 +7,36 @@ from typing import Any
 import numpy as np
 
 from service.api.http.envelope import envelope
-from service.api.http.quantities import quantity_output
+from service.api.http.quantities import quantity_output, scalar_output
 from service.api.http.units import Dimension, UnitSet
 from service.core.properties.lookups import Lookup
 from service.core.solutions.lookups import IceFractionStates
 
 __all__ = ["ice_fraction_answer"]
+
+
+def _limit(states: IceFractionStates, unit_set: UnitSet, output: Any) -> dict[str, Any] | None:
+    limit = states.freeze_concentration
+    if limit is None:
+        return None
+    data = limit.data
+    return {
+        "glass_transition_of_unfrozen_phase": output(
+            limit.glass_transition_of_unfrozen_phase, Dimension.TEMPERATURE
+        ),
+        "maximally_freeze_concentrated": {
+            "glass_transition": scalar_output(
+                data.glass_transition_of_freeze_concentrate, Dimension.TEMPERATURE, unit_set
+            ),
+            "ice_melting_onset": scalar_output(
+                data.ice_melting_onset, Dimension.TEMPERATURE, unit_set
+            ),
+            "concentration": scalar_output(
+                data.freeze_concentrate_mass_fraction, Dimension.DIMENSIONLESS, unit_set
+            ),
+        },
+        "source": limit.source,
+    }
 
 
 def ice_fraction_answer(
@@ -37,6 +61,7 @@ def ice_fraction_answer(
         "specific_enthalpy": output(states.specific_enthalpy, Dimension.SPECIFIC_ENERGY),
         "vapor_pressure": output(states.vapor_pressure, Dimension.PRESSURE),
         "water_activity": output(states.water_activity, Dimension.DIMENSIONLESS),
+        "freeze_concentration_limit": _limit(states, unit_set, output),
         **envelope(
             unit_set=unit_set,
             assumptions=result.assumptions,

@@ -85,6 +85,26 @@ class IceFractionQuery(ApiModel):
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
 
 
+class FreezeConcentratedOut(ApiModel):
+    """The maximally freeze-concentrated point of the solute."""
+
+    glass_transition: QuantityOutput = Field(description="T_g' (SI: K).")
+    ice_melting_onset: QuantityOutput = Field(
+        description="T_m', onset of ice melting in the freeze-concentrate (SI: K)."
+    )
+    concentration: QuantityOutput = Field(description="C_g', solute mass fraction.")
+
+
+class FreezeConcentrationOut(ApiModel):
+    """Freeze-concentration limit of a sugar, beside its ice fraction."""
+
+    glass_transition_of_unfrozen_phase: QuantityOutput = Field(
+        description="Gordon-Taylor glass transition of the unfrozen solution (SI: K)."
+    )
+    maximally_freeze_concentrated: FreezeConcentratedOut
+    source: str
+
+
 class IceFractionPublic(Envelope):
     """Ice fraction, unfrozen phase, enthalpy and vapor pressure of the mixture."""
 
@@ -108,3 +128,8 @@ class IceFractionPublic(Envelope):
         "else of the unfrozen solution (SI: Pa)."
     )
     water_activity: QuantityOutput = Field(description="Water activity of the unfrozen phase.")
+    freeze_concentration_limit: FreezeConcentrationOut | None = Field(
+        None,
+        description="For a sugar with published constants (sucrose): the glass transition of "
+        "the unfrozen phase and the maximally freeze-concentrated point; null otherwise.",
+    )

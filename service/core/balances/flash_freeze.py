@@ -81,6 +81,7 @@ from service.core.properties.sources import (
     PropertySource,
 )
 from service.core.solutions.aqueous import SolutionModel
+from service.core.solutions.glass import FREEZE_CONCENTRATION_DATA, GLASS_SOURCE
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",
@@ -269,6 +270,7 @@ class _Load:
     final_ice_temperature: float | None
     heat_capacity: float
     solute: _SoluteLoad | None
+    solute_name: str | None
     freezing_onset: float
     nucleation_temperature: float | None
     trap_temperature: float | None
@@ -451,6 +453,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         final_ice_temperature=final,
         heat_capacity=capacity,
         solute=solute,
+        solute_name=None if case.solute is None else case.solute.name,
         freezing_onset=onset,
         nucleation_temperature=nucleation,
         trap_temperature=trap,
@@ -1098,11 +1101,29 @@ def _warnings(
         [
             o.final_log_activity is not None
             and np.exp(o.final_log_activity) < _LOW_ACTIVITY_WARNING
-            for o in outcomes
+            and load.solute is not None
+            and load.solute.model is None
+            for load, o in zip(loads, outcomes, strict=True)
         ],
         "solution-concentrated",
         f"The unfrozen solution ends with a water activity below {_LOW_ACTIVITY_WARNING}; the "
         "ideal-solution model is outside its reliable range.",
+    )
+    sucrose = FREEZE_CONCENTRATION_DATA["sucrose"]
+    add(
+        [
+            load.solute is not None
+            and load.solute_name == "sucrose"
+            and load.final_ice_temperature is not None
+            and load.final_ice_temperature > sucrose.ice_melting_onset
+            for load in loads
+        ],
+        "above-freeze-concentration-limit",
+        "The freezing ends above the sucrose freeze-concentrate's ice-melting onset "
+        f"T_m' = {sucrose.ice_melting_onset - 273.15:.0f} degC (glass transition T_g' = "
+        f"{sucrose.glass_transition_of_freeze_concentrate - 273.15:.0f} degC; {GLASS_SOURCE}): "
+        "the unfrozen phase is a viscous liquid, not a glass, and a freeze-dried product "
+        "dried from here can collapse. Follow the product's validated cycle.",
     )
     add(
         [load.nucleation_temperature is not None or load.solute is not None for load in loads],

@@ -22,11 +22,18 @@ from service.core.properties.phase_lines import sublimation_pressure
 from service.core.properties.sources import PropertySource
 from service.core.solutions.aqueous import ActivityModelName, SolutionModel, solution_model
 from service.core.solutions.freezing import solution_freezing
+from service.core.solutions.glass import (
+    FREEZE_CONCENTRATION_DATA,
+    GLASS_SOURCE,
+    FreezeConcentration,
+    gordon_taylor_glass_transition,
+)
 from service.core.solutions.seawater import SEAWATER_MODEL_REFERENCE, seawater_freezing
 from service.core.validation import finite_array
 
 __all__ = [
     "SEAWATER_SOURCE",
+    "FreezeConcentrationLimit",
     "IceFractionStates",
     "ice_fraction_lookup",
     "solution_source",
@@ -95,6 +102,25 @@ def solution_source(model: SolutionModel) -> PropertySource:
 
 
 @dataclass(frozen=True)
+class FreezeConcentrationLimit:
+    """The freeze-concentration limit reported beside the ice fraction of a sugar.
+
+    Attributes
+    ----------
+    glass_transition_of_unfrozen_phase : ndarray
+        K, Gordon-Taylor T_g of the unfrozen solution at each temperature.
+    data : FreezeConcentration
+        T_g', C_g' and T_m' of the solute.
+    source : str
+        Where the constants come from.
+    """
+
+    glass_transition_of_unfrozen_phase: FloatArray
+    data: FreezeConcentration
+    source: str
+
+
+@dataclass(frozen=True)
 class IceFractionStates:
     """What the ice-fraction lookup answers (SI arrays of the temperature's shape).
 
@@ -120,6 +146,8 @@ class IceFractionStates:
         ``"seawater"`` or the solute's name.
     model : str
         The activity model's description (its source and range).
+    freeze_concentration : FreezeConcentrationLimit or None
+        For a sugar with published constants.
     """
 
     temperature: FloatArray
@@ -133,6 +161,7 @@ class IceFractionStates:
     water_activity: FloatArray
     mixture: str
     model: str
+    freeze_concentration: FreezeConcentrationLimit | None = None
 
 
 def _vapor_pressure(
@@ -193,6 +222,7 @@ def ice_fraction_lookup(
         )
     advisories: list[Advisory] = []
     uncertainties: list[ReportedUncertainty]
+    limit: FreezeConcentrationLimit | None = None
     if absolute_salinity is not None:
         sea = seawater_freezing(absolute_salinity, t, pressure)
         ice, water = (
@@ -256,6 +286,26 @@ def ice_fraction_lookup(
                 basis="comparison",
             )
         ]
+        glass = FREEZE_CONCENTRATION_DATA.get(chosen.name)
+        if glass is not None:
+            limit = FreezeConcentrationLimit(
+                glass_transition_of_unfrozen_phase=gordon_taylor_glass_transition(
+                    glass, concentration
+                ),
+                data=glass,
+                source=GLASS_SOURCE,
+            )
+            advisories += advise_where(
+                np.asarray(onset * 0.0 + t > glass.ice_melting_onset),
+                "above-freeze-concentration-limit",
+                f"Above the {chosen.name} freeze-concentrate's ice-melting onset "
+                f"T_m' = {glass.ice_melting_onset - 273.15:.0f} degC (glass transition "
+                f"T_g' = {glass.glass_transition_of_freeze_concentrate - 273.15:.0f} degC at "
+                f"{glass.freeze_concentrate_mass_fraction:.0%}): the unfrozen phase is a "
+                "viscous liquid, not a glass. A freeze-drying freezing step that ends here "
+                "leaves the product liable to collapse; follow the product's validated cycle.",
+                batch=t.ndim > 0,
+            )
         advisories += advise_where(
             np.asarray(concentration > 0.9 * chosen.maximum_mass_fraction),
             "near-model-limit",
@@ -276,6 +326,7 @@ def ice_fraction_lookup(
         water_activity=np.asarray(np.exp(log_activity), dtype=np.float64),
         mixture=mixture,
         model=description,
+        freeze_concentration=limit,
     )
     return Lookup(
         states=states,

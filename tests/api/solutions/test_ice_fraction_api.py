@@ -173,3 +173,19 @@ def test_get_refuses_a_missing_mass_fraction(client: TestClient) -> None:
     response = client.get(URL, params={"temperature": "-2 degC", "solute": "sucrose"})
     assert response.status_code == 422
     assert "solute.mass_fraction" in response.text
+
+
+def test_sucrose_answer_carries_the_freeze_concentration_limit(client: TestClient) -> None:
+    response = _post(
+        client, {"temperature": "-5 degC", "solute": {"name": "sucrose", "mass_fraction": 0.25}}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    limit = answer["freeze_concentration_limit"]
+    assert limit["maximally_freeze_concentrated"]["concentration"]["value"] == 0.8
+    assert "Gordon-Taylor" in limit["source"]
+    assert "above-freeze-concentration-limit" in [w["code"] for w in answer["warnings"]]
+    salt = _post(
+        client, {"temperature": "-5 degC", "solute": {"name": "glycerol", "mass_fraction": 0.1}}
+    )
+    assert salt.json()["freeze_concentration_limit"] is None
