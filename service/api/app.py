@@ -37,6 +37,7 @@ from service.api.operations import router as operations
 from service.api.properties import router as properties
 from service.api.simulations import router as simulations
 from service.api.sizing import router as sizing
+from service.api.solutions import router as solutions
 from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
@@ -162,6 +163,7 @@ def create_app(
     install_offline_docs(app)
     app.include_router(operations.router)
     app.include_router(properties.router)
+    app.include_router(solutions.router)
     app.include_router(balances.router)
     app.include_router(simulations.router)
     app.include_router(drying.router)

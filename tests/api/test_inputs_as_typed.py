@@ -149,34 +149,34 @@ CASES = [
     _sat_p("5000 psi", 422, "5000 psi (34473786"),
     # Balances and simulation: documented bounds met in the caller's unit.
     Typed(
-        "flash-freeze sucrose to -30 degC",
+        "flash-freeze ideal sucrose to its -38.15 degC floor",
         _FLASH,
         200,
         body=_with(
             "flash-freeze-brine-slurry-tank",
-            solute={"name": "sucrose", "mass_fraction": "10 %"},
-            final_ice_temperature="-30 degC",
+            solute={"name": "sucrose", "mass_fraction": "10 %", "model": "ideal"},
+            final_ice_temperature="-38.15 degC",  # 235 K, the solution floor
         ),
     ),
     Typed(
-        "flash-freeze sucrose to -22 degF",
+        "flash-freeze ideal sucrose to its floor written as -36.67 degF",
         _FLASH,
         200,
         body=_with(
             "flash-freeze-brine-slurry-tank",
-            solute={"name": "sucrose", "mass_fraction": "10 %"},
-            final_ice_temperature="-22 degF",
+            solute={"name": "sucrose", "mass_fraction": "10 %", "model": "ideal"},
+            final_ice_temperature="-36.67 degF",
         ),
     ),
     Typed(
-        "flash-freeze sucrose nucleating just above a -30 degC end",
+        "flash-freeze ideal sucrose nucleating just above a -38.15 degC end",
         _FLASH,
         200,
         body=_with(
             "flash-freeze-brine-slurry-tank",
-            solute={"name": "sucrose", "mass_fraction": "10 %"},
-            nucleation_temperature="-29.9 degC",
-            final_ice_temperature="-30 degC",
+            solute={"name": "sucrose", "mass_fraction": "10 %", "model": "ideal"},
+            nucleation_temperature="-38 degC",
+            final_ice_temperature="-38.15 degC",
         ),
     ),
     Typed(

@@ -73,6 +73,7 @@ _SAT = "/v1/properties/saturation"
 _SUB = "/v1/properties/sublimation"
 _MELT = "/v1/properties/melting"
 _STATE = "/v1/properties/state"
+_ICE = "/v1/properties/ice-fraction"
 _FLASH = "/v1/balances/flash-freeze"
 _EVAP = "/v1/balances/evaporative-cooling"
 _CHAMBER = "/v1/simulations/vacuum-chamber"
@@ -184,6 +185,24 @@ CASES: list[Case] = [
     Case("sub-body-both", "POST", _SUB, 422, "pressure", body={"temperature": 250, "pressure": 50}),
     Case("melt-text", "GET", _MELT, 422, "pressure", query={"pressure": "lots"}),
     Case("melt-too-cold", "POST", _MELT, 422, "temperature", body={"temperature": "-40 degC"}),
+    # ice fraction of solutions and seawater
+    Case(
+        "ice-fraction-get-salinity",
+        "GET",
+        _ICE,
+        422,
+        "absolute_salinity",
+        query={"temperature": "-2 degC", "absolute_salinity": "salty"},
+    ),
+    Case(
+        "ice-fraction-above-eutectic",
+        "POST",
+        _ICE,
+        422,
+        "solute.mass_fraction",
+        body=_spoiled("post_ice_fraction", "temperature", "-10 degC")
+        | {"solute": {"name": "sodium chloride", "mass_fraction": 0.3}, "seawater": None},
+    ),
     # state
     Case(
         "state-phase",

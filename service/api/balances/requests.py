@@ -37,6 +37,7 @@ from service.core.balances import (
     FlashFreezeCase,
     HeatGain,
     Solute,
+    named_solute,
 )
 from service.core.errors import InvalidInputError
 
@@ -295,7 +296,7 @@ def _solute(
     fraction = reader.value(str(paths["mass_fraction"]))
     specific_heat = reader.maybe(paths["specific_heat"])
     if solute.name is not None:
-        named = replace(NAMED_SOLUTES[solute.name], mass_fraction=fraction)
+        named = named_solute(solute.name, fraction, solute.model)
         return named if specific_heat is None else replace(named, specific_heat=specific_heat)
     options = {
         name: reader.value(path)
@@ -356,6 +357,7 @@ def _dissolved_solids(
             molar_mass=named.molar_mass,
             van_t_hoff_factor=named.van_t_hoff_factor,
             name=solids.name,
+            activity_model=named.activity_model,
         )
     factor = paths["van_t_hoff_factor"]
     return DissolvedSolids(

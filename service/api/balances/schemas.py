@@ -99,9 +99,10 @@ class HeatGainInput(ApiModel):
 
 
 class SoluteInput(ApiModel):
-    """A dissolved solute: `mass_fraction` with a named solute (`name`), or with its
-    `molar_mass` (and optionally `van_t_hoff_factor`, `specific_heat`). The solution
-    freezes progressively (ideal Raoult solution; a_w p_liquid(T) = p_ice(T))."""
+    """A dissolved solute: `mass_fraction` with a named solute (`name`, its published
+    non-ideal water-activity model by default), or with its `molar_mass` (and optionally
+    `van_t_hoff_factor`, `specific_heat`: an ideal Raoult solution). The solution freezes
+    progressively (a_w p_liquid(T) = p_ice(T))."""
 
     mass_fraction: QuantityInput = Field(
         description=_described(
@@ -111,8 +112,16 @@ class SoluteInput(ApiModel):
     )
     name: str | None = Field(
         None,
-        description="A named solute: `sucrose`, `glucose` or `sodium chloride` (molar mass, "
-        "van 't Hoff factor and specific heat from the table). Omit to give `molar_mass`.",
+        description="A named solute: `sodium chloride` (Pitzer model, to the eutectic "
+        "w = 0.233), `sucrose` (Norrish, to 0.5), `glucose`, `fructose` (Norrish, to 0.3), "
+        "`glycerol` (Norrish, to 0.4) or `propylene glycol` (Norrish, to 0.3): molar mass, "
+        "specific heat and activity model from the table. Omit to give `molar_mass`.",
+    )
+    model: Literal["non-ideal", "ideal"] = Field(
+        "non-ideal",
+        description="With `name`: `non-ideal` (the solute's published activity model, "
+        "default) or `ideal` (Raoult's law with its van 't Hoff factor, 2 for sodium "
+        "chloride).",
     )
     molar_mass: QuantityInput | None = Field(
         None,
@@ -159,7 +168,8 @@ class FlashFreezeCreate(ApiModel):
         description=_described(
             "Pure water: after all is frozen, the ice cools by sublimation down to this "
             "(173.15 K to 273.16 K). With a solute: end temperature of the progressive "
-            "freezing (required; 243.15 K to below the freezing onset). Default unit K."
+            "freezing (required; 235 K, or the end of a named solute's model range, to "
+            "below the freezing onset). Default unit K."
         ),
     )
     method: Method = Field(
@@ -181,7 +191,7 @@ class FlashFreezeCreate(ApiModel):
         None,
         description=_described(
             "Supercooling: the liquid cools to this temperature before ice nucleates, then "
-            "an ice fraction forms at once. Default unit K; 243.15 K to below the freezing "
+            "an ice fraction forms at once. Default unit K; 235 K to below the freezing "
             "onset."
         ),
     )
@@ -373,7 +383,7 @@ class DissolvedSolidsInput(ApiModel):
         description=_described(
             "Dissolved solids per kg of product (not per kg of solution). Default unit 1 (a "
             'fraction; `"5 %"` works); >= 0, and water fraction + this <= 1; at most what '
-            "puts the estimated freezing point at 243.15 K."
+            "puts the estimated freezing point at 235 K."
         )
     )
     name: str | None = Field(
@@ -437,7 +447,7 @@ class EvaporativeCoolingCreate(ApiModel):
     freezing_point: QuantityInput | None = Field(
         None,
         description=_described(
-            "Product's initial freezing point. Default unit K; 243.15 K to 273.16 K. If "
+            "Product's initial freezing point. Default unit K; 235 K to 273.16 K. If "
             "omitted, it is estimated from `dissolved_solids` (with `composition`); with "
             "neither, pure water's 273.16 K is used, with a warning."
         ),

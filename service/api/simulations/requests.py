@@ -115,7 +115,8 @@ def _solute(solute: SoluteInput | None) -> Solute | None:
                 f"{prefix}.name",
                 "a named solute brings its molar mass and van 't Hoff factor; omit them",
             )
-        return replace(NAMED_SOLUTES[solute.name], mass_fraction=fraction)
+        # the chamber simulation keeps the ideal (Raoult) solution of the named solute
+        return replace(NAMED_SOLUTES[solute.name], mass_fraction=fraction, activity_model=None)
     if solute.molar_mass is None:
         raise InvalidInputError(
             f"{prefix}.molar_mass", "give a named solute (name) or its molar mass"

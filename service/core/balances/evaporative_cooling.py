@@ -100,7 +100,7 @@ EVAPORATIVE_COOLING_LIMITS: Final = {
     "dissolved_solids_van_t_hoff_factor_max": 10.0,
 }
 """K, or kg/mol and 1 for the dissolved solids. The initial temperature is at most the
-normal boiling point; a product freezing point below 243.15 K is outside the
+normal boiling point; a product freezing point below 235 K is outside the
 supercooled-liquid range used for its water."""
 
 _FRACTION_SLACK: Final = 1e-9
@@ -127,7 +127,7 @@ class EvaporativeCoolingCase:
     companions : tuple of Companion
     heat_gain : HeatGain or None
     freezing_point : array_like or None
-        Product's initial freezing point, K (243.15 K to 273.16 K). If None, it is
+        Product's initial freezing point, K (235 K to 273.16 K). If None, it is
         estimated from ``dissolved_solids``; with neither, pure water's 273.16 K is
         used, with a warning.
     dissolved_solids : DissolvedSolids or None
@@ -321,17 +321,32 @@ def _dissolved_solids(case: EvaporativeCoolingCase, index: int | None) -> Solute
 def _estimated_freezing_point(
     case: EvaporativeCoolingCase, solute: Solute, index: int | None
 ) -> float:
-    """Freezing point of the ideal solution of the dissolved solids in the product's water."""
+    """Freezing point of the solution of the dissolved solids in the product's water (the
+    named solute's non-ideal model, else the ideal solution)."""
     try:
         return float(solution_freezing_point(solute))
     except OutOfRangeError as error:
+        model = solute.activity_model
+        if error.variable == "solute.mass_fraction" and model is not None:
+            assert case.dissolved_solids is not None and case.composition is not None
+            water = case.composition.fractions()["water"]
+            top = model.maximum_mass_fraction
+            raise OutOfRangeError(
+                "dissolved_solids.mass_fraction",
+                float(np.asarray(case.dissolved_solids.mass_fraction)),
+                0.0,
+                water * top / (1.0 - top),
+                "1",
+                error.reason,
+                index,
+            ) from error
         if error.variable != "water_activity":
             raise
         assert case.dissolved_solids is not None and case.composition is not None
         water = case.composition.fractions()["water"]
         molar = float(np.asarray(solute.molar_mass))
         factor = float(np.asarray(solute.van_t_hoff_factor))
-        # a_w(243.15 K) = n_w / (n_w + i n_s): largest solids-to-water mass ratio
+        # a_w(235 K) = n_w / (n_w + i n_s): largest solids-to-water mass ratio
         ratio = float(np.expm1(-lowest_log_water_activity())) * molar / (factor * MOLAR_MASS)
         raise OutOfRangeError(
             "dissolved_solids.mass_fraction",
@@ -609,7 +624,7 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
     OutOfRangeError
         A final temperature at or above the initial one, or another input out of range
         (dissolved solids: water + dissolved solids above 1, or so many that the
-        estimated freezing point falls below 243.15 K).
+        estimated freezing point falls below 235 K).
     UnsupportedStateError
         A final temperature below the product's freezing point (use the flash-freeze
         calculation), or a heat gain that would evaporate all the water.

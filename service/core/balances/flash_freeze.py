@@ -13,7 +13,7 @@ See :mod:`service.core.balances.stages` for the stage equations.
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass
+from dataclasses import dataclass, replace
 from functools import cache, lru_cache
 from typing import Final, Literal
 
@@ -52,7 +52,11 @@ from service.core.balances.solutes import (
     liquid_water_mass_at_activity,
     water_activity,
 )
-from service.core.balances.solution_freezing import ice_solution_equilibrium_temperature
+from service.core.balances.solution_freezing import (
+    LOWEST_FREEZING_TEMPERATURE,
+    ice_solution_equilibrium_temperature,
+    model_log_water_activity,
+)
 from service.core.balances.stages import (
     DEGREE,
     ZERO_LENGTH,
@@ -77,6 +81,8 @@ from service.core.properties.sources import (
     MELTING_AND_SUBLIMATION,
     PropertySource,
 )
+from service.core.solutions.aqueous import SolutionModel
+from service.core.solutions.glass import FREEZE_CONCENTRATION_DATA, GLASS_SOURCE
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",
@@ -90,7 +96,7 @@ Method = Literal["integrated", "mean-vapor-enthalpy"]
 FLASH_FREEZE_LIMITS: Final = {
     "initial_temperature_max": 373.15,
     "final_ice_temperature_min": 173.15,
-    "liquid_temperature_min": 243.15,
+    "liquid_temperature_min": LOWEST_FREEZING_TEMPERATURE,
     "trap_temperature_min": 173.15,
     "solute_mass_fraction_max": 0.5,
     "trajectory_points_min": 50,
@@ -133,7 +139,8 @@ class FlashFreezeCase:
     final_ice_temperature : array_like or None
         K. Pure water: after all is frozen, the ice cools by sublimation down to it
         (173.15 K to 273.16 K). Solution: end temperature of the progressive freezing
-        (required; from 243.15 K to below the freezing onset).
+        (required; from 235 K, or the end of a named solute's model range, to below the
+        freezing onset).
     method : {"integrated", "mean-vapor-enthalpy"}
         Which answer is headline; both are always computed (see ``comparison``).
     companions : tuple of Companion
@@ -144,7 +151,7 @@ class FlashFreezeCase:
         Dissolved solute; the solution freezes progressively.
     nucleation_temperature : array_like or None
         K. Supercooling: the liquid cools to this temperature (below its freezing
-        onset, >= 243.15 K) before ice nucleates.
+        onset, >= 235 K) before ice nucleates.
     trap_temperature : array_like or None
         K, condenser / cold-trap temperature (173.15 K to 273.16 K) for its load.
     trajectory_points : int
@@ -228,15 +235,28 @@ class FlashFreezeResult:
 
 @dataclass(frozen=True)
 class _SoluteLoad:
+    """The load's solute: ideal (Raoult) or a non-ideal model evaluated at ``model_temperature``
+    (the initial freezing onset; the models' temperature dependence is weak)."""
+
     mass: float
     molar_mass: float
     van_t_hoff_factor: float
+    model: SolutionModel | None = None
+    model_temperature: float = TRIPLE_POINT_TEMPERATURE
 
     def log_activity(self, water_mass: FloatArray | float) -> FloatArray:
+        if self.model is not None:
+            fraction = self.mass / (self.mass + np.asarray(water_mass, dtype=np.float64))
+            return self.model.log_water_activity(fraction, self.model_temperature)
         activity = water_activity(water_mass, self.mass, self.molar_mass, self.van_t_hoff_factor)
         return np.asarray(np.log(activity), dtype=np.float64)
 
     def liquid_water(self, log_activity: FloatArray) -> FloatArray:
+        if self.model is not None:
+            fraction = self.model.mass_fraction_at_log_activity(
+                log_activity, self.model_temperature
+            )
+            return np.asarray(self.mass * (1.0 - fraction) / fraction, dtype=np.float64)
         return liquid_water_mass_at_activity(
             log_activity, self.mass, self.molar_mass, self.van_t_hoff_factor
         )
@@ -251,6 +271,7 @@ class _Load:
     final_ice_temperature: float | None
     heat_capacity: float
     solute: _SoluteLoad | None
+    solute_name: str | None
     freezing_onset: float
     nucleation_temperature: float | None
     trap_temperature: float | None
@@ -295,6 +316,31 @@ def _freezing_temperature(log_activity: float, index: int | None) -> float:
         ) from error
 
 
+def _solute_load(
+    solute: Solute, mass: float, molar: float, factor: float, fraction: float, index: int | None
+) -> _SoluteLoad:
+    """The load's solute; a non-ideal model is evaluated at the solution's freezing onset."""
+    model = solute.activity_model
+    if model is None:
+        return _SoluteLoad(mass, molar, factor)
+    try:
+        log_activity = float(model_log_water_activity(model, fraction))
+    except OutOfRangeError as error:
+        raise replace(error, index=index) from error
+    onset = _freezing_temperature(log_activity, index)
+    return _SoluteLoad(mass, molar, factor, model, onset)
+
+
+def _lowest_final_temperature(solute: _SoluteLoad | None) -> float:
+    """K: the unfrozen solution must stay within its model's range (w <= maximum)."""
+    lowest = FLASH_FREEZE_LIMITS["liquid_temperature_min"]
+    if solute is None or solute.model is None:
+        return lowest
+    top = solute.model.maximum_mass_fraction
+    log_activity = solute.model.log_water_activity(top, solute.model_temperature)
+    return max(lowest, float(ice_solution_equilibrium_temperature(log_activity)))
+
+
 def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
     limits = FLASH_FREEZE_LIMITS
     initial = finite_scalar(case.initial_temperature, "initial_temperature")
@@ -336,7 +382,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         )
         if fraction > 0.0:
             solute_mass = fraction / (1.0 - fraction) * water
-            solute = _SoluteLoad(solute_mass, molar, factor)
+            solute = _solute_load(case.solute, solute_mass, molar, factor, fraction, index)
             capacity += solute_mass * specific
             onset = _freezing_temperature(float(solute.log_activity(water)), index)
     require_scalar_within(
@@ -360,11 +406,13 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         require_scalar_within(
             final,
             "final_ice_temperature",
-            limits["liquid_temperature_min"],
+            _lowest_final_temperature(solute),
             onset,
             "K",
             "a freezing solution must end below its freezing onset, within the "
-            "supercooled-liquid range of IAPWS-95 used for its water",
+            "supercooled-liquid range of IAPWS-95 used for its water and, for a named "
+            "solute, where its unfrozen solution stays within the activity model's range "
+            "(sodium chloride: the eutectic)",
             index,
         )
     elif final is not None:
@@ -406,6 +454,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         final_ice_temperature=final,
         heat_capacity=capacity,
         solute=solute,
+        solute_name=None if case.solute is None else case.solute.name,
         freezing_onset=onset,
         nucleation_temperature=nucleation,
         trap_temperature=trap,
@@ -983,8 +1032,10 @@ def _assumptions(case: FlashFreezeCase) -> tuple[str, ...]:
             "Companion masses have constant specific heats and stay at the load temperature."
         )
     if case.solute is not None:
+        model = case.solute.activity_model
+        reference = SOLUTE_MODEL_REFERENCE if model is None else model.source
         items.append(
-            f"Solute: {SOLUTE_MODEL_REFERENCE}. No heat of mixing; the solute stays in the "
+            f"Solute: {reference}. No heat of mixing; the solute stays in the "
             "unfrozen solution (no eutectic crystallization, none in the ice) and adds only "
             "m_s c_s dT. Vapor pressure over the solution from equal chemical potentials."
         )
@@ -1051,11 +1102,29 @@ def _warnings(
         [
             o.final_log_activity is not None
             and np.exp(o.final_log_activity) < _LOW_ACTIVITY_WARNING
-            for o in outcomes
+            and load.solute is not None
+            and load.solute.model is None
+            for load, o in zip(loads, outcomes, strict=True)
         ],
         "solution-concentrated",
         f"The unfrozen solution ends with a water activity below {_LOW_ACTIVITY_WARNING}; the "
         "ideal-solution model is outside its reliable range.",
+    )
+    sucrose = FREEZE_CONCENTRATION_DATA["sucrose"]
+    add(
+        [
+            load.solute is not None
+            and load.solute_name == "sucrose"
+            and load.final_ice_temperature is not None
+            and load.final_ice_temperature > sucrose.ice_melting_onset
+            for load in loads
+        ],
+        "above-freeze-concentration-limit",
+        "The freezing ends above the sucrose freeze-concentrate's ice-melting onset "
+        f"T_m' = {sucrose.ice_melting_onset - 273.15:.0f} degC (glass transition T_g' = "
+        f"{sucrose.glass_transition_of_freeze_concentrate - 273.15:.0f} degC; {GLASS_SOURCE}): "
+        "the unfrozen phase is a viscous liquid, not a glass, and a freeze-dried product "
+        "dried from here can collapse. Follow the product's validated cycle.",
     )
     add(
         [load.nucleation_temperature is not None or load.solute is not None for load in loads],

@@ -32,13 +32,14 @@ Molar masses from the IUPAC standard atomic weights (CIAAW 2021).
 from __future__ import annotations
 
 from dataclasses import dataclass, replace
-from typing import Final
+from typing import Final, Literal
 
 import numpy as np
 from numpy.typing import ArrayLike
 
 from service.core.errors import InvalidInputError
 from service.core.properties.constants import MOLAR_MASS
+from service.core.solutions.aqueous import NAMED_SOLUTION_MODELS, SolutionModel
 
 __all__ = [
     "NAMED_SOLUTES",
@@ -75,6 +76,10 @@ class Solute:
         J/(kg K), >= 0, constant; the solute's sensible-heat contribution.
     name : str
         Label for reports.
+    activity_model : SolutionModel or None
+        A published non-ideal water-activity model
+        (:mod:`service.core.solutions.aqueous`); None for the ideal (Raoult) solution of
+        ``molar_mass`` and ``van_t_hoff_factor``. Named solutes carry theirs by default.
     """
 
     mass_fraction: ArrayLike
@@ -82,21 +87,33 @@ class Solute:
     van_t_hoff_factor: ArrayLike = 1.0
     specific_heat: ArrayLike = 1250.0
     name: str = "solute"
+    activity_model: SolutionModel | None = None
 
 
 NAMED_SOLUTES: Final[dict[str, Solute]] = {
-    # specific heats of the crystalline solids near 25 degC, from memory (CRC Handbook of
-    # Chemistry and Physics); molar masses from IUPAC atomic weights.
-    "sucrose": Solute(0.0, 0.342297, 1.0, 1244.0, "sucrose"),
-    "glucose": Solute(0.0, 0.180156, 1.0, 1219.0, "glucose"),
-    "sodium chloride": Solute(0.0, 0.058443, 2.0, 864.0, "sodium chloride"),
+    # Molar masses, van 't Hoff factors (ideal model), specific heats and the non-ideal
+    # model of each named solute, from service.core.solutions.aqueous (sources there).
+    name: Solute(0.0, model.molar_mass, model.van_t_hoff_factor, model.specific_heat, name, model)
+    for name, model in NAMED_SOLUTION_MODELS.items()
 }
-"""Named solutes; NaCl with i = 2 ignores its osmotic coefficient (about 0.93), an ideal-solution
-simplification."""
+"""Named solutes, each with its published non-ideal water-activity model (Pitzer for sodium
+chloride, Norrish for sugars and polyols); ``replace(..., activity_model=None)`` gives the
+ideal (Raoult) solution with the van 't Hoff factor."""
 
 
-def named_solute(name: str, mass_fraction: ArrayLike) -> Solute:
+def named_solute(
+    name: str, mass_fraction: ArrayLike, model: Literal["non-ideal", "ideal"] = "non-ideal"
+) -> Solute:
     """A solute from :data:`NAMED_SOLUTES` at the given mass fraction.
+
+    Parameters
+    ----------
+    name : str
+        A key of :data:`NAMED_SOLUTES`.
+    mass_fraction : array_like
+        Solute mass / solution mass.
+    model : {"non-ideal", "ideal"}
+        The solute's published activity model (default) or the ideal (Raoult) solution.
 
     Raises
     ------
@@ -110,7 +127,8 @@ def named_solute(name: str, mass_fraction: ArrayLike) -> Solute:
         raise InvalidInputError(
             "solute", f"unknown solute {name!r}; known: {known}", name
         ) from error
-    return replace(entry, mass_fraction=mass_fraction)
+    chosen = entry.activity_model if model == "non-ideal" else None
+    return replace(entry, mass_fraction=mass_fraction, activity_model=chosen)
 
 
 @dataclass(frozen=True)
@@ -133,12 +151,15 @@ class DissolvedSolids:
         Particles per dissolved formula unit, 1 to 10.
     name : str
         Label for reports.
+    activity_model : SolutionModel or None
+        The named solute's non-ideal water-activity model, or None (ideal solution).
     """
 
     mass_fraction: ArrayLike
     molar_mass: ArrayLike
     van_t_hoff_factor: ArrayLike = 1.0
     name: str = "dissolved solids"
+    activity_model: SolutionModel | None = None
 
     def in_solution(self, water_fraction: ArrayLike) -> Solute:
         """The same solids as a :class:`Solute` of the product's water.
@@ -162,6 +183,7 @@ class DissolvedSolids:
             molar_mass=self.molar_mass,
             van_t_hoff_factor=self.van_t_hoff_factor,
             name=self.name,
+            activity_model=self.activity_model,
         )
 
 
@@ -184,6 +206,7 @@ def named_dissolved_solids(name: str, mass_fraction: ArrayLike) -> DissolvedSoli
         molar_mass=entry.molar_mass,
         van_t_hoff_factor=entry.van_t_hoff_factor,
         name=name,
+        activity_model=entry.activity_model,
     )
 
 

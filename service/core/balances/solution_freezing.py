@@ -43,19 +43,25 @@ from service.core.properties.constants import (
     TRIPLE_POINT_TEMPERATURE,
 )
 from service.core.properties.phase import FloatArray
+from service.core.solutions.aqueous import SolutionModel
 from service.core.validation import finite_array, require_within
 
 __all__ = [
     "LOWEST_FREEZING_TEMPERATURE",
     "ice_solution_equilibrium_temperature",
     "lowest_log_water_activity",
+    "model_log_water_activity",
     "solution_freezing_point",
     "solution_log_water_activity",
 ]
 
-LOWEST_FREEZING_TEMPERATURE: Final = 243.15
-"""K. Lowest freezing point accepted: the solution's water is metastable IAPWS-95
-liquid, used down to -30 degC."""
+LOWEST_FREEZING_TEMPERATURE: Final = 235.0
+"""K (-38.15 degC). Lowest freezing point accepted: the solution's water is metastable
+IAPWS-95 liquid, which the core evaluates down to 235 K, near the homogeneous-nucleation
+limit of supercooled water (below it pure water cannot stay liquid, so a supercooled-water
+reference has no data; IAPWS-95 is an extrapolation below 251.2 K). A named solute's
+non-ideal model ends earlier, where its unfrozen solution leaves the model's range
+(sodium chloride: the eutectic near -21 degC)."""
 
 _FUSION_GUESS: Final = 333.4e3
 """J/kg, only to start Newton's method (the linearized freezing-point depression)."""
@@ -64,6 +70,9 @@ _TOLERANCE: Final = 1e-9
 """K, the Newton step at which the iteration stops."""
 
 _ITERATIONS: Final = 30
+
+_MODEL_ITERATIONS: Final = 4
+"""Fixed-point steps on the onset temperature of a temperature-dependent activity model."""
 
 
 @cache
@@ -79,13 +88,13 @@ def ice_solution_equilibrium_temperature(log_water_activity: ArrayLike) -> Float
     Parameters
     ----------
     log_water_activity : array_like
-        ln a_w of the solution, dimensionless, from ln a_w(243.15 K) (about -0.32,
+        ln a_w of the solution, dimensionless, from ln a_w(235 K) (about -0.41,
         see :func:`lowest_log_water_activity`) to 0 (pure water).
 
     Returns
     -------
     ndarray
-        Freezing point, K, from 243.15 K to 273.16 K, of the shape of the input
+        Freezing point, K, from 235 K to 273.16 K, of the shape of the input
         (exactly 273.16 K where ln a_w = 0).
 
     Raises
@@ -94,7 +103,7 @@ def ice_solution_equilibrium_temperature(log_water_activity: ArrayLike) -> Float
         For NaN or infinite input.
     OutOfRangeError
         ``variable="water_activity"`` (value a_w), for an activity above 1 or one
-        whose freezing point would fall below 243.15 K; the first offending element.
+        whose freezing point would fall below 235 K; the first offending element.
     NotConvergedError
         If Newton's method does not settle (not expected in the valid range).
 
@@ -103,7 +112,7 @@ def ice_solution_equilibrium_temperature(log_water_activity: ArrayLike) -> Float
     Newton's method on ln a_w = (g_ice(T, p_sub) - g_liq(T, p_sub)) / (R T) with the
     Gibbs-Helmholtz slope d ln a_w / dT = (h_liq - h_ice) / (R T**2), started from
     the linearized depression T = T_t (1 + ln a_w R T_t / L_f); the iterates are kept
-    at or above 243.15 K (the root is, by the range check).
+    at or above 235 K (the root is, by the range check).
 
     References
     ----------
@@ -156,8 +165,51 @@ def ice_solution_equilibrium_temperature(log_water_activity: ArrayLike) -> Float
     )
 
 
+def model_log_water_activity(model: SolutionModel, mass_fraction: ArrayLike) -> FloatArray:
+    """ln a_w of a solution of a non-ideal model at its own freezing onset, dimensionless.
+
+    Parameters
+    ----------
+    model : SolutionModel
+        A published activity model (:mod:`service.core.solutions.aqueous`).
+    mass_fraction : array_like
+        w, 0 to ``model.maximum_mass_fraction``.
+
+    Returns
+    -------
+    ndarray
+        ln a_w(w, T_f) with T_f the freezing onset at the sublimation pressure, found by a
+        fixed point on T_f = T_eq(ln a_w(w, T_f)) (the models' temperature dependence is
+        weak: each step shrinks the error by a factor of order 1e-3).
+
+    Raises
+    ------
+    OutOfRangeError
+        ``solute.mass_fraction`` beyond the model's range.
+    """
+    fraction = finite_array(mass_fraction, "solute.mass_fraction")
+    require_within(
+        fraction,
+        "solute.mass_fraction",
+        0.0,
+        model.maximum_mass_fraction,
+        "1",
+        f"{model.name}: the {model.model} model is taken to w = {model.maximum_mass_fraction}"
+        + (" (the ice-hydrohalite eutectic)" if model.name == "sodium chloride" else ""),
+    )
+    temperature = np.full(fraction.shape, TRIPLE_POINT_TEMPERATURE)
+    for _ in range(_MODEL_ITERATIONS):
+        temperature = ice_solution_equilibrium_temperature(
+            model.log_water_activity(fraction, temperature)
+        )
+    return model.log_water_activity(fraction, temperature)
+
+
 def solution_log_water_activity(solute: Solute) -> FloatArray:
-    """ln a_w of an ideal (Raoult) solution of ``solute`` in water, dimensionless.
+    """ln a_w of a solution of ``solute`` in water, dimensionless.
+
+    With ``solute.activity_model`` set, the non-ideal model at the solution's freezing
+    onset (:func:`model_log_water_activity`); otherwise the ideal (Raoult) solution below.
 
     Parameters
     ----------
@@ -187,6 +239,8 @@ def solution_log_water_activity(solute: Solute) -> FloatArray:
     Raoult's law: Atkins and de Paula, *Physical Chemistry*, 9th ed. (2010), Sec. 5.3
     (from memory). M_w from IAPWS R6-95(2018).
     """
+    if solute.activity_model is not None:
+        return model_log_water_activity(solute.activity_model, solute.mass_fraction)
     fraction = finite_array(solute.mass_fraction, "solute.mass_fraction")
     molar_mass = finite_array(solute.molar_mass, "solute.molar_mass")
     factor = finite_array(solute.van_t_hoff_factor, "solute.van_t_hoff_factor")
@@ -228,7 +282,7 @@ def solution_freezing_point(solute: Solute) -> FloatArray:
     Returns
     -------
     ndarray
-        Temperature, K, 243.15 K to 273.16 K, at which the solution starts to freeze.
+        Temperature, K, 235 K to 273.16 K, at which the solution starts to freeze.
 
     Raises
     ------
@@ -236,7 +290,7 @@ def solution_freezing_point(solute: Solute) -> FloatArray:
         For NaN or infinite fields.
     OutOfRangeError
         For a field out of range, or ``variable="water_activity"`` for a solution so
-        concentrated that it would freeze below 243.15 K.
+        concentrated that it would freeze below 235 K.
 
     Notes
     -----

@@ -87,6 +87,12 @@ def _solute_constant(product: Product, water: float) -> tuple[float | None, floa
     solute = product.solute
     if solute is None:
         return None, 0.0
+    if solute.activity_model is not None:
+        raise InvalidInputError(
+            "product.solute.model",
+            "the chamber simulation takes the ideal (Raoult) solution only; give the solute "
+            "without its non-ideal activity model",
+        )
     fraction = require_scalar_within(
         solute.mass_fraction,
         "product.solute.mass_fraction",

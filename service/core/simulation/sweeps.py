@@ -88,6 +88,7 @@ def simulate_vacuum_chambers(
         As :func:`simulate_vacuum_chamber`, for the first failing case (out-of-range
         errors carry its ``index``).
     """
+
     def named(index: int) -> int | None:
         return index if len(cases) > 1 else None  # one case is no sweep: no element named
 

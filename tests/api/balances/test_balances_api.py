@@ -219,7 +219,7 @@ def test_flash_freeze_named_solute_equals_solute_by_molar_mass(client: TestClien
     named = _post(
         client,
         FLASH,
-        {**base, "solute": {"name": "sucrose", "mass_fraction": "10 %"}},
+        {**base, "solute": {"name": "sucrose", "mass_fraction": "10 %", "model": "ideal"}},
         FlashFreezePublic,
     )
     by_molar_mass = _post(
@@ -240,7 +240,7 @@ def test_flash_freeze_named_solute_equals_solute_by_molar_mass(client: TestClien
         FlashFreezeCase(
             initial_temperature=283.15,
             final_ice_temperature=270.15,
-            solute=named_solute("sucrose", 0.1),
+            solute=named_solute("sucrose", 0.1, "ideal"),
         )
     )
     assert named["evaporated_mass"]["value"] == pytest.approx(

@@ -12,6 +12,8 @@ the wiring against the shared solution model (service.core.balances.solution_fre
 
 from __future__ import annotations
 
+from dataclasses import replace
+
 import numpy as np
 import pytest
 
@@ -135,8 +137,9 @@ def test_sweep_of_the_dissolved_fraction() -> None:
     assert np.all(np.diff(result.freezing_point) < 0.0)
 
 
-def test_largest_accepted_fraction_freezes_at_the_lowest_temperature() -> None:
-    # the range in the error is the fraction whose solution freezes at 243.15 K
+def test_named_salt_beyond_its_eutectic_is_refused() -> None:
+    # the non-ideal (Pitzer) model of a named salt ends at the eutectic, w = 0.233 of the
+    # product's water
     brine = Composition(water=0.5, ash=0.5)
     with pytest.raises(OutOfRangeError) as caught:
         evaporative_cooling(
@@ -147,9 +150,22 @@ def test_largest_accepted_fraction_freezes_at_the_lowest_temperature() -> None:
             )
         )
     assert caught.value.variable == "dissolved_solids.mass_fraction"
+    assert caught.value.maximum == pytest.approx(0.5 * 0.233 / (1.0 - 0.233))
+    assert "eutectic" in caught.value.reason
+
+
+def test_largest_accepted_fraction_freezes_at_the_lowest_temperature() -> None:
+    # the range in the error is the fraction whose ideal solution freezes at the floor
+    brine = Composition(water=0.5, ash=0.5)
+    ideal_salt = replace(named_dissolved_solids("sodium chloride", 0.4), activity_model=None)
+    with pytest.raises(OutOfRangeError) as caught:
+        evaporative_cooling(
+            _strawberries(composition=brine, dissolved_solids=ideal_salt, final_temperature=280.0)
+        )
+    assert caught.value.variable == "dissolved_solids.mass_fraction"
     largest = caught.value.maximum
     assert largest is not None and 0.0 < largest < 0.4
-    edge = named_solute("sodium chloride", largest / (0.5 + largest))
+    edge = named_solute("sodium chloride", largest / (0.5 + largest), "ideal")
     assert float(solution_freezing_point(edge)) == pytest.approx(
         LOWEST_FREEZING_TEMPERATURE, abs=1e-6
     )

@@ -19,8 +19,10 @@ from service.core.balances import (
     companion_of,
     flash_freeze,
     named_solute,
+    solution_freezing_point,
 )
 from service.core.errors import InvalidInputError, OutOfRangeError, UnsupportedStateError
+from service.core.solutions.freezing import lowest_temperature
 
 _SETTINGS = settings(max_examples=25, deadline=None)
 
@@ -82,10 +84,35 @@ def test_energy_balance_closes_for_a_freezing_solution(
 ) -> None:
     case = FlashFreezeCase(
         initial_temperature=initial,
-        solute=named_solute("sucrose", fraction),
+        solute=named_solute("sucrose", fraction, "ideal"),
         final_ice_temperature=final,
     )
     result = flash_freeze(case)
+    assert abs(float(result.energy_balance.relative_residual)) < 1e-9
+    total = float(result.evaporated_mass + result.ice_mass + result.liquid_mass)
+    assert total == pytest.approx(1.0, rel=4e-16, abs=0.0)
+
+
+@settings(max_examples=10, deadline=None)
+@given(
+    st.sampled_from(["sodium chloride", "sucrose", "glycerol"]),
+    st.floats(min_value=274.0, max_value=330.0),
+    st.floats(min_value=0.01, max_value=0.05),
+    st.floats(min_value=0.0, max_value=1.0),
+)
+def test_energy_balance_closes_for_a_non_ideal_freezing_solution(
+    name: str, initial: float, fraction: float, depth: float
+) -> None:
+    # the named solute's published activity model (Pitzer, Norrish), to a final temperature
+    # between 0.5 K below the onset and the end of the model's range
+    solute = named_solute(name, fraction)
+    assert solute.activity_model is not None
+    onset = float(solution_freezing_point(solute))
+    lowest = float(lowest_temperature(solute.activity_model)[0]) + 0.5
+    final = onset - 0.5 - depth * (onset - 0.5 - lowest)
+    result = flash_freeze(
+        FlashFreezeCase(initial_temperature=initial, solute=solute, final_ice_temperature=final)
+    )
     assert abs(float(result.energy_balance.relative_residual)) < 1e-9
     total = float(result.evaporated_mass + result.ice_mass + result.liquid_mass)
     assert total == pytest.approx(1.0, rel=4e-16, abs=0.0)

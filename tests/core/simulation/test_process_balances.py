@@ -81,7 +81,7 @@ def test_solution_matches_flash_freeze_at_the_same_end_temperature() -> None:
     # Sucrose solution, 10 % of water + solute, to 263.15 K: flash-freeze balance with the
     # same solute (its specific heat as the solids'), source service.core.balances.
     water, fraction = 1.0, 0.10
-    solute = named_solute("sucrose", fraction)
+    solute = named_solute("sucrose", fraction, "ideal")
     solute_mass = fraction / (1.0 - fraction) * water
     balance = flash_freeze(
         FlashFreezeCase(initial_temperature=293.15, final_ice_temperature=263.15, solute=solute)

@@ -1,0 +1,135 @@
+"""Request/response pair of the ice-fraction lookup (POST body, GET query, answer)."""
+
+from __future__ import annotations
+
+from typing import Literal
+
+from pydantic import Field
+
+from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.units import UnitSet
+
+__all__ = [
+    "IceFractionCreate",
+    "IceFractionPublic",
+    "IceFractionQuery",
+    "SeawaterInput",
+    "SolutionSoluteInput",
+]
+
+_NAMES = (
+    "`sodium chloride` (Pitzer, to the eutectic w = 0.233), `sucrose` (Norrish, to 0.5), "
+    "`glucose`, `fructose` (Norrish, to 0.3), `glycerol` (Norrish, to 0.4), "
+    "`propylene glycol` (Norrish, to 0.3)"
+)
+_TEMPERATURE = (
+    "Temperature: a number in K or with a unit (`-5 degC`); a batch "
+    '(`{"values": [...], "unit": "degC"}` or a list) gives one answer per element. Where ice '
+    "forms it must not be colder than the freezing point of the model's most concentrated "
+    "solution (sodium chloride: about -20.5 degC; seawater: 120 g/kg brine, about -7 degC), "
+    "nor than 235 K (the end of the supercooled-water reference)."
+)
+_PRESSURE = "Total pressure on the mixture: a number in Pa or with a unit; default 101325 Pa."
+_MODEL = (
+    "`non-ideal` (the solute's published model, default) or `ideal` (Raoult's law with the "
+    "solute's van 't Hoff factor, for comparison)."
+)
+_SALINITY = (
+    "Absolute salinity of the seawater (kg of sea salt per kg of seawater): a number in "
+    'g/kg (`35.16504`), or with a unit (`"35.16504 g/kg"`, `"3.5 %"`, `"0.0352 kg/kg"`); '
+    "above 0, at most 120 g/kg."
+)
+_UNITS = "Unit set of the results: `SI`, `engineering` or `US`."
+
+
+class SolutionSoluteInput(ApiModel):
+    """A named solute dissolved in water."""
+
+    name: str = Field(description=f"The solute: {_NAMES}.")
+    mass_fraction: QuantityInput = Field(
+        description="Solute mass per kg of the whole (water + solute). Default unit 1 (a "
+        'fraction; `"3.5 %"` works); 0 to the model\'s maximum.'
+    )
+    model: Literal["non-ideal", "ideal"] = Field("non-ideal", description=_MODEL)
+
+
+class SeawaterInput(ApiModel):
+    """Air-free seawater of reference composition (IAPWS R13-08, TEOS-10)."""
+
+    absolute_salinity: QuantityInput = Field(description=_SALINITY)
+
+
+class IceFractionCreate(ApiModel):
+    """Ice and unfrozen phase at given temperatures: give `temperature` and exactly one of
+    `solute` or `seawater`."""
+
+    temperature: QuantityInput = Field(description=_TEMPERATURE)
+    solute: SolutionSoluteInput | None = Field(None, description="A named solute in water.")
+    seawater: SeawaterInput | None = Field(None, description="Seawater instead of a solute.")
+    pressure: QuantityInput = Field(101325.0, description=_PRESSURE)
+    output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
+
+
+class IceFractionQuery(ApiModel):
+    """Query string of GET /v1/properties/ice-fraction: one state; `solute` with
+    `mass_fraction`, or `absolute_salinity`."""
+
+    temperature: str = Field(description="Temperature: a number in K, or with a unit.")
+    solute: str | None = Field(None, description=f"A named solute: {_NAMES}.")
+    mass_fraction: str | None = Field(
+        None, description="The solute's mass fraction of the whole (unit 1, or `3.5 %`)."
+    )
+    model: Literal["non-ideal", "ideal"] = Field("non-ideal", description=_MODEL)
+    absolute_salinity: str | None = Field(None, description=_SALINITY)
+    pressure: str = Field("101325", description=_PRESSURE)
+    output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
+
+
+class FreezeConcentratedOut(ApiModel):
+    """The maximally freeze-concentrated point of the solute."""
+
+    glass_transition: QuantityOutput = Field(description="T_g' (SI: K).")
+    ice_melting_onset: QuantityOutput = Field(
+        description="T_m', onset of ice melting in the freeze-concentrate (SI: K)."
+    )
+    concentration: QuantityOutput = Field(description="C_g', solute mass fraction.")
+
+
+class FreezeConcentrationOut(ApiModel):
+    """Freeze-concentration limit of a sugar, beside its ice fraction."""
+
+    glass_transition_of_unfrozen_phase: QuantityOutput = Field(
+        description="Gordon-Taylor glass transition of the unfrozen solution (SI: K)."
+    )
+    maximally_freeze_concentrated: FreezeConcentratedOut
+    source: str
+
+
+class IceFractionPublic(Envelope):
+    """Ice fraction, unfrozen phase, enthalpy and vapor pressure of the mixture."""
+
+    mixture: str = Field(description="`seawater` or the solute's name.")
+    model: str = Field(description="The activity model with its source and valid range.")
+    temperature: QuantityOutput
+    pressure: QuantityOutput
+    freezing_point: QuantityOutput = Field(description="Initial freezing point (SI: K).")
+    ice_fraction: QuantityOutput = Field(description="kg of ice per kg of the whole mixture.")
+    unfrozen_water: QuantityOutput = Field(
+        description="kg of liquid water per kg of the whole mixture."
+    )
+    unfrozen_concentration: QuantityOutput = Field(
+        description="Solute (salt) mass fraction of the unfrozen phase."
+    )
+    specific_enthalpy: QuantityOutput = Field(
+        description="Enthalpy per kg of mixture on the stated reference state (SI: J/kg)."
+    )
+    vapor_pressure: QuantityOutput = Field(
+        description="Water vapor pressure over the mixture: of the ice where ice is present, "
+        "else of the unfrozen solution (SI: Pa)."
+    )
+    water_activity: QuantityOutput = Field(description="Water activity of the unfrozen phase.")
+    freeze_concentration_limit: FreezeConcentrationOut | None = Field(
+        None,
+        description="For a sugar with published constants (sucrose): the glass transition of "
+        "the unfrozen phase and the maximally freeze-concentrated point; null otherwise.",
+    )

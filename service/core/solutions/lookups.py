@@ -1,0 +1,337 @@
+"""The ice-fraction lookup: ice, unfrozen phase, enthalpy and vapor pressure of a freezing
+solution or of seawater, with the sources, ranges and assumptions an answer states.
+
+What ``POST/GET /v1/properties/ice-fraction`` calls; it knows nothing of HTTP.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from typing import Final
+
+import numpy as np
+from numpy.typing import ArrayLike
+
+from service.core.balances.equilibrium_paths import liquid_vapor_states
+from service.core.errors import InvalidInputError
+from service.core.properties import sources
+from service.core.properties.advisories import Advisory, advise_where
+from service.core.properties.lookups import Lookup, ReportedUncertainty
+from service.core.properties.phase import FloatArray
+from service.core.properties.phase_lines import sublimation_pressure
+from service.core.properties.sources import PropertySource
+from service.core.solutions.aqueous import ActivityModelName, SolutionModel, solution_model
+from service.core.solutions.freezing import solution_freezing
+from service.core.solutions.glass import (
+    FREEZE_CONCENTRATION_DATA,
+    GLASS_SOURCE,
+    FreezeConcentration,
+    gordon_taylor_glass_transition,
+)
+from service.core.solutions.seawater import SEAWATER_MODEL_REFERENCE, seawater_freezing
+from service.core.validation import finite_array
+
+__all__ = [
+    "SEAWATER_SOURCE",
+    "FreezeConcentrationLimit",
+    "IceFractionStates",
+    "ice_fraction_lookup",
+    "solution_source",
+]
+
+SEAWATER_SOURCE: Final = PropertySource(
+    formulation="IAPWS-08 seawater",
+    release="IAPWS R13-08",
+    year=2008,
+    title="Release on the IAPWS Formulation 2008 for the Thermodynamic Properties of Seawater",
+    scope=(
+        "Saline part of the Gibbs function of seawater (TEOS-10), 0-120 g/kg: freezing "
+        "temperature, brine salinity, water activity and enthalpy of seawater."
+    ),
+)
+
+_PITZER_SOURCE: Final = PropertySource(
+    formulation="Pitzer ion interaction (NaCl)",
+    release="Pitzer and Mayorga (1973); Silvester and Pitzer (1977)",
+    year=1977,
+    title=(
+        "Thermodynamics of electrolytes II (J. Phys. Chem. 77, 2300) and Thermodynamics of "
+        "electrolytes 8: high-temperature properties of NaCl(aq) (J. Phys. Chem. 81, 1822)"
+    ),
+    scope="Water activity of aqueous sodium chloride to the ice-hydrohalite eutectic.",
+)
+
+_NORRISH_SOURCE: Final = PropertySource(
+    formulation="Norrish equation",
+    release="Norrish (1966); Chirife, Ferro Fontan and Benmergui (1980)",
+    year=1980,
+    title=(
+        "An equation for the activity coefficients and equilibrium relative humidities of "
+        "water in confectionery syrups (J. Food Technol. 1, 25) and the K constants of "
+        "sugars and polyols (J. Food Technol. 15, 59)"
+    ),
+    scope="Water activity of aqueous sugars and polyols.",
+)
+
+_IDEAL_SOURCE: Final = PropertySource(
+    formulation="Ideal (Raoult) solution",
+    release="Raoult's law",
+    year=1887,
+    title="Ideal-solution water activity a_w = x_w with a van 't Hoff factor",
+    scope="Water activity of a solution without activity coefficients (comparison model).",
+)
+
+_ASSUMPTIONS: Final = (
+    "Ice and unfrozen phase in equilibrium at each temperature (no supercooling, no "
+    "glass): the ice is pure ice Ih and all solute stays in the unfrozen phase.",
+    "Pressure is the total pressure on the mixture; the vapor pressure is that of the ice "
+    "where ice is present, else of the unfrozen liquid.",
+    "Water and ice energies on the one reference state of the answer; a dissolved solute's "
+    "sensible heat counted from 273.16 K, heat of dilution neglected.",
+)
+_SEAWATER_ASSUMPTIONS: Final = (
+    "Air-free seawater of reference composition; absolute salinity is kg of sea salt per kg "
+    "of seawater. The salt's enthalpy is referred to standard seawater (35.16504 g/kg) at "
+    "273.15 K and 101325 Pa as IAPWS R13-08 fixes it.",
+)
+
+
+def solution_source(model: SolutionModel) -> PropertySource:
+    """The published model behind a solute's water activity."""
+    return {"pitzer": _PITZER_SOURCE, "norrish": _NORRISH_SOURCE}.get(model.model, _IDEAL_SOURCE)
+
+
+@dataclass(frozen=True)
+class FreezeConcentrationLimit:
+    """The freeze-concentration limit reported beside the ice fraction of a sugar.
+
+    Attributes
+    ----------
+    glass_transition_of_unfrozen_phase : ndarray
+        K, Gordon-Taylor T_g of the unfrozen solution at each temperature.
+    data : FreezeConcentration
+        T_g', C_g' and T_m' of the solute.
+    source : str
+        Where the constants come from.
+    """
+
+    glass_transition_of_unfrozen_phase: FloatArray
+    data: FreezeConcentration
+    source: str
+
+
+@dataclass(frozen=True)
+class IceFractionStates:
+    """What the ice-fraction lookup answers (SI arrays of the temperature's shape).
+
+    Attributes
+    ----------
+    temperature, pressure : ndarray
+        K, Pa.
+    freezing_point : ndarray
+        K, the initial freezing point.
+    ice_mass_fraction : ndarray
+        kg of ice per kg of mixture.
+    unfrozen_water_fraction : ndarray
+        kg of liquid water per kg of mixture.
+    unfrozen_concentration : ndarray
+        Solute (or salt) mass fraction of the unfrozen phase.
+    specific_enthalpy : ndarray
+        J/kg of mixture.
+    vapor_pressure : ndarray
+        Pa, water vapor over the mixture.
+    water_activity : ndarray
+        a_w of the unfrozen phase.
+    mixture : str
+        ``"seawater"`` or the solute's name.
+    model : str
+        The activity model's description (its source and range).
+    freeze_concentration : FreezeConcentrationLimit or None
+        For a sugar with published constants.
+    """
+
+    temperature: FloatArray
+    pressure: FloatArray
+    freezing_point: FloatArray
+    ice_mass_fraction: FloatArray
+    unfrozen_water_fraction: FloatArray
+    unfrozen_concentration: FloatArray
+    specific_enthalpy: FloatArray
+    vapor_pressure: FloatArray
+    water_activity: FloatArray
+    mixture: str
+    model: str
+    freeze_concentration: FreezeConcentrationLimit | None = None
+
+
+def _vapor_pressure(
+    temperature: FloatArray, ice: FloatArray, log_activity: FloatArray
+) -> FloatArray:
+    flat_t = temperature.ravel()
+    frozen = ice.ravel() > 0.0
+    result = np.empty_like(flat_t)
+    if np.any(frozen):
+        result[frozen] = sublimation_pressure(flat_t[frozen])
+    if np.any(~frozen):
+        states = liquid_vapor_states(flat_t[~frozen], log_activity.ravel()[~frozen])
+        result[~frozen] = states.pressure
+    return result.reshape(temperature.shape)
+
+
+def ice_fraction_lookup(
+    temperature: ArrayLike,
+    *,
+    solute_name: str | None = None,
+    mass_fraction: ArrayLike | None = None,
+    model: ActivityModelName = "non-ideal",
+    absolute_salinity: ArrayLike | None = None,
+    pressure: ArrayLike = 101325.0,
+) -> Lookup[IceFractionStates]:
+    """Ice fraction and unfrozen phase of a solution or of seawater at given temperatures.
+
+    Parameters
+    ----------
+    temperature : array_like
+        K. Solutions: 235 K to 373.15 K, and where ice forms not below the model's lowest
+        temperature (the freezing point at its highest mass fraction); seawater: from the
+        freezing point of 120 g/kg brine (about 266.2 K) to 353 K.
+    solute_name, mass_fraction, model
+        A named solute, its mass fraction of the whole (0 to the model's maximum), and
+        ``"non-ideal"`` (its published model, the default) or ``"ideal"``.
+    absolute_salinity : array_like
+        Seawater instead of a solute: kg/kg, 0 < S_A <= 0.12.
+    pressure : array_like
+        Pa, total pressure on the mixture (default 101325 Pa). Every input broadcasts
+        with the temperature.
+
+    Returns
+    -------
+    Lookup[IceFractionStates]
+
+    Raises
+    ------
+    InvalidInputError
+        Neither or both of a solute and seawater; an unknown solute or model; NaN input.
+    OutOfRangeError
+        An input outside its range (the variable named).
+    """
+    t = finite_array(temperature, "temperature")
+    if (solute_name is None) == (absolute_salinity is None):
+        raise InvalidInputError(
+            "solute", "give exactly one of solute and seawater (a composition is not yet taken)"
+        )
+    advisories: list[Advisory] = []
+    uncertainties: list[ReportedUncertainty]
+    limit: FreezeConcentrationLimit | None = None
+    if absolute_salinity is not None:
+        sea = seawater_freezing(absolute_salinity, t, pressure)
+        ice, water = (
+            sea.ice_mass_fraction,
+            (1.0 - sea.ice_mass_fraction) * (1.0 - sea.brine_salinity),
+        )
+        concentration, log_activity = sea.brine_salinity, sea.log_water_activity
+        onset, enthalpy, p = sea.freezing_temperature, sea.specific_enthalpy, sea.pressure
+        mixture, description = "seawater", SEAWATER_MODEL_REFERENCE
+        used: tuple[PropertySource, ...] = (
+            SEAWATER_SOURCE,
+            sources.IAPWS_95,
+            sources.ICE_IH,
+            sources.MELTING_AND_SUBLIMATION,
+        )
+        assumptions: tuple[str, ...] = (*_ASSUMPTIONS, *_SEAWATER_ASSUMPTIONS)
+        uncertainties = [
+            ReportedUncertainty(
+                quantity="freezing_point",
+                relative=None,
+                coverage="as compared",
+                statement=(
+                    "Agrees with TEOS-10's gsw library (IAPWS-09 water) within 0.1 mK from 0 "
+                    "to 120 g/kg; the release's own uncertainty of freezing temperatures is "
+                    "a few mK (R13-08, from memory)."
+                ),
+                source="IAPWS R13-08; gsw 3.6 comparison in the tests",
+                basis="comparison",
+            )
+        ]
+    else:
+        assert solute_name is not None
+        chosen = solution_model(solute_name, model)
+        fraction = 0.0 if mass_fraction is None else mass_fraction
+        result = solution_freezing(chosen, fraction, t, pressure)
+        ice, water = result.ice_mass_fraction, result.unfrozen_water_fraction
+        concentration, log_activity = result.unfrozen_mass_fraction, result.log_water_activity
+        onset, enthalpy, p = result.freezing_temperature, result.specific_enthalpy, result.pressure
+        mixture, description = chosen.name, chosen.source
+        used = (solution_source(chosen), sources.IAPWS_95, sources.ICE_IH)
+        used = (*used, sources.MELTING_AND_SUBLIMATION)
+        assumptions = _ASSUMPTIONS
+        uncertainties = [
+            ReportedUncertainty(
+                quantity="freezing_point",
+                relative=None,
+                coverage="as compared",
+                statement=(
+                    "Compared with handbook freezing-point tables (CRC Handbook, "
+                    "Concentrative properties of aqueous solutions; ASHRAE Fundamentals, "
+                    "secondary coolants; values from memory): sodium chloride within 0.05 K "
+                    "to 5 %, 0.15 K to 15 %, 0.6 K at the eutectic; sucrose 0.2 K to 50 %; "
+                    "glucose and fructose 0.05 K to 10 %, 0.5 K at 30 %; glycerol 0.05 K "
+                    "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %."
+                    if chosen.model != "ideal"
+                    else "The ideal solution has no activity coefficient: for sodium chloride "
+                    "its onset is about 0.18 K too deep at 3.5 %, and the error grows with "
+                    "concentration."
+                ),
+                source="tests/reference/test_aqueous_freezing_points.py",
+                basis="comparison",
+            )
+        ]
+        glass = FREEZE_CONCENTRATION_DATA.get(chosen.name)
+        if glass is not None:
+            limit = FreezeConcentrationLimit(
+                glass_transition_of_unfrozen_phase=gordon_taylor_glass_transition(
+                    glass, concentration
+                ),
+                data=glass,
+                source=GLASS_SOURCE,
+            )
+            advisories += advise_where(
+                np.asarray(onset * 0.0 + t > glass.ice_melting_onset),
+                "above-freeze-concentration-limit",
+                f"Above the {chosen.name} freeze-concentrate's ice-melting onset "
+                f"T_m' = {glass.ice_melting_onset - 273.15:.0f} degC (glass transition "
+                f"T_g' = {glass.glass_transition_of_freeze_concentrate - 273.15:.0f} degC at "
+                f"{glass.freeze_concentrate_mass_fraction:.0%}): the unfrozen phase is a "
+                "viscous liquid, not a glass. A freeze-drying freezing step that ends here "
+                "leaves the product liable to collapse; follow the product's validated cycle.",
+                batch=t.ndim > 0,
+            )
+        advisories += advise_where(
+            np.asarray(concentration > 0.9 * chosen.maximum_mass_fraction),
+            "near-model-limit",
+            f"The unfrozen solution is within 10 % of the end of the {chosen.model} model's "
+            f"range (w = {chosen.maximum_mass_fraction}).",
+            batch=t.ndim > 0,
+        )
+    vapor = _vapor_pressure(np.asarray(onset * 0.0 + t), ice, log_activity)
+    states = IceFractionStates(
+        temperature=np.asarray(onset * 0.0 + t, dtype=np.float64),
+        pressure=np.asarray(p, dtype=np.float64),
+        freezing_point=onset,
+        ice_mass_fraction=np.asarray(ice, dtype=np.float64),
+        unfrozen_water_fraction=np.asarray(water, dtype=np.float64),
+        unfrozen_concentration=np.asarray(concentration, dtype=np.float64),
+        specific_enthalpy=enthalpy,
+        vapor_pressure=vapor,
+        water_activity=np.asarray(np.exp(log_activity), dtype=np.float64),
+        mixture=mixture,
+        model=description,
+        freeze_concentration=limit,
+    )
+    return Lookup(
+        states=states,
+        sources=used,
+        uncertainties=uncertainties,
+        advisories=advisories,
+        assumptions=list(assumptions),
+    )

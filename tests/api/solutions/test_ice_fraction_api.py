@@ -1,0 +1,191 @@
+"""POST and GET /v1/properties/ice-fraction: success paths, CSV and every error path."""
+
+from __future__ import annotations
+
+from typing import Any
+
+import gsw
+import pytest
+from fastapi.testclient import TestClient
+
+URL = "/v1/properties/ice-fraction"
+
+
+def _post(client: TestClient, body: dict[str, Any]) -> Any:
+    return client.post(URL, json=body)
+
+
+def test_seawater_at_minus_2_has_ice(client: TestClient) -> None:
+    response = _post(
+        client, {"temperature": "-2 degC", "seawater": {"absolute_salinity": "35.16504 g/kg"}}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    # TEOS-10 (gsw) freezing point of air-free standard seawater, within 0.05 K
+    onset = answer["freezing_point"]["value"] - 273.15
+    assert onset == pytest.approx(float(gsw.t_freezing(35.16504, 0.0, 0.0)), abs=0.05)
+    assert 0.02 < answer["ice_fraction"]["value"] < 0.06
+    assert answer["mixture"] == "seawater"
+    assert "R13-08" in answer["model"]
+    assert any(source["release"] == "IAPWS R13-08" for source in answer["property_sources"])
+    total = answer["ice_fraction"]["value"] + answer["unfrozen_water"]["value"]
+    brine = 1.0 - answer["ice_fraction"]["value"]
+    salt = brine * answer["unfrozen_concentration"]["value"]
+    assert total + salt == pytest.approx(1.0, abs=1e-12)
+    assert salt == pytest.approx(0.03516504, rel=1e-12)
+
+
+def test_bare_salinity_number_is_grams_per_kilogram(client: TestClient) -> None:
+    bare = _post(client, {"temperature": 271.15, "seawater": {"absolute_salinity": 35.0}})
+    with_unit = _post(client, {"temperature": 271.15, "seawater": {"absolute_salinity": "3.5 %"}})
+    assert bare.status_code == with_unit.status_code == 200
+    assert bare.json()["ice_fraction"] == with_unit.json()["ice_fraction"]
+
+
+def test_brine_batch_and_sources(client: TestClient) -> None:
+    response = _post(
+        client,
+        {
+            "temperature": {"values": [-2.0, -2.5, -10.0], "unit": "degC"},
+            "solute": {"name": "sodium chloride", "mass_fraction": "3.5 %"},
+            "output_units": "engineering",
+        },
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    fractions = answer["ice_fraction"]["values"]
+    assert fractions[0] == 0.0  # onset -2.11 degC (handbook -2.10 degC, from memory)
+    assert 0.1 < fractions[1] < fractions[2]
+    assert answer["freezing_point"]["unit"] == "degC"
+    assert answer["freezing_point"]["values"][0] == pytest.approx(-2.10, abs=0.05)
+    assert "Pitzer" in answer["model"]
+    assert answer["vapor_pressure"]["values"][2] < answer["vapor_pressure"]["values"][0]
+
+
+def test_ideal_model_is_available(client: TestClient) -> None:
+    response = _post(
+        client,
+        {
+            "temperature": "-2.2 degC",
+            "solute": {"name": "sodium chloride", "mass_fraction": 0.035, "model": "ideal"},
+        },
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    assert "Raoult" in answer["model"]
+    assert answer["ice_fraction"]["value"] == 0.0  # ideal onset -2.28 degC
+
+
+def test_get_one_state(client: TestClient) -> None:
+    response = client.get(
+        URL, params={"temperature": "-5 degC", "solute": "glycerol", "mass_fraction": "10 %"}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    assert 0.4 < answer["ice_fraction"]["value"] < 0.7
+    sea = client.get(URL, params={"temperature": "-2 degC", "absolute_salinity": "35"})
+    assert sea.status_code == 200, sea.text
+    assert sea.json()["ice_fraction"]["value"] > 0.0
+
+
+def test_csv_batch(client: TestClient) -> None:
+    body = "temperature[degC],seawater.absolute_salinity[g/kg]\n-2,35\n-3,35\n"
+    response = client.post(
+        URL, content=body, headers={"content-type": "text/csv", "accept": "text/csv"}
+    )
+    assert response.status_code == 200, response.text
+    lines = response.text.strip().splitlines()
+    assert len(lines) == 3
+    assert any(name.startswith("ice_fraction") for name in lines[0].split(","))
+
+
+@pytest.mark.parametrize(
+    ("body", "field"),
+    [
+        (
+            {
+                "temperature": "-10 degC",
+                "solute": {"name": "sodium chloride", "mass_fraction": 0.26},
+            },
+            "solute.mass_fraction",
+        ),
+        (
+            {
+                "temperature": "-30 degC",
+                "solute": {"name": "sodium chloride", "mass_fraction": 0.1},
+            },
+            "temperature",
+        ),
+        ({"temperature": "-20 degC", "seawater": {"absolute_salinity": 35}}, "temperature"),
+        ({"temperature": "-2 degC", "seawater": {"absolute_salinity": 130}}, "absolute_salinity"),
+        ({"temperature": "-2 degC"}, "solute, seawater"),
+        (
+            {
+                "temperature": "-2 degC",
+                "solute": {"name": "sucrose", "mass_fraction": 0.1},
+                "seawater": {"absolute_salinity": 35},
+            },
+            "solute, seawater",
+        ),
+        (
+            {"temperature": "-2 degC", "solute": {"name": "moon dust", "mass_fraction": 0.1}},
+            "solute.name",
+        ),
+        (
+            {
+                "temperature": "-2 degC",
+                "solute": {"name": "sucrose", "mass_fraction": 0.1},
+                "composition": {"water": 0.8},
+            },
+            "composition",
+        ),
+        (
+            {
+                "temperature": {"values": [-2, -3], "unit": "degC"},
+                "pressure": {"values": [1e5, 1e5, 1e5]},
+                "seawater": {"absolute_salinity": 35},
+            },
+            "temperature: has 2 values",
+        ),
+        ({"temperature": "-2 parsecs", "seawater": {"absolute_salinity": 35}}, "temperature"),
+    ],
+    ids=[
+        "above-eutectic",
+        "below-eutectic",
+        "seawater-too-cold",
+        "salinity-too-high",
+        "no-mixture",
+        "two-mixtures",
+        "unknown-solute",
+        "composition-not-taken",
+        "batch-lengths",
+        "bad-unit",
+    ],
+)
+def test_bad_input_names_the_field(client: TestClient, body: dict[str, Any], field: str) -> None:
+    response = _post(client, body)
+    assert response.status_code == 422, response.text
+    assert response.headers["content-type"].startswith("application/problem+json")
+    assert field in response.text
+
+
+def test_get_refuses_a_missing_mass_fraction(client: TestClient) -> None:
+    response = client.get(URL, params={"temperature": "-2 degC", "solute": "sucrose"})
+    assert response.status_code == 422
+    assert "solute.mass_fraction" in response.text
+
+
+def test_sucrose_answer_carries_the_freeze_concentration_limit(client: TestClient) -> None:
+    response = _post(
+        client, {"temperature": "-5 degC", "solute": {"name": "sucrose", "mass_fraction": 0.25}}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    limit = answer["freeze_concentration_limit"]
+    assert limit["maximally_freeze_concentrated"]["concentration"]["value"] == 0.8
+    assert "Gordon-Taylor" in limit["source"]
+    assert "above-freeze-concentration-limit" in [w["code"] for w in answer["warnings"]]
+    salt = _post(
+        client, {"temperature": "-5 degC", "solute": {"name": "glycerol", "mass_fraction": 0.1}}
+    )
+    assert salt.json()["freeze_concentration_limit"] is None
