@@ -104,3 +104,16 @@ def test_an_unexpected_failure_is_a_problem_document_with_the_request_id(
     assert response.headers["content-type"].startswith("application/problem+json")
     assert response.json()["request_id"] == "trace-42"
     assert response.headers["x-request-id"] == "trace-42"
+
+
+@pytest.mark.parametrize(
+    "moment",
+    ["9999-12-31T23:59:59-12:00", "0001-01-01T00:00:00+12:00", "9999-12-31T23:59:59.999999Z"],
+)
+def test_a_time_at_the_end_of_representable_time_is_not_a_store_failure(
+    client: TestClient, moment: str
+) -> None:
+    response = client.get("/v1/calculations", params={"since": moment})
+    assert response.status_code in (200, 422), response.text
+    if response.status_code == 422:
+        assert response.json()["errors"][0]["field"] == "since"

@@ -54,11 +54,23 @@ def _iso_8601_only(value: object) -> object:
 IsoTime = Annotated[datetime, BeforeValidator(_iso_8601_only)]
 
 
-def _aware(moment: datetime | None) -> datetime | None:
-    """Read a time without an offset as UTC."""
-    if moment is None or moment.tzinfo is not None:
-        return moment
-    return moment.replace(tzinfo=UTC)
+def _aware(moment: datetime | None, field: str) -> datetime | None:
+    """Read a time without an offset as UTC; a time UTC cannot represent is a 422."""
+    if moment is None:
+        return None
+    if moment.tzinfo is None:
+        return moment.replace(tzinfo=UTC)
+    try:
+        return moment.astimezone(UTC)
+    except OverflowError:
+        detail = f"{field} lies outside the times UTC can represent (years 1 to 9999)"
+        raise ProblemError(
+            422,
+            "invalid-time",
+            "Invalid time",
+            detail,
+            [FieldError(field=field, message=detail, value=moment.isoformat())],
+        ) from None
 
 
 def _summary(item: RecordSummary) -> dict[str, Any]:
@@ -137,8 +149,8 @@ def list_calculations(
         page = _keeper(request).store.list_records(
             kind=kind,
             key_id=key_id,
-            since=_aware(since),
-            until=_aware(until),
+            since=_aware(since, "since"),
+            until=_aware(until, "until"),
             limit=limit,
             cursor=cursor,
         )
