@@ -126,6 +126,11 @@ class Settings(BaseSettings):
         "sqlite:///tripoint-records.sqlite3",
         description="Where calculation records go: an SQLite file or a PostgreSQL database.",
     )
+    records_own_key_only: bool = Field(
+        False,
+        description="With API keys on: a key lists and reads only the records made with it "
+        "(otherwise every key sees every record).",
+    )
     retention_days: int = Field(
         365, ge=0, le=36_500, description="Days a calculation record is kept; 0 keeps forever."
     )

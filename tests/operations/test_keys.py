@@ -93,3 +93,29 @@ def test_keys_on_is_logged_without_the_keys(
     for record in caplog.records:
         assert KEY not in record.getMessage()
         assert KEY not in str(getattr(record, "fields", ""))
+
+
+@pytest.mark.parametrize("own_only", [False, True], ids=["shared", "own-key-only"])
+def test_records_seen_by_key(tmp_path: Path, own_only: bool) -> None:
+    first = {"Authorization": f"Bearer {KEY}"}
+    second = {"Authorization": f"Bearer {OTHER_KEY}"}
+    with running_client(
+        tmp_path, api_keys=f"{KEY},{OTHER_KEY}", records_own_key_only=own_only
+    ) as client:
+        made = client.post("/v1/testing/recorded", json={"temperature": 300.0}, headers=first)
+        calculation_id = made.json()["meta"]["calculation_id"]
+        by_owner = client.get(f"/v1/calculations/{calculation_id}", headers=first)
+        by_other = client.get(f"/v1/calculations/{calculation_id}", headers=second)
+        listed_by_other = client.get("/v1/calculations", headers=second).json()["items"]
+        owner_key_id = by_owner.json()["key_id"]
+        asked_for_owner = client.get(
+            "/v1/calculations", params={"key_id": owner_key_id}, headers=second
+        ).json()["items"]
+    assert by_owner.status_code == 200
+    if own_only:
+        assert by_other.status_code == 404
+        assert listed_by_other == [] and asked_for_owner == []
+    else:
+        assert by_other.status_code == 200
+        assert [item["calculation_id"] for item in listed_by_other] == [calculation_id]
+        assert len(asked_for_owner) == 1

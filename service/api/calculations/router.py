@@ -73,6 +73,15 @@ def _aware(moment: datetime | None, field: str) -> datetime | None:
         ) from None
 
 
+def _own_key_only(request: Request) -> str | None:
+    """The caller's key id when records are kept per key (setting
+    TRIPOINT_RECORDS_OWN_KEY_ONLY with keys on), else None."""
+    if not request.app.state.settings.records_own_key_only:
+        return None
+    key_id: str | None = getattr(request.state, "api_key_id", None)
+    return key_id
+
+
 def _summary(item: RecordSummary) -> dict[str, Any]:
     return {
         "calculation_id": item.calculation_id,
@@ -102,6 +111,9 @@ def get_calculation(
         record = _keeper(request).store.get(calculation_id)
     except StoreUnavailableError as error:
         raise _unavailable(error) from None
+    own = _own_key_only(request)
+    if record is not None and own is not None and record.key_id != own:
+        record = None  # another key's record: as if it did not exist
     if record is None:
         raise ProblemError(
             404,
@@ -145,6 +157,11 @@ def list_calculations(
 ) -> Any:
     """Summaries (id, kind, time, versions, key id) of stored calculations. Fetch one with
     `GET /v1/calculations/{calculation_id}` for its inputs and answer."""
+    own = _own_key_only(request)
+    if own is not None:
+        if key_id is not None and key_id != own:
+            return CalculationListPublic(items=[], next_cursor=None)
+        key_id = own
     try:
         page = _keeper(request).store.list_records(
             kind=kind,
