@@ -79,6 +79,16 @@ _ABSOLUTE_SCALE: Final = 1e-10
 _WATER_LEFT: Final = 1e-3
 """Fraction of the initial water below which the simulation stops (water exhausted)."""
 _MAX_SEGMENTS: Final = 200
+_FLASH_BAND: Final = 1e-9
+_CONDENSING_BAND: Final = 1e-12
+"""Hysteresis of the boiling switch. Boiling starts when the chamber pressure is
+``_FLASH_BAND`` of the product's vapor pressure below it; it stops when the evaporation rate
+falls below minus ``_CONDENSING_BAND`` times the water mass, per second. Without the band a
+product at rest on the boundary (pump at its ultimate pressure, condenser at the product's
+vapor pressure, no heat gain: both switching functions exactly zero) would switch regimes at
+one instant forever. The band moves the flash point by 1e-9 of the pressure (about 1e-8 s
+for a pump-down at 100 Pa/s) and lets at most 1e-12 kg/s per kg of water condense back on
+the product before it counts as sealed (under 2e-9 of the water in 30 min)."""
 _LATENT_SCALE: Final = 3.0e6
 """J/kg, scale of the product energy for the absolute tolerances."""
 _LIQUID_VOLUME: Final = 1.0e-3
@@ -124,14 +134,16 @@ def _event_functions(
     if regime == "sealed" or (regime == "kinetic" and "flash-point" not in run.fired):
         events["flash-point"] = _event(
             lambda t, y: (
-                model.rates(y).total_pressure - model.rates(y).product.equilibrium_pressure
+                model.rates(y).total_pressure
+                - (1.0 - _FLASH_BAND) * model.rates(y).product.equilibrium_pressure
             ),
             terminal=regime == "sealed",
             direction=-1.0,
         )
     if regime == "boiling":
+        condensing = _CONDENSING_BAND * load.water_mass
         events["boiling-stops"] = _event(
-            lambda t, y: model.rates(y).evaporation, terminal=True, direction=-1.0
+            lambda t, y: model.rates(y).evaporation + condensing, terminal=True, direction=-1.0
         )
     if "freezing-starts" not in run.fired:
         events["freezing-starts"] = _event(
