@@ -11,6 +11,7 @@ import numpy as np
 from scipy.integrate import solve_ivp
 from scipy.optimize import brentq
 
+from service.core.deadline import check_deadline
 from service.core.drying.cases import PrimaryDryingCase
 from service.core.drying.front import (
     STATUS_FRONT_AT_TRIPLE_POINT,
@@ -228,6 +229,7 @@ def _integrate(run: _Run) -> tuple[_Solution, float, bool, int]:
     steps = 0
 
     def rate(time: float, state: FloatArray) -> FloatArray:
+        check_deadline()  # a caller's time limit stops the integration here
         solved, _ = run.front(np.array([time]), state)
         return -solved.sublimation_rate
 

@@ -12,12 +12,14 @@ M. J. Pikal, J. Parenter. Sci. Technol. 39(3), 115-139 (1985); the figure recall
 from __future__ import annotations
 
 import dataclasses
+import time
 
 import numpy as np
 import pytest
 from scipy.integrate import quad, simpson
 from scipy.optimize import brentq
 
+from service.core.deadline import DeadlineExceededError, computation_deadline
 from service.core.drying import (
     DriedLayerResistance,
     DryingLoad,
@@ -235,3 +237,12 @@ def test_equipment_limit_points_must_increase() -> None:
     limit = EquipmentLimit(np.array([20.0, 5.0]), np.array([1.0, 1.0]))
     with pytest.raises(InvalidInputError, match="increasing"):
         simulate_primary_drying(_constant(263.15, 10.0, equipment_limit=limit))
+
+
+def test_a_run_stops_at_the_callers_deadline() -> None:
+    # The time limit of a request (service.core.deadline) stops the integration itself.
+    with computation_deadline(0.0), pytest.raises(DeadlineExceededError):
+        time.sleep(0.001)
+        simulate_primary_drying(_ramped())
+    with computation_deadline(60.0):  # a deadline not reached: the run completes
+        assert simulate_primary_drying(_ramped()).summary.solver_steps > 0
