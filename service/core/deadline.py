@@ -19,7 +19,14 @@ from dataclasses import dataclass
 
 from service.core.errors import TripointError
 
-__all__ = ["DeadlineExceededError", "check_deadline", "computation_deadline", "set_deadline"]
+__all__ = [
+    "DeadlineExceededError",
+    "check_deadline",
+    "computation_deadline",
+    "current_deadline",
+    "inherited_deadline",
+    "set_deadline",
+]
 
 _DEADLINE: ContextVar[tuple[float, float] | None] = ContextVar(
     "tripoint_computation_deadline", default=None
@@ -55,6 +62,26 @@ def set_deadline(seconds: float) -> None:
 def computation_deadline(seconds: float) -> Iterator[None]:
     """Run the block with a deadline ``seconds`` from now; the previous one is restored."""
     token = _DEADLINE.set((time.monotonic() + seconds, seconds))
+    try:
+        yield
+    finally:
+        _DEADLINE.reset(token)
+
+
+def current_deadline() -> tuple[float, float] | None:
+    """The current deadline as (monotonic time, seconds allowed), or None; to hand to a
+    worker process (see :func:`inherited_deadline`)."""
+    return _DEADLINE.get()
+
+
+@contextmanager
+def inherited_deadline(deadline: tuple[float, float] | None) -> Iterator[None]:
+    """Run the block under a deadline taken from :func:`current_deadline` in another process.
+
+    ``time.monotonic`` is one system-wide clock on the platforms served (Linux
+    ``CLOCK_MONOTONIC``), so the time carries over between processes of one machine.
+    """
+    token = _DEADLINE.set(deadline)
     try:
         yield
     finally:

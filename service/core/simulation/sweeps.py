@@ -20,6 +20,7 @@ from collections.abc import Sequence
 from concurrent.futures import ProcessPoolExecutor
 from typing import Any, Final
 
+from service.core.deadline import current_deadline, inherited_deadline
 from service.core.errors import OutOfRangeError, TripointError
 from service.core.simulation.inputs import VacuumChamberCase, validate_case
 from service.core.simulation.results import VacuumChamberResult
@@ -49,11 +50,12 @@ def _pool(workers: int) -> ProcessPoolExecutor:
         return pool
 
 
-def _run(case: VacuumChamberCase) -> tuple[str, Any]:
-    """One simulation in a worker; a core error travels as its class and fields (the
-    errors' own pickling would lose their fields)."""
+def _run(case: VacuumChamberCase, deadline: tuple[float, float] | None) -> tuple[str, Any]:
+    """One simulation in a worker, under the caller's deadline; a core error travels as its
+    class and fields (the errors' own pickling would lose their fields)."""
     try:
-        return "result", simulate_vacuum_chamber(case)
+        with inherited_deadline(deadline):
+            return "result", simulate_vacuum_chamber(case)
     except TripointError as error:
         fields = {item.name: getattr(error, item.name) for item in dataclasses.fields(error)}  # type: ignore[arg-type]
         return "error", (type(error), fields)
@@ -105,7 +107,10 @@ def simulate_vacuum_chambers(
             except TripointError as error:
                 raise _with_index(error, named(index)) from None
         return results
-    answers = list(_pool(workers).map(_run, cases, chunksize=_CHUNK))
+    # The workers stop at the caller's deadline too (a sweep past the time limit frees the
+    # pool instead of running on).
+    deadline = current_deadline()
+    answers = list(_pool(workers).map(_run, cases, [deadline] * len(cases), chunksize=_CHUNK))
     results = []
     for index, (kind, payload) in enumerate(answers):
         if kind == "error":

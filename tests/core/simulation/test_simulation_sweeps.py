@@ -3,10 +3,12 @@ core error raised in a worker comes back as the same error with its fields and i
 
 from __future__ import annotations
 
+import time
 from dataclasses import replace
 
 import pytest
 
+from service.core.deadline import DeadlineExceededError, computation_deadline
 from service.core.errors import OutOfRangeError, UnsupportedStateError
 from service.core.simulation import Chamber, Product, Pump, VacuumChamberCase
 from service.core.simulation.sweeps import simulate_vacuum_chambers
@@ -48,3 +50,14 @@ def test_worker_error_comes_back_whole(workers: int) -> None:
         simulate_vacuum_chambers([CASE, boiling], workers=workers)
     assert caught.value.variable == "chamber.initial_pressure"
     assert "vapor pressure" in caught.value.detail
+
+
+@pytest.mark.parametrize("workers", [1, 2])
+def test_the_callers_deadline_stops_the_workers_too(workers: int) -> None:
+    # A deadline already passed: every case stops at its first step, in the worker
+    # processes as in the calling thread (the deadline travels with each case).
+    with computation_deadline(0.0), pytest.raises(DeadlineExceededError):
+        time.sleep(0.001)
+        simulate_vacuum_chambers(CASES, workers=workers)
+    with computation_deadline(600.0):
+        assert len(simulate_vacuum_chambers(CASES, workers=workers)) == len(CASES)
