@@ -39,7 +39,7 @@ from numpy.typing import ArrayLike
 
 from service.core.errors import InvalidInputError
 from service.core.properties.constants import MOLAR_MASS
-from service.core.solutions.aqueous import NAMED_SOLUTION_MODELS, SolutionModel
+from service.core.solutions.aqueous import NAMED_SOLUTION_MODELS, SolutionModel, solution_model
 
 __all__ = [
     "NAMED_SOLUTES",
@@ -113,7 +113,9 @@ def named_solute(
     mass_fraction : array_like
         Solute mass / solution mass.
     model : {"non-ideal", "ideal"}
-        The solute's published activity model (default) or the ideal (Raoult) solution.
+        The solute's published activity model (default), taken to its range, or the
+        ideal (Raoult) solution with the solute's van 't Hoff factor, taken to the
+        solute's eutectic where it has one (sodium chloride: w = 0.233).
 
     Raises
     ------
@@ -127,7 +129,11 @@ def named_solute(
         raise InvalidInputError(
             "solute", f"unknown solute {name!r}; known: {known}", name
         ) from error
-    chosen = entry.activity_model if model == "non-ideal" else None
+    chosen: SolutionModel | None = solution_model(name, model)
+    if model == "ideal" and not NAMED_SOLUTION_MODELS[name].eutectic:
+        chosen = None  # the plain ideal solution, not held to the non-ideal model's fit range
+    # The ideal model of a solute with a eutectic keeps that limit (sodium chloride: below
+    # w = 0.233 hydrohalite crystallizes, whatever the activity model).
     return replace(entry, mass_fraction=mass_fraction, activity_model=chosen)
 
 

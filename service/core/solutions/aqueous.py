@@ -115,6 +115,9 @@ class SolutionModel:
         K of the Norrish equation (``model == "norrish"``).
     pitzer : PitzerParameters or None
         The Pitzer parameters (``model == "pitzer"``).
+    eutectic : bool
+        Whether ``maximum_mass_fraction`` is a eutectic (a phase limit: below it the solute
+        crystallizes, whatever the activity model) rather than the model's fitted range.
     """
 
     name: str
@@ -126,6 +129,7 @@ class SolutionModel:
     source: str
     norrish_constant: float = 0.0
     pitzer: PitzerParameters | None = None
+    eutectic: bool = False
 
     def molality(self, mass_fraction: FloatArray) -> FloatArray:
         """mol of solute per kg of water, from w = m_s / (m_s + m_w) < 1."""
@@ -245,6 +249,7 @@ NAMED_SOLUTION_MODELS: Final[dict[str, SolutionModel]] = {
             "w = 0.233"
         ),
         pitzer=_PITZER_NACL,
+        eutectic=True,
     ),
     # Specific heats of the solutes near 25 degC, J/(kg K), from memory (CRC Handbook of
     # Chemistry and Physics): crystalline sugars and salt, liquid glycerol and propylene
@@ -293,6 +298,7 @@ def solution_model(name: str, model: ActivityModelName = "non-ideal") -> Solutio
         van_t_hoff_factor=entry.van_t_hoff_factor,
         specific_heat=entry.specific_heat,
         maximum_mass_fraction=entry.maximum_mass_fraction,
+        eutectic=entry.eutectic,
         source=(
             f"Ideal (Raoult) solution, van 't Hoff factor {entry.van_t_hoff_factor:g} "
             "(Atkins and de Paula, Physical Chemistry, 9th ed., 2010, Sec. 5.3; from memory); "

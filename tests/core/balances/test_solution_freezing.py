@@ -123,8 +123,11 @@ def test_flash_freeze_starts_freezing_at_the_shared_freezing_point() -> None:
         pytest.param(named_solute("sucrose", 1.0), "solute.mass_fraction", id="no-water"),
         pytest.param(Solute(0.1, 0.0), "solute.molar_mass", id="zero-molar-mass"),
         pytest.param(Solute(0.1, 0.1, 0.5), "solute.van_t_hoff_factor", id="factor-below-1"),
+        pytest.param(Solute(0.5, 0.058443, 2.0), "water_activity", id="below-235K"),
         pytest.param(
-            named_solute("sodium chloride", 0.5, "ideal"), "water_activity", id="below-235K"
+            named_solute("sodium chloride", 0.25, "ideal"),
+            "solute.mass_fraction",
+            id="ideal-above-eutectic",
         ),
         pytest.param(
             named_solute("sodium chloride", 0.25), "solute.mass_fraction", id="above-eutectic"
@@ -148,3 +151,32 @@ def test_activity_above_one_and_nan_are_refused() -> None:
 def test_lowest_activity_freezes_at_the_lowest_temperature() -> None:
     value = float(ice_solution_equilibrium_temperature(lowest_log_water_activity()))
     assert value == pytest.approx(LOWEST_FREEZING_TEMPERATURE, abs=1e-8)
+
+
+def test_ideal_sodium_chloride_freezes_only_down_to_its_eutectic_composition() -> None:
+    # Below the ice-hydrohalite eutectic (w = 0.233, -21.2 degC; CRC Handbook of Chemistry
+    # and Physics, concentrative properties of aqueous NaCl, from memory) the salt
+    # crystallizes: an ideal-model flash-freeze of 3.5 % brine may end no colder than where
+    # its unfrozen solution reaches w = 0.233. That temperature, independently: Raoult's
+    # a_w = n_w / (n_w + 2 n_s) at w = 0.233, solved for ice equilibrium with iapws 1.5.5.
+    water_moles = 0.767 / MOLAR_MASS
+    ion_moles = 2.0 * 0.233 / 0.058443
+    log_activity = math.log(water_moles / (water_moles + ion_moles))
+    expected = brentq(lambda t: _iapws_log_activity(t) - log_activity, 245.0, 270.0, xtol=1e-10)
+    brine = named_solute("sodium chloride", 0.035, "ideal")
+    with pytest.raises(OutOfRangeError) as caught:
+        flash_freeze(
+            FlashFreezeCase(initial_temperature=280.0, solute=brine, final_ice_temperature=250.0)
+        )
+    assert caught.value.variable == "final_ice_temperature"
+    assert caught.value.minimum == pytest.approx(expected, abs=1e-6)
+    assert "eutectic" in caught.value.reason
+    ends = flash_freeze(
+        FlashFreezeCase(
+            initial_temperature=280.0, solute=brine, final_ice_temperature=expected + 1e-6
+        )
+    )
+    assert float(ends.final_temperature) == pytest.approx(expected + 1e-6, abs=1e-9)
+    salt = 0.035 / 0.965 * 1.0  # kg, with the case's default 1 kg of water
+    unfrozen = salt / (salt + float(ends.liquid_mass))
+    assert unfrozen == pytest.approx(0.233, abs=1e-6)  # just at the eutectic composition
