@@ -34,6 +34,23 @@ def test_freezing_temperature_matches_gsw(sea_pressure_dbar: float) -> None:
     assert np.max(np.abs(ours - reference)) < 1e-4
 
 
+@pytest.mark.parametrize("pressure", [100.0, 611.0, 1000.0])
+def test_freezing_and_brine_at_vacuum_pressures_match_gsw(pressure: float) -> None:
+    # A slurry tank under vacuum: at and below the triple-point pressure (611.657 Pa) the
+    # pure-water end of the freezing line lies a few 1e-5 K above 273.16 K; gsw takes the
+    # negative sea pressure (absolute - 101325 Pa, in dbar).
+    sea_pressure = (pressure - 101325.0) / 1e4
+    salinity = SALINITIES_G_PER_KG[1:7]
+    ours = seawater_freezing_temperature(salinity / 1000.0, pressure) - 273.15
+    reference = gsw.t_freezing(salinity, sea_pressure, 0.0)
+    assert np.max(np.abs(ours - reference)) < 1e-4
+    celsius = np.array([-0.5, -2.0, -5.0])
+    brine = brine_salinity(celsius + 273.15, pressure) * 1000.0
+    np.testing.assert_allclose(
+        brine, gsw.SA_freezing_from_t(celsius, sea_pressure, 0.0), rtol=0, atol=5e-3
+    )
+
+
 def test_standard_seawater_freezes_at_minus_1_92() -> None:
     # TEOS-10: air-free standard seawater at 101325 Pa freezes at -1.9191 degC (gsw above);
     # the target: within 0.05 K of the TEOS-10 value.
