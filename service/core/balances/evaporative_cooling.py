@@ -73,6 +73,7 @@ from service.core.properties.sources import (
     MELTING_AND_SUBLIMATION,
     PropertySource,
 )
+from service.core.solutions.lookups import solution_source
 
 __all__ = [
     "ESTIMATED_FREEZING_POINT_METHOD",
@@ -678,6 +679,7 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
             warnings.append(Advisory(code, message, indices))
 
     basis = _freezing_point_basis(case)
+    solids_model = None if case.dissolved_solids is None else case.dissolved_solids.activity_model
     # Only where the assumption can change the answer: a final temperature within
     # FREEZING_POINT_WARNING_BAND of pure water's freezing point, where a real product's
     # lower freezing point decides whether it freezes.
@@ -733,5 +735,10 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
         freezing_point_basis=basis,
         assumptions=_assumptions(case),
         warnings=tuple(warnings),
-        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
+        property_sources=(
+            IAPWS_95,
+            ICE_IH,
+            MELTING_AND_SUBLIMATION,
+            *(() if solids_model is None else (solution_source(solids_model),)),
+        ),
     )

@@ -83,6 +83,7 @@ from service.core.properties.sources import (
 )
 from service.core.solutions.aqueous import SolutionModel
 from service.core.solutions.glass import FREEZE_CONCENTRATION_DATA, GLASS_SOURCE
+from service.core.solutions.lookups import solution_source
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",
@@ -329,6 +330,12 @@ def _solute_load(
         raise replace(error, index=index) from error
     onset = _freezing_temperature(log_activity, index)
     return _SoluteLoad(mass, molar, factor, model, onset)
+
+
+def _solute_sources(case: FlashFreezeCase) -> tuple[PropertySource, ...]:
+    """The published model behind the solute's water activity, where it has one."""
+    model = None if case.solute is None else case.solute.activity_model
+    return () if model is None else (solution_source(model),)
 
 
 def _lowest_final_temperature(solute: _SoluteLoad | None) -> float:
@@ -1285,5 +1292,5 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
         heat_gained=per_case(lambda ld, o, p: sum(s.heat_gained for s in p.stages)),
         assumptions=_assumptions(case),
         warnings=_warnings(loads, outcomes, batch),
-        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
+        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, *_solute_sources(case)),
     )

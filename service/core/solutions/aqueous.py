@@ -98,7 +98,7 @@ class SolutionModel:
     ----------
     name : str
         The solute, e.g. ``"sodium chloride"``.
-    model : {"pitzer", "norrish", "ideal"}
+    model : {"pitzer", "norrish", "seawater", "ideal"}
         The activity model.
     molar_mass : float
         kg/mol.
@@ -121,7 +121,7 @@ class SolutionModel:
     """
 
     name: str
-    model: Literal["pitzer", "norrish", "ideal"]
+    model: Literal["pitzer", "norrish", "seawater", "ideal"]
     molar_mass: float
     van_t_hoff_factor: float
     specific_heat: float
@@ -155,6 +155,11 @@ class SolutionModel:
         molality = self.molality(w)
         if self.model == "pitzer" and self.pitzer is not None:
             return _pitzer_log_activity(self.pitzer, molality, t)
+        if self.model == "seawater":
+            # w is the absolute salinity; R13-08's own validation names the variable.
+            from service.core.solutions.seawater import seawater_log_water_activity
+
+            return seawater_log_water_activity(w, t)
         water_moles = 1.0 / MOLAR_MASS
         if self.model == "norrish":
             solute_fraction = molality / (molality + water_moles)
@@ -168,13 +173,15 @@ class SolutionModel:
     ) -> FloatArray:
         """The mass fraction w whose ln a_w(w, T) is ``log_activity`` (< 0), dimensionless.
 
-        Bisection over 0 <= w <= 0.999 (ln a_w falls as w rises in every model here), to
-        the resolution of a float (60 halvings).
+        Bisection over 0 <= w <= 0.999 (seawater: to 0.12; ln a_w falls as w rises in every
+        model here), to the resolution of a float (60 halvings).
         """
         target = np.asarray(log_activity, dtype=np.float64)
         t = np.broadcast_to(np.asarray(temperature, dtype=np.float64), target.shape)
         low = np.zeros(target.shape)
-        high = np.full(target.shape, 0.999)
+        # Seawater's Gibbs function holds only to its range (120 g/kg).
+        top = self.maximum_mass_fraction if self.model == "seawater" else 0.999
+        high = np.full(target.shape, top)
         for _ in range(_BISECTIONS):
             middle = 0.5 * (low + high)
             above = self.log_water_activity(middle, t) > target
@@ -259,6 +266,24 @@ NAMED_SOLUTION_MODELS: Final[dict[str, SolutionModel]] = {
     "fructose": _norrish("fructose", 0.180156, 2.25, 1265.0, 0.3),
     "glycerol": _norrish("glycerol", 0.092094, 1.16, 2430.0, 0.4),
     "propylene glycol": _norrish("propylene glycol", 0.076095, 4.0, 2500.0, 0.3),
+    "seawater": SolutionModel(
+        name="seawater",
+        model="seawater",
+        # Mean molar mass of sea salt of the Reference Composition, 31.4038218 g/mol
+        # (Millero et al. 2008, Deep-Sea Res. I 55:50-72; from memory): the ideal model's
+        # particle mass, one particle per "mole" of sea salt.
+        molar_mass=0.0314038218,
+        van_t_hoff_factor=1.0,
+        specific_heat=0.0,
+        maximum_mass_fraction=0.12,
+        source=(
+            "Seawater by the IAPWS R13-08 (2008) saline Gibbs function (TEOS-10) with "
+            "IAPWS-95 water: water activity at the absolute salinity w (kg/kg), 0 to 0.12; "
+            "in the balances without heat of mixing and with no heat capacity of its own "
+            "for the sea salt (the brine's specific heat comes out about 1 % above "
+            "R13-08's at 35 g/kg)"
+        ),
+    ),
 }
 """The non-ideal model of each named solute, with its range and source."""
 

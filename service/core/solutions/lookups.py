@@ -98,7 +98,11 @@ _SEAWATER_ASSUMPTIONS: Final = (
 
 def solution_source(model: SolutionModel) -> PropertySource:
     """The published model behind a solute's water activity."""
-    return {"pitzer": _PITZER_SOURCE, "norrish": _NORRISH_SOURCE}.get(model.model, _IDEAL_SOURCE)
+    return {
+        "pitzer": _PITZER_SOURCE,
+        "norrish": _NORRISH_SOURCE,
+        "seawater": SEAWATER_SOURCE,
+    }.get(model.model, _IDEAL_SOURCE)
 
 
 @dataclass(frozen=True)
@@ -255,6 +259,14 @@ def ice_fraction_lookup(
         ]
     else:
         assert solute_name is not None
+        if solute_name == "seawater":
+            raise InvalidInputError(
+                "solute.name",
+                "for seawater give `seawater` with its `absolute_salinity`: the lookup then "
+                "uses the whole IAPWS R13-08 Gibbs function (the named solute `seawater` is "
+                "its water activity only, for the balances)",
+                solute_name,
+            )
         chosen = solution_model(solute_name, model)
         fraction = 0.0 if mass_fraction is None else mass_fraction
         result = solution_freezing(chosen, fraction, t, pressure)

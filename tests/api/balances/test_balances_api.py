@@ -745,3 +745,29 @@ def test_answers_hold_only_finite_numbers(client: TestClient) -> None:
         numbers = np.asarray(_numbers(answer))
         assert numbers.size > 20
         assert np.isfinite(numbers).all()
+
+
+def test_flash_freeze_of_seawater_as_typed(client: TestClient) -> None:
+    # A vacuum slurry tank of standard seawater: the salinity as typed in g/kg, the answer
+    # equal to the core's (source: the core) and naming the seawater release.
+    body = {
+        "initial_temperature": "12 degC",
+        "water_mass": "100 kg",
+        "solute": {"name": "seawater", "mass_fraction": "35.16504 g/kg"},
+        "final_ice_temperature": "-2 degC",
+    }
+    response = client.post("/v1/balances/flash-freeze", json=body)
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    core = flash_freeze(
+        FlashFreezeCase(
+            initial_temperature=285.15,
+            water_mass=100.0,
+            solute=named_solute("seawater", 0.03516504),
+            final_ice_temperature=271.15,
+        )
+    )
+    assert answer["ice_mass"]["value"] == pytest.approx(float(core.ice_mass), rel=1e-12)
+    assert answer["ice_mass"]["value"] > 1.0
+    assert any(source["release"] == "IAPWS R13-08" for source in answer["property_sources"])
+    assert any("R13-08" in line for line in answer["assumptions"])

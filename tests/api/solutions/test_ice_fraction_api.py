@@ -148,6 +148,10 @@ def test_csv_batch(client: TestClient) -> None:
             "temperature: has 2 values",
         ),
         ({"temperature": "-2 parsecs", "seawater": {"absolute_salinity": 35}}, "temperature"),
+        (
+            {"temperature": "-2 degC", "solute": {"name": "seawater", "mass_fraction": 0.035}},
+            "solute.name",
+        ),
     ],
     ids=[
         "above-eutectic",
@@ -160,6 +164,7 @@ def test_csv_batch(client: TestClient) -> None:
         "composition-not-taken",
         "batch-lengths",
         "bad-unit",
+        "seawater-as-solute-points-to-seawater",
     ],
 )
 def test_bad_input_names_the_field(client: TestClient, body: dict[str, Any], field: str) -> None:
