@@ -21,7 +21,7 @@ STANDARD_SALINITY = 0.03516504  # kg/kg, TEOS-10 standard seawater
 
 def _sea_pressure_dbar(temperature: float) -> float:
     """The load's vapor pressure (ice's sublimation pressure, R14-08) as gsw's sea pressure."""
-    return (_Sublimation_Pressure(temperature) * 1e6 - 101325.0) / 1e4
+    return (float(_Sublimation_Pressure(temperature)) * 1e6 - 101325.0) / 1e4
 
 
 @pytest.mark.parametrize("salinity", [0.010, STANDARD_SALINITY, 0.060])
