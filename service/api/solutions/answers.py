@@ -57,10 +57,19 @@ def ice_fraction_answer(
         "freezing_point": output(states.freezing_point, Dimension.TEMPERATURE),
         "ice_fraction": output(states.ice_mass_fraction, Dimension.DIMENSIONLESS),
         "unfrozen_water": output(states.unfrozen_water_fraction, Dimension.DIMENSIONLESS),
-        "unfrozen_concentration": output(states.unfrozen_concentration, Dimension.DIMENSIONLESS),
+        "unfrozen_concentration": (
+            None
+            if states.unfrozen_concentration is None
+            else output(states.unfrozen_concentration, Dimension.DIMENSIONLESS)
+        ),
         "specific_enthalpy": output(states.specific_enthalpy, Dimension.SPECIFIC_ENERGY),
         "vapor_pressure": output(states.vapor_pressure, Dimension.PRESSURE),
         "water_activity": output(states.water_activity, Dimension.DIMENSIONLESS),
+        "apparent_specific_heat": (
+            None
+            if states.apparent_specific_heat is None
+            else output(states.apparent_specific_heat, Dimension.SPECIFIC_ENTROPY)
+        ),
         "freeze_concentration_limit": _limit(states, unit_set, output),
         **envelope(
             unit_set=unit_set,

@@ -11,6 +11,7 @@ from service.api.http.limits import check_batch_size
 from service.api.http.models import QuantityValue, QuantityValues
 from service.api.http.quantities import ParsedQuantity, read_quantity, require_exactly_one
 from service.api.http.units import Dimension, parse_quantity_text
+from service.core.balances.food_composition import Composition
 from service.core.errors import InvalidInputError
 from service.core.properties.phase import FloatArray
 from service.settings import Settings
@@ -31,6 +32,8 @@ class IceFractionInputs:
     model: str
     absolute_salinity: FloatArray | None
     is_array: bool
+    composition: Composition | None = None
+    freezing_point: FloatArray | None = None
 
 
 def _has_unit(raw: Any) -> bool:
@@ -60,14 +63,37 @@ def read_ice_fraction(
     absolute_salinity: Any,
     solute_field: str = "solute",
     salinity_field: str = "seawater.absolute_salinity",
+    composition: dict[str, Any] | None = None,
+    freezing_point: Any = None,
 ) -> IceFractionInputs:
-    """Read and check the inputs (exactly one mixture; equal batch lengths or one value)."""
-    require_exactly_one((solute_field, solute_name), ("seawater", absolute_salinity))
+    """Read and check the inputs (exactly one mixture; equal batch lengths or one value).
+
+    ``composition`` maps component names to their raw mass fractions (one value each)."""
+    if composition is None:
+        require_exactly_one((solute_field, solute_name), ("seawater", absolute_salinity))
+    elif solute_name is not None or absolute_salinity is not None:
+        raise InvalidInputError(
+            f"{solute_field}, seawater, composition",
+            "give exactly one of solute, seawater or composition",
+        )
     t = read_quantity(temperature, field="temperature", dimension=Dimension.TEMPERATURE)
     p = read_quantity(pressure, field="pressure", dimension=Dimension.PRESSURE)
     parsed = {"temperature": t, "pressure": p}
-    fraction = salinity = None
-    if absolute_salinity is not None:
+    fraction = salinity = onset = None
+    food = None
+    if composition is not None:
+        food = Composition(**{name: _one_fraction(raw, name) for name, raw in composition.items()})
+        if freezing_point is None:
+            raise InvalidInputError(
+                "freezing_point",
+                "required with a composition: the food's initial freezing point (measured, "
+                "or from a handbook table of foods)",
+            )
+        onset = read_quantity(
+            freezing_point, field="freezing_point", dimension=Dimension.TEMPERATURE
+        )
+        parsed["freezing_point"] = onset
+    elif absolute_salinity is not None:
         salinity = _read_salinity(absolute_salinity, salinity_field)
         parsed[salinity_field] = salinity
     else:
@@ -103,4 +129,15 @@ def read_ice_fraction(
         model=model,
         absolute_salinity=None if salinity is None else salinity.si,
         is_array=any(item.is_array for item in parsed.values()),
+        composition=food,
+        freezing_point=None if onset is None else onset.si,
     )
+
+
+def _one_fraction(raw: Any, name: str) -> float:
+    """One mass fraction of the composition (unit 1, or a unit such as %)."""
+    field = f"composition.{name}"
+    parsed = read_quantity(raw, field=field, dimension=Dimension.DIMENSIONLESS)
+    if parsed.is_array or parsed.si.size != 1:
+        raise InvalidInputError(field, "one value: a batch runs over temperature", None)
+    return float(parsed.si[0])

@@ -17,7 +17,12 @@ from service.api.http.responses import FastJSONResponse
 from service.api.http.units import UnitSet
 from service.api.solutions.answers import ice_fraction_answer
 from service.api.solutions.requests import IceFractionInputs, read_ice_fraction
-from service.api.solutions.schemas import IceFractionCreate, IceFractionPublic, IceFractionQuery
+from service.api.solutions.schemas import (
+    COMPOSITION_FIELDS,
+    IceFractionCreate,
+    IceFractionPublic,
+    IceFractionQuery,
+)
 from service.core.solutions.aqueous import ActivityModelName
 from service.core.solutions.lookups import ice_fraction_lookup
 
@@ -32,6 +37,8 @@ def _answer(inputs: IceFractionInputs, unit_set: UnitSet) -> dict[str, Any]:
         model=cast(ActivityModelName, inputs.model),
         absolute_salinity=inputs.absolute_salinity,
         pressure=inputs.pressure,
+        composition=inputs.composition,
+        freezing_point=inputs.freezing_point,
     )
     return ice_fraction_answer(result, unit_set, as_array=inputs.is_array)
 
@@ -41,12 +48,12 @@ def _answer(inputs: IceFractionInputs, unit_set: UnitSet) -> dict[str, Any]:
     operation_id="post_ice_fraction",
     response_model=IceFractionPublic,
     responses=problem_responses(413, 422, 503),
-    summary="Ice fraction of a freezing solution or seawater, batch",
+    summary="Ice fraction of a freezing solution, seawater or food, batch",
 )
 def post_ice_fraction(request: Request, body: IceFractionCreate) -> Any:
     """Freezing point, ice per kg of mixture, unfrozen water and its concentration, enthalpy
-    and vapor pressure at each temperature, for a named solute (non-ideal model by default)
-    or seawater (IAPWS R13-08)."""
+    and vapor pressure at each temperature, for a named solute (non-ideal model by default),
+    seawater (IAPWS R13-08) or a food by its composition and initial freezing point."""
     inputs = read_ice_fraction(
         request,
         temperature=body.temperature,
@@ -55,6 +62,12 @@ def post_ice_fraction(request: Request, body: IceFractionCreate) -> Any:
         mass_fraction=None if body.solute is None else body.solute.mass_fraction,
         model="non-ideal" if body.solute is None else body.solute.model,
         absolute_salinity=None if body.seawater is None else body.seawater.absolute_salinity,
+        composition=(
+            None
+            if body.composition is None
+            else {name: getattr(body.composition, name) for name in COMPOSITION_FIELDS}
+        ),
+        freezing_point=body.freezing_point,
     )
     return FastJSONResponse(_answer(inputs, body.output_units))
 

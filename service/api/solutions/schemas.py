@@ -6,10 +6,12 @@ from typing import Literal
 
 from pydantic import Field
 
+from service.api.balances.schemas import CompositionInput
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.units import UnitSet
 
 __all__ = [
+    "COMPOSITION_FIELDS",
     "IceFractionCreate",
     "IceFractionPublic",
     "IceFractionQuery",
@@ -40,6 +42,13 @@ _SALINITY = (
     "above 0, at most 120 g/kg."
 )
 _UNITS = "Unit set of the results: `SI`, `engineering` or `US`."
+_FREEZING_POINT = (
+    "With `composition`: the food's initial freezing point (measured, or from a handbook "
+    "table of foods), a number in K or with a unit (`-1.7 degC`); 253.15 K to 273.16 K."
+)
+
+COMPOSITION_FIELDS = ("water", "protein", "fat", "carbohydrate", "fiber", "ash")
+"""The components of a food's composition, as the request names them."""
 
 
 class SolutionSoluteInput(ApiModel):
@@ -61,11 +70,18 @@ class SeawaterInput(ApiModel):
 
 class IceFractionCreate(ApiModel):
     """Ice and unfrozen phase at given temperatures: give `temperature` and exactly one of
-    `solute` or `seawater`."""
+    `solute`, `seawater` or `composition` (a food, with its `freezing_point`)."""
 
     temperature: QuantityInput = Field(description=_TEMPERATURE)
     solute: SolutionSoluteInput | None = Field(None, description="A named solute in water.")
     seawater: SeawaterInput | None = Field(None, description="Seawater instead of a solute.")
+    composition: CompositionInput | None = Field(
+        None,
+        description="A food by its proximate composition instead (Schwartzberg's model: "
+        "bound water 0.4 kg per kg of protein, one ideal effective solute); needs "
+        "`freezing_point`.",
+    )
+    freezing_point: QuantityInput | None = Field(None, description=_FREEZING_POINT)
     pressure: QuantityInput = Field(101325.0, description=_PRESSURE)
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
 
@@ -108,7 +124,7 @@ class FreezeConcentrationOut(ApiModel):
 class IceFractionPublic(Envelope):
     """Ice fraction, unfrozen phase, enthalpy and vapor pressure of the mixture."""
 
-    mixture: str = Field(description="`seawater` or the solute's name.")
+    mixture: str = Field(description="`seawater`, `food` or the solute's name.")
     model: str = Field(description="The activity model with its source and valid range.")
     temperature: QuantityOutput
     pressure: QuantityOutput
@@ -117,8 +133,8 @@ class IceFractionPublic(Envelope):
     unfrozen_water: QuantityOutput = Field(
         description="kg of liquid water per kg of the whole mixture."
     )
-    unfrozen_concentration: QuantityOutput = Field(
-        description="Solute (salt) mass fraction of the unfrozen phase."
+    unfrozen_concentration: QuantityOutput | None = Field(
+        description="Solute (salt) mass fraction of the unfrozen phase; null for a food."
     )
     specific_enthalpy: QuantityOutput = Field(
         description="Enthalpy per kg of mixture on the stated reference state (SI: J/kg)."
@@ -128,6 +144,11 @@ class IceFractionPublic(Envelope):
         "else of the unfrozen solution (SI: Pa)."
     )
     water_activity: QuantityOutput = Field(description="Water activity of the unfrozen phase.")
+    apparent_specific_heat: QuantityOutput | None = Field(
+        None,
+        description="For a food: dh/dT at constant pressure, the latent heat of the ice that "
+        "forms included (SI: J/(kg K)); null for solutions and seawater.",
+    )
     freeze_concentration_limit: FreezeConcentrationOut | None = Field(
         None,
         description="For a sugar with published constants (sucrose): the glass transition of "

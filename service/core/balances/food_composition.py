@@ -42,7 +42,12 @@ from numpy.typing import ArrayLike
 from service.core.errors import InvalidInputError
 from service.core.properties.phase import FloatArray
 
-__all__ = ["CHOI_OKOS_REFERENCE", "Composition", "solids_specific_heat"]
+__all__ = [
+    "CHOI_OKOS_REFERENCE",
+    "Composition",
+    "solids_sensible_enthalpy",
+    "solids_specific_heat",
+]
 
 CHOI_OKOS_REFERENCE: Final = (
     "Choi, Y. and Okos, M.R. (1986), Effects of temperature and composition on the thermal "
@@ -127,4 +132,34 @@ def solids_specific_heat(fractions: dict[str, float], temperature: FloatArray) -
     total = np.zeros_like(t)
     for name, (a, b, c) in _COEFFICIENTS.items():
         total = total + fractions[name] * (a + b * t + c * t * t)
+    return np.asarray(total, dtype=np.float64)
+
+
+def solids_sensible_enthalpy(
+    fractions: dict[str, float], temperature: FloatArray, reference: float
+) -> FloatArray:
+    """Sensible enthalpy of the non-water part from ``reference`` to ``temperature``, J/kg of
+    product: the exact integral of :func:`solids_specific_heat` (Choi and Okos, 1986).
+
+    Parameters
+    ----------
+    fractions : dict
+        Mass fractions from :meth:`Composition.fractions`.
+    temperature : ndarray
+        K; the polynomials were fitted from -40 to 150 degC.
+    reference : float
+        K, where the enthalpy is zero.
+
+    Returns
+    -------
+    ndarray
+        sum_i x_i integral c_i dt, J/kg per kg of product (water excluded).
+    """
+    t = np.asarray(temperature, dtype=np.float64) - _CELSIUS_OFFSET
+    t0 = reference - _CELSIUS_OFFSET
+    total = np.zeros_like(t)
+    for name, (a, b, c) in _COEFFICIENTS.items():
+        total = total + fractions[name] * (
+            a * (t - t0) + b / 2.0 * (t**2 - t0**2) + c / 3.0 * (t**3 - t0**3)
+        )
     return np.asarray(total, dtype=np.float64)

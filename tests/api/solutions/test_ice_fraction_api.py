@@ -194,3 +194,77 @@ def test_sucrose_answer_carries_the_freeze_concentration_limit(client: TestClien
         client, {"temperature": "-5 degC", "solute": {"name": "glycerol", "mass_fraction": 0.1}}
     )
     assert salt.json()["freeze_concentration_limit"] is None
+
+
+_LEAN_FOOD = {"water": 0.74, "protein": 0.22, "fat": "3 %", "ash": 0.01}  # invented demo
+
+
+def test_food_by_composition(client: TestClient) -> None:
+    # The wiring against the core (source: the core), and one point against Schwartzberg's
+    # equation x_ice = (x_w - 0.4 x_p)(1 - t_f/t) (ASHRAE Handbook - Refrigeration (2010),
+    # ch. 19; from memory), which the exact equilibrium follows within 1.2 % to -30 degC.
+    from service.core.balances.food_composition import Composition
+    from service.core.solutions.foods import food_freezing
+
+    body = {
+        "temperature": {"values": [5, -10], "unit": "degC"},
+        "composition": _LEAN_FOOD,
+        "freezing_point": "-1.7 degC",
+    }
+    response = _post(client, body)
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    core = food_freezing(
+        Composition(water=0.74, protein=0.22, fat=0.03, ash=0.01), 271.45, [278.15, 263.15]
+    )
+    assert answer["mixture"] == "food"
+    assert answer["ice_fraction"]["values"] == pytest.approx(list(core.ice_mass_fraction))
+    assert answer["apparent_specific_heat"]["values"] == pytest.approx(
+        list(core.apparent_specific_heat)
+    )
+    assert answer["ice_fraction"]["values"][1] == pytest.approx(
+        (0.74 - 0.4 * 0.22) * (1.0 - (-1.7) / (-10.0)), rel=0.012
+    )
+    assert answer["unfrozen_concentration"] is None
+    assert any(s["release"] == "Schwartzberg (1976)" for s in answer["property_sources"])
+
+
+@pytest.mark.parametrize(
+    ("body", "field"),
+    [
+        ({"temperature": "-5 degC", "composition": _LEAN_FOOD}, "freezing_point"),
+        (
+            {
+                "temperature": "-5 degC",
+                "composition": {**_LEAN_FOOD, "water": {"values": [0.7, 0.74]}},
+                "freezing_point": "-1.7 degC",
+            },
+            "composition.water",
+        ),
+        (
+            {
+                "temperature": "-5 degC",
+                "composition": _LEAN_FOOD,
+                "freezing_point": "1 degC",
+            },
+            "freezing_point",
+        ),
+        (
+            {
+                "temperature": "-5 degC",
+                "composition": _LEAN_FOOD,
+                "freezing_point": "-1.7 degC",
+                "seawater": {"absolute_salinity": 35},
+            },
+            "composition",
+        ),
+    ],
+    ids=["no-freezing-point", "batch-fraction", "onset-above-melting", "two-mixtures"],
+)
+def test_food_bad_input_names_the_field(
+    client: TestClient, body: dict[str, Any], field: str
+) -> None:
+    response = _post(client, body)
+    assert response.status_code == 422, response.text
+    assert response.headers["content-type"].startswith("application/problem+json")
+    assert field in response.json()["detail"]
