@@ -41,7 +41,11 @@ Goals (from the issues):
 - HTTP: a saturation lookup's median latency <= 1.3 x `/health`'s at the same
   concurrency; a 10,000-point saturation batch over HTTP (JSON both ways) <= 0.5 x
   CoolProp's in-process vector call for the same points and properties;
-- load: 64 concurrent clients for 60 s, 0 errors, server memory flat.
+- load: 64 concurrent clients for 60 s, 0 errors, server memory flat;
+- request path (server CPU per request, one keep-alive connection): `/health` <= 2 x a
+  bare Starlette route; a one-point saturation lookup <= 1.5 x a raw ASGI floor (query,
+  core lookup, orjson); a 10,000-point JSON batch <= 1.3 x the in-process core call plus
+  orjson.
 
 Each script prints "meets" or "MISSES" beside its goal.
 """

@@ -1,0 +1,219 @@
+"""Server CPU per request along the request path, against a bare framework and a raw floor.
+
+Run ``python bench/bench_request_path.py`` (``--profile`` adds a sorted cProfile of the
+in-process request path of the one-point lookup). Starts three servers on loopback, one
+uvicorn worker each: a bare Starlette app, a raw ASGI floor that reads the query, calls the
+core's saturation lookup and writes orjson (``floor_servers.py``), and tripoint itself
+(``python -m service``). One keep-alive connection sends the requests one after another;
+the figure is the server process's CPU time (user + system, from /proc) per request, best of
+three runs, so the client's own cost does not count. Scenarios: the bare route, the floor
+lookup, tripoint's ``/health``, a one-point saturation lookup (GET), a 1,000-point lookup
+(POST JSON) and a flash-freeze balance (POST). Beside them, in this process: the core's
+10,000-point saturation lookup plus orjson of its arrays, against tripoint's 10,000-point
+POST.
+
+Goals (issue: request path at the floor): ``/health`` <= 2 x the bare Starlette route; a
+one-point lookup <= 1.5 x the raw ASGI floor; a 10,000-point JSON batch <= 1.3 x the
+in-process core call plus orjson.
+"""
+
+from __future__ import annotations
+
+import cProfile
+import dataclasses
+import io
+import os
+import pstats
+import sys
+import time
+from collections.abc import Callable, Sequence
+from pathlib import Path
+from typing import Any
+
+import httpx
+import numpy as np
+import orjson
+from loopback import running_server
+
+_FOLDER = Path(__file__).resolve().parent
+_FLOOR = [sys.executable, str(_FOLDER / "floor_servers.py")]
+_RUNS = 3
+_TICKS = os.sysconf("SC_CLK_TCK")
+_REQUESTS = int(os.environ.get("TRIPOINT_BENCH_REQUESTS", "3000"))
+
+HEALTH_GOAL = 2.0
+LOOKUP_GOAL = 1.5
+BATCH_GOAL = 1.3
+
+Call = tuple[str, str, dict[str, Any] | None]
+
+
+def _cpu_seconds(pid: int) -> float:
+    """User + system CPU seconds of a process so far (/proc/<pid>/stat, fields 14 and 15)."""
+    fields = Path(f"/proc/{pid}/stat").read_text().rsplit(")", 1)[1].split()
+    return (int(fields[11]) + int(fields[12])) / _TICKS
+
+
+def _server_cpu_per_request(base_url: str, pid: int, calls: Sequence[Call], count: int) -> float:
+    """Best of three: server CPU seconds per request over ``count`` sequential requests."""
+    best = float("inf")
+    with httpx.Client(base_url=base_url, timeout=60) as client:
+        for method, path, body in calls[:3]:  # warm the route and its caches
+            client.request(method, path, json=body).raise_for_status()
+        for _ in range(_RUNS):
+            before = _cpu_seconds(pid)
+            for index in range(count):
+                method, path, body = calls[index % len(calls)]
+                client.request(method, path, json=body).raise_for_status()
+            best = min(best, (_cpu_seconds(pid) - before) / count)
+    return best
+
+
+def _lookups(prefix: str = "") -> list[Call]:
+    """One-point saturation GETs, a different temperature each time (K, plain numbers)."""
+    return [
+        ("GET", f"{prefix}/v1/properties/saturation?temperature={t:.2f}", None)
+        for t in np.linspace(280.0, 370.0, 181)
+    ]
+
+
+def _batch(points: int) -> list[Call]:
+    values = np.linspace(280.0, 370.0, points).round(4).tolist()
+    return [("POST", "/v1/properties/saturation", {"temperature": {"values": values, "unit": "K"}})]
+
+
+def _in_process_batch(points: int) -> float:
+    """CPU seconds of the core's saturation lookup plus orjson of its arrays, best of 5."""
+    from service.core.properties.lookups import saturation_lookup
+
+    temperature = np.linspace(280.0, 370.0, points).round(4)
+    best = float("inf")
+    for _ in range(5):
+        start = time.process_time()
+        states = saturation_lookup(temperature=temperature).states
+        orjson.dumps(
+            {
+                "pressure": states.pressure,
+                "liquid": dataclasses.asdict(states.liquid),
+                "vapor": dataclasses.asdict(states.vapor),
+                "latent_heat": states.latent_heat_of_vaporization,
+            },
+            option=orjson.OPT_SERIALIZE_NUMPY,
+        )
+        best = min(best, time.process_time() - start)
+    return best
+
+
+def _verdict(ratio: float, goal: float) -> str:
+    return "meets" if ratio <= goal else "MISSES"
+
+
+def _profile() -> None:
+    """cProfile of the one-point lookup through the whole app, in process: plain ASGI calls
+    (no HTTP client in the profile), sorted by cumulative time."""
+    import asyncio
+
+    from service.api.app import create_app
+
+    app = create_app()
+
+    async def receive() -> dict[str, Any]:
+        return {"type": "http.request", "body": b"", "more_body": False}
+
+    async def send(message: dict[str, Any]) -> None:
+        if message["type"] == "http.response.start" and message["status"] != 200:
+            raise RuntimeError(f"status {message['status']}")
+
+    def scope(temperature: float) -> dict[str, Any]:
+        return {
+            "type": "http",
+            "asgi": {"version": "3.0"},
+            "http_version": "1.1",
+            "method": "GET",
+            "scheme": "http",
+            "path": "/v1/properties/saturation",
+            "raw_path": b"/v1/properties/saturation",
+            "query_string": f"temperature={temperature:.2f}".encode(),
+            "root_path": "",
+            "headers": [(b"host", b"bench"), (b"accept", b"application/json")],
+            "client": ("127.0.0.1", 50000),
+            "server": ("127.0.0.1", 8000),
+            "state": {},
+        }
+
+    async def run(count: int) -> None:
+        for index in range(count):
+            await app(scope(280.0 + (index % 181) * 0.5), receive, send)
+
+    async def main() -> None:
+        async with app.router.lifespan_context(app):
+            await run(100)
+            profiler = cProfile.Profile()
+            profiler.enable()
+            await run(1000)
+            profiler.disable()
+            text = io.StringIO()
+            stats = pstats.Stats(profiler, stream=text).sort_stats("cumulative")
+            stats.print_stats(40)
+            print(text.getvalue())
+
+    asyncio.run(main())
+
+
+def main() -> int:
+    """Measure every scenario, print the table and the three goals."""
+    if "--profile" in sys.argv:
+        _profile()
+        return 0
+    rows: dict[str, float] = {}
+    scenarios: list[tuple[str, Callable[[], Any], list[Call], int]] = [
+        (
+            "bare Starlette route",
+            lambda: running_server([*_FLOOR, "--kind", "starlette"]),
+            [("GET", "/health", None)],
+            _REQUESTS,
+        ),
+        (
+            "raw ASGI floor lookup",
+            lambda: running_server([*_FLOOR, "--kind", "asgi"]),
+            _lookups(),
+            _REQUESTS,
+        ),
+    ]
+    for name, start, calls, count in scenarios:
+        with start() as server:
+            rows[name] = _server_cpu_per_request(server.base_url, server.pid, calls, count)
+    with running_server() as server:
+        for name, calls, count in (
+            ("tripoint /health", [("GET", "/health", None)], _REQUESTS),
+            ("tripoint lookup, 1 point (GET)", _lookups(), _REQUESTS),
+            ("tripoint lookup, 1,000 points (POST)", _batch(1000), max(_REQUESTS // 30, 20)),
+            (
+                "tripoint flash-freeze balance (POST)",
+                [("POST", "/v1/balances/flash-freeze", {"initial_temperature": "20 degC"})],
+                max(_REQUESTS // 30, 20),
+            ),
+            ("tripoint lookup, 10,000 points (POST)", _batch(10_000), 30),
+        ):
+            rows[name] = _server_cpu_per_request(server.base_url, server.pid, calls, count)
+    rows["in-process core + orjson, 10,000 points"] = _in_process_batch(10_000)
+    print(f"server CPU per request (best of {_RUNS}, one keep-alive connection):")
+    for name, seconds in rows.items():
+        print(f"  {name:<42} {seconds * 1e6:12.0f} us")
+    health = rows["tripoint /health"] / rows["bare Starlette route"]
+    lookup = rows["tripoint lookup, 1 point (GET)"] / rows["raw ASGI floor lookup"]
+    batch = (
+        rows["tripoint lookup, 10,000 points (POST)"]
+        / rows["in-process core + orjson, 10,000 points"]
+    )
+    for label, ratio, goal in (
+        ("/health / bare Starlette route", health, HEALTH_GOAL),
+        ("1-point lookup / raw ASGI floor", lookup, LOOKUP_GOAL),
+        ("10,000-point batch / in-process core + orjson", batch, BATCH_GOAL),
+    ):
+        print(f"{label}: {ratio:.2f} (goal <= {goal:g}) {_verdict(ratio, goal)}")
+    return 0
+
+
+if __name__ == "__main__":
+    raise SystemExit(main())
