@@ -26,7 +26,7 @@ import os
 import pstats
 import sys
 import time
-from collections.abc import Callable, Sequence
+from collections.abc import Callable, MutableMapping, Sequence
 from pathlib import Path
 from typing import Any
 
@@ -120,7 +120,7 @@ def _profile() -> None:
     async def receive() -> dict[str, Any]:
         return {"type": "http.request", "body": b"", "more_body": False}
 
-    async def send(message: dict[str, Any]) -> None:
+    async def send(message: MutableMapping[str, Any]) -> None:
         if message["type"] == "http.response.start" and message["status"] != 200:
             raise RuntimeError(f"status {message['status']}")
 
@@ -183,18 +183,17 @@ def main() -> int:
     for name, start, calls, count in scenarios:
         with start() as server:
             rows[name] = _server_cpu_per_request(server.base_url, server.pid, calls, count)
+    balance: Call = ("POST", "/v1/balances/flash-freeze", {"initial_temperature": "20 degC"})
+    health_check: Call = ("GET", "/health", None)
+    service_scenarios: list[tuple[str, list[Call], int]] = [
+        ("tripoint /health", [health_check], _REQUESTS),
+        ("tripoint lookup, 1 point (GET)", _lookups(), _REQUESTS),
+        ("tripoint lookup, 1,000 points (POST)", _batch(1000), max(_REQUESTS // 30, 20)),
+        ("tripoint flash-freeze balance (POST)", [balance], max(_REQUESTS // 30, 20)),
+        ("tripoint lookup, 10,000 points (POST)", _batch(10_000), 30),
+    ]
     with running_server() as server:
-        for name, calls, count in (
-            ("tripoint /health", [("GET", "/health", None)], _REQUESTS),
-            ("tripoint lookup, 1 point (GET)", _lookups(), _REQUESTS),
-            ("tripoint lookup, 1,000 points (POST)", _batch(1000), max(_REQUESTS // 30, 20)),
-            (
-                "tripoint flash-freeze balance (POST)",
-                [("POST", "/v1/balances/flash-freeze", {"initial_temperature": "20 degC"})],
-                max(_REQUESTS // 30, 20),
-            ),
-            ("tripoint lookup, 10,000 points (POST)", _batch(10_000), 30),
-        ):
+        for name, calls, count in service_scenarios:
             rows[name] = _server_cpu_per_request(server.base_url, server.pid, calls, count)
     rows["in-process core + orjson, 10,000 points"] = _in_process_batch(10_000)
     print(f"server CPU per request (best of {_RUNS}, one keep-alive connection):")
