@@ -957,10 +957,20 @@ def _trajectory(
     return (
         temperature,
         pressure,
-        (water_mass - water) / water_mass,
+        _without_round_off((water_mass - water) / water_mass),
         ice / water_mass,
         stage_index,
     )
+
+
+_ROUND_OFF: Final = 1e-12
+"""Fractions of the water smaller than this are round-off (the collocation reproduces the
+stage-end masses to a few ulp) and are reported as 0, never as -2e-16."""
+
+
+def _without_round_off(fraction: FloatArray) -> FloatArray:
+    """``fraction`` with round-off around zero (|x| < 1e-12) set to exactly 0."""
+    return np.where(np.abs(fraction) < _ROUND_OFF, 0.0, fraction)
 
 
 def _solve_case(case: FlashFreezeCase, index: int | None) -> tuple[_Load, _CaseOutcome]:
@@ -1265,7 +1275,7 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
             pressure=trajectory_field(1),
             evaporated_fraction_of_water=trajectory_field(2),
             ice_fraction=trajectory_field(3),
-            liquid_fraction=1.0 - trajectory_field(2) - trajectory_field(3),
+            liquid_fraction=_without_round_off(1.0 - trajectory_field(2) - trajectory_field(3)),
             stage=trajectory_field(4).astype(np.int64),
         ),
         comparison=MethodComparison(

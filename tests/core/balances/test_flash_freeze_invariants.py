@@ -44,6 +44,26 @@ def test_mass_is_conserved(initial: float, water: float, final: float) -> None:
 
 
 @_SETTINGS
+@given(initial_temperatures, water_masses, st.one_of(st.none(), ice_temperatures))
+def test_trajectory_fractions_are_never_negative(
+    initial: float, water: float, final: float | None
+) -> None:
+    # Mass fractions of the water cannot be negative; round-off (|x| < 1e-12) is reported as
+    # 0, so the trajectory starts at exactly 0 evaporated.
+    result = flash_freeze(
+        FlashFreezeCase(initial_temperature=initial, water_mass=water, final_ice_temperature=final)
+    )
+    trajectory = result.trajectory
+    for fractions in (
+        trajectory.evaporated_fraction_of_water,
+        trajectory.ice_fraction,
+        trajectory.liquid_fraction,
+    ):
+        assert np.all(fractions >= 0.0)
+    assert float(trajectory.evaporated_fraction_of_water[0]) == 0.0
+
+
+@_SETTINGS
 @given(
     initial_temperatures,
     water_masses,
