@@ -189,3 +189,17 @@ class NotConvergedError(TripointError, ArithmeticError):
             f"{self.solver} did not converge for {self.count} element(s) after "
             f"{self.iterations} iterations (largest residual {self.residual:.3g})"
         )
+
+
+@dataclass
+class WorkerLostError(TripointError, RuntimeError):
+    """A worker process of a parallel computation ended before answering (killed, for example
+    by the operating system when memory ran out); the pool is rebuilt for the next call."""
+
+    computation: str
+
+    def __post_init__(self) -> None:
+        super().__init__(str(self))
+
+    def __str__(self) -> str:
+        return f"a worker process of the {self.computation} ended before answering"

@@ -60,3 +60,28 @@ def test_deadline_check_raises_only_after_the_deadline() -> None:
         time.sleep(0.001)
         check_deadline()
     check_deadline()  # the previous (no) deadline is back
+
+
+def test_a_lost_worker_is_a_503_to_retry(
+    client: TestClient, monkeypatch: pytest.MonkeyPatch
+) -> None:
+    # A worker of the simulation pool killed mid-sweep (e.g. out of memory): the caller is
+    # told to retry (RFC 9110 15.6.4 503 with Retry-After), not handed a 500.
+    from service.api.simulations import router
+    from service.core.errors import WorkerLostError
+
+    def lost(*_: object) -> None:
+        raise WorkerLostError("simulation sweep")
+
+    monkeypatch.setattr(router, "simulate_vacuum_chambers", lost)
+    body = {
+        "chamber": {"free_volume": "1 m3"},
+        "pump": {"nominal_speed": "200 m3/h"},
+        "product": {"mass": "10 kg", "initial_temperature": "20 degC"},
+        "end_time": "10 min",
+    }
+    response = client.post("/v1/simulations/vacuum-chamber", json=body)
+    assert response.status_code == 503, response.text
+    assert response.headers["retry-after"] == "1"
+    assert response.headers["content-type"].startswith("application/problem+json")
+    assert response.json()["type"].endswith(":worker-lost")

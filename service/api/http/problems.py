@@ -21,6 +21,7 @@ from service.core.errors import (
     NotConvergedError,
     OutOfRangeError,
     UnsupportedStateError,
+    WorkerLostError,
     describe_range,
     format_amount,
     range_hint,
@@ -426,8 +427,20 @@ def install_problem_handlers(app: FastAPI) -> None:
         )
         return _render(request, problem, {"Retry-After": "1"})
 
+    async def on_worker_lost(request: Request, error: Exception) -> FastJSONResponse:
+        assert isinstance(error, WorkerLostError)
+        problem = make_problem(
+            503,
+            "worker-lost",
+            "Computation interrupted",
+            f"{str(error).capitalize()} (it may have run out of memory); the workers are "
+            "restarted. Retry, with fewer cases if it happens again.",
+        )
+        return _render(request, problem, {"Retry-After": "1"})
+
     app.add_exception_handler(ProblemError, on_problem)
     app.add_exception_handler(DeadlineExceededError, on_deadline)
+    app.add_exception_handler(WorkerLostError, on_worker_lost)
     app.add_exception_handler(NonFiniteResultError, on_non_finite)
     app.add_exception_handler(Exception, on_unexpected)
     for kind in (OutOfRangeError, InvalidInputError, UnsupportedStateError, NotConvergedError):

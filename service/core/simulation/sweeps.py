@@ -18,10 +18,11 @@ import multiprocessing
 import threading
 from collections.abc import Sequence
 from concurrent.futures import ProcessPoolExecutor
+from concurrent.futures.process import BrokenProcessPool
 from typing import Any, Final
 
 from service.core.deadline import current_deadline, inherited_deadline
-from service.core.errors import OutOfRangeError, TripointError
+from service.core.errors import OutOfRangeError, TripointError, WorkerLostError
 from service.core.simulation.inputs import VacuumChamberCase, validate_case
 from service.core.simulation.results import VacuumChamberResult
 from service.core.simulation.vacuum_chamber import simulate_vacuum_chamber
@@ -110,7 +111,18 @@ def simulate_vacuum_chambers(
     # The workers stop at the caller's deadline too (a sweep past the time limit frees the
     # pool instead of running on).
     deadline = current_deadline()
-    answers = list(_pool(workers).map(_run, cases, [deadline] * len(cases), chunksize=_CHUNK))
+    pool = _pool(workers)
+    try:
+        answers = list(pool.map(_run, cases, [deadline] * len(cases), chunksize=_CHUNK))
+    except BrokenProcessPool:
+        # A worker died (e.g. killed when memory ran out): this pool can take no more work.
+        # Forget it so that the next sweep starts a fresh one, and say so instead of failing
+        # every later sweep.
+        with _POOLS_LOCK:
+            if _POOLS.get(workers) is pool:
+                del _POOLS[workers]
+        pool.shutdown(wait=False, cancel_futures=True)
+        raise WorkerLostError("simulation sweep") from None
     results = []
     for index, (kind, payload) in enumerate(answers):
         if kind == "error":

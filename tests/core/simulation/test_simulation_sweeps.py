@@ -3,14 +3,15 @@ core error raised in a worker comes back as the same error with its fields and i
 
 from __future__ import annotations
 
+import os
 import time
 from dataclasses import replace
 
 import pytest
 
 from service.core.deadline import DeadlineExceededError, computation_deadline
-from service.core.errors import OutOfRangeError, UnsupportedStateError
-from service.core.simulation import Chamber, Product, Pump, VacuumChamberCase
+from service.core.errors import OutOfRangeError, UnsupportedStateError, WorkerLostError
+from service.core.simulation import Chamber, Product, Pump, VacuumChamberCase, sweeps
 from service.core.simulation.sweeps import simulate_vacuum_chambers
 
 CASE = VacuumChamberCase(
@@ -61,3 +62,17 @@ def test_the_callers_deadline_stops_the_workers_too(workers: int) -> None:
         simulate_vacuum_chambers(CASES, workers=workers)
     with computation_deadline(600.0):
         assert len(simulate_vacuum_chambers(CASES, workers=workers)) == len(CASES)
+
+
+def _worker_that_dies(case: VacuumChamberCase, deadline: object) -> object:
+    os._exit(1)  # as a worker killed by the operating system would end
+
+
+def test_a_lost_worker_is_reported_and_the_next_sweep_gets_a_fresh_pool(
+    monkeypatch: pytest.MonkeyPatch,
+) -> None:
+    monkeypatch.setattr(sweeps, "_run", _worker_that_dies)
+    with pytest.raises(WorkerLostError, match="simulation sweep"):
+        simulate_vacuum_chambers(CASES, workers=2)
+    monkeypatch.undo()
+    assert len(simulate_vacuum_chambers(CASES, workers=2)) == len(CASES)
