@@ -15,6 +15,7 @@ from pathlib import Path
 
 import uvicorn
 
+from service.api.http.bounded_head import BoundedHeadProtocol
 from service.api.http.observability import MULTIPROCESS_ENVIRONMENT_VARIABLE, logging_config
 from service.settings import Settings
 
@@ -63,6 +64,7 @@ def main(argv: list[str] | None = None) -> None:
             log_config=logging_config(arguments.log_level),
             access_log=False,
             timeout_graceful_shutdown=30,
+            http=BoundedHeadProtocol,  # 431 past TRIPOINT_MAX_HEADER_BYTES
         )
     finally:
         if made is not None:

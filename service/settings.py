@@ -108,6 +108,13 @@ class Settings(BaseSettings):
         ge=1024,
         description="Largest request body accepted, in bytes (above it: 413).",
     )
+    max_header_bytes: int = Field(
+        32 * 1024,
+        ge=4096,
+        le=1024 * 1024,
+        description="Largest request head (request line and header fields), in bytes (above "
+        "it: 431, connection closed).",
+    )
     max_request_seconds: float = Field(
         30.0,
         gt=0,
