@@ -201,7 +201,12 @@ CASES: list[Case] = [
         422,
         "solute.mass_fraction",
         body=_spoiled("post_ice_fraction", "temperature", "-10 degC")
-        | {"solute": {"name": "sodium chloride", "mass_fraction": 0.3}, "seawater": None},
+        | {
+            "solute": {"name": "sodium chloride", "mass_fraction": 0.3},
+            "seawater": None,
+            "composition": None,
+            "freezing_point": None,
+        },
     ),
     # state
     Case(
