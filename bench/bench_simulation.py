@@ -3,8 +3,10 @@
 The case: 0.5 m3 chamber at 1 atm, 180 m3/h pump with a 10 Pa ultimate pressure,
 1 kg of water at 20 degC, equilibrium evaporation, adiabatic: pump-down, flash point,
 cooling, freezing on the triple-point plateau, and ice cooling by sublimation for the
-rest of the hour. Reported beside it, for scale, the same case with kinetic evaporation,
-a condenser and a heat gain, and the flash-freeze balance of the same water. Not a test;
+rest of the hour. Reported beside it, for scale, the same case with kinetic evaporation
+(surface flux in series with diffusion through the chamber air: one small Newton solve per
+state evaluation), a condenser and a heat gain, and the flash-freeze balance of the same
+water. Not a test;
 run with ``.venv/bin/python bench/bench_simulation.py``.
 """
 

@@ -31,6 +31,7 @@ FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
     "W": Dimension.POWER,
     "J/(kg*K)": Dimension.SPECIFIC_ENTROPY,
     "m2": Dimension.AREA,
+    "m": Dimension.LENGTH,
     "W/K": Dimension.THERMAL_CONDUCTANCE,
     "s": Dimension.TIME,
     "kg/s": Dimension.MASS_FLOW,

@@ -159,6 +159,9 @@ def _product(product: ProductInput) -> Product:
             "product.evaporation_coefficient",
             Dimension.DIMENSIONLESS,
         ),
+        characteristic_size=_maybe(
+            product.characteristic_size, "product.characteristic_size", Dimension.LENGTH
+        ),
     )
 
 

@@ -184,8 +184,11 @@ class ProductInput(ApiModel):
     evaporation: Literal["equilibrium", "kinetic"] = Field(
         "equilibrium",
         description="`equilibrium`: the product boils once the chamber reaches its vapor "
-        "pressure and holds the chamber there. `kinetic`: Hertz-Knudsen-Langmuir flux "
-        "alpha A (p_eq - p_v) / sqrt(2 pi R T), needs `exposed_area` and "
+        "pressure and holds the chamber there (no evaporation into the air before). "
+        "`kinetic`: the Hertz-Knudsen-Langmuir surface flux alpha A (p_eq - p_i) / "
+        "sqrt(2 pi R T) in series with vapor diffusion through the chamber air (Stefan flow, "
+        "Fuller-Schettler-Giddings diffusivity, natural-convection Sherwood number of a "
+        "sphere of `characteristic_size`); needs `exposed_area` and "
         "`evaporation_coefficient`.",
     )
     exposed_area: QuantityInput | None = Field(
@@ -193,6 +196,14 @@ class ProductInput(ApiModel):
     )
     evaporation_coefficient: QuantityInput | None = Field(
         None, description=_described("Evaporation coefficient alpha (kinetic), 0 < alpha <= 1.")
+    )
+    characteristic_size: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Diameter of one item (a lettuce head, a loaf), taken as a sphere for the air's "
+            'resistance to vapor diffusion (kinetic). Default unit m (`"15 cm"` works); '
+            "1 mm to 3 m; omitted means 0.1 m."
+        ),
     )
 
 

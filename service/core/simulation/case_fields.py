@@ -66,6 +66,11 @@ CASE_FIELDS: Final[dict[str, CaseField]] = _fields(
     ("product.solids_specific_heat", "J/(kg*K)", "specific heat of the non-water part"),
     ("product.exposed_area", "m2", "evaporating area (kinetic evaporation)"),
     ("product.evaporation_coefficient", "1", "evaporation coefficient (kinetic evaporation)"),
+    (
+        "product.characteristic_size",
+        "m",
+        "diameter of one item for the air's resistance (kinetic evaporation)",
+    ),
     ("heat_gain.power", "W", "constant heat into the product"),
     ("heat_gain.conductance", "W/K", "conductance from the surroundings to the product"),
     ("heat_gain.surroundings_temperature", "K", "temperature of the surroundings"),

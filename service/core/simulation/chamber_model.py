@@ -26,7 +26,8 @@ Q_gain = P + UA (T_sur - T).
 
 Evaporation j:
 
-- kinetic: Hertz-Knudsen-Langmuir flux (:mod:`service.core.simulation.evaporation`);
+- kinetic: Hertz-Knudsen-Langmuir surface flux in series with vapor diffusion through
+  the chamber air (:mod:`service.core.simulation.air_limited_evaporation`);
 - equilibrium, regime "sealed" (chamber pressure above the product's vapor pressure):
   j = 0, evaporation into the air neglected;
 - equilibrium, regime "boiling" (from the flash point on): the product boils and holds
@@ -55,8 +56,8 @@ import numpy as np
 
 from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 from service.core.properties.phase import FloatArray
+from service.core.simulation.air_limited_evaporation import AirLimitedEvaporation
 from service.core.simulation.condenser import CondenserCapture
-from service.core.simulation.evaporation import KineticEvaporation
 from service.core.simulation.inputs import HeatGainRate
 from service.core.simulation.product_state import ProductState, ProductThermodynamics
 from service.core.simulation.pump import PumpingSpeed
@@ -97,8 +98,9 @@ class ChamberModel:
     pump : PumpingSpeed
     condenser : CondenserCapture or None
     product : ProductThermodynamics
-    evaporation : KineticEvaporation or None
-        None for the equilibrium model.
+    evaporation : AirLimitedEvaporation or None
+        The kinetic model (surface and air resistances in series); None for the
+        equilibrium model.
     heat_gain : HeatGainRate or None
     """
 
@@ -111,7 +113,7 @@ class ChamberModel:
         pump: PumpingSpeed,
         condenser: CondenserCapture | None,
         product: ProductThermodynamics,
-        evaporation: KineticEvaporation | None,
+        evaporation: AirLimitedEvaporation | None,
         heat_gain: HeatGainRate | None,
     ) -> None:
         self.volume = volume
@@ -162,7 +164,9 @@ class ChamberModel:
         to_condenser = 0.0 if self.condenser is None else self.condenser.rate(vapor)
         if regime == "kinetic":
             assert self.evaporation is not None
-            evaporation = self.evaporation.rate(temperature, product.equilibrium_pressure, vapor)
+            evaporation = self.evaporation.rate(
+                temperature, product.equilibrium_pressure, vapor, air
+            )
         elif regime == "sealed":
             evaporation = 0.0
         else:

@@ -42,6 +42,10 @@ class KineticEvaporation:
     def __init__(self, area: float, coefficient: float) -> None:
         self._factor = coefficient * area / math.sqrt(2.0 * math.pi * SPECIFIC_GAS_CONSTANT)
 
+    def conductance(self, surface_temperature: float) -> float:
+        """alpha A / sqrt(2 pi R T_s), kg/(s Pa): the rate per pascal of driving pressure."""
+        return self._factor / math.sqrt(surface_temperature)
+
     def rate(
         self, surface_temperature: float, equilibrium_pressure: float, vapor_pressure: float
     ) -> float:

@@ -48,6 +48,8 @@ SIMULATION_LIMITS: Final = {
     "series_points_min": 10,
     "series_points_max": 5000,
     "specific_heat_max": 1.0e4,
+    "characteristic_size_min": 1.0e-3,
+    "characteristic_size_max": 3.0,
 }
 """Validity limits of the simulation inputs (SI). Temperatures follow the balances'
 ranges (supercooled or solution liquid from 243.15 K, ice from 173.15 K, the normal
@@ -149,11 +151,18 @@ class Product:
     evaporation : {"equilibrium", "kinetic"}
         Equilibrium: the product boils once the chamber pressure reaches its vapor
         pressure and keeps the chamber at it. Kinetic: Hertz-Knudsen-Langmuir flux
-        over ``exposed_area`` with ``evaporation_coefficient``.
+        over ``exposed_area`` with ``evaporation_coefficient``, in series with vapor
+        diffusion through the chamber air
+        (:mod:`service.core.simulation.air_limited_evaporation`).
     exposed_area : float or None
         m2, > 0 (kinetic).
     evaporation_coefficient : float or None
         (0, 1] (kinetic).
+    characteristic_size : float or None
+        m, 1e-3 to 3 (kinetic): diameter of one item (a head, a loaf) taken as a sphere
+        for the air's resistance to vapor diffusion; None means
+        :data:`~service.core.simulation.air_limited_evaporation.DEFAULT_CHARACTERISTIC_SIZE`
+        (0.1 m).
     """
 
     mass: float
@@ -165,6 +174,7 @@ class Product:
     evaporation: EvaporationModel = "equilibrium"
     exposed_area: float | None = None
     evaporation_coefficient: float | None = None
+    characteristic_size: float | None = None
 
 
 @dataclass(frozen=True)
@@ -422,6 +432,15 @@ def _validate_product(product: Product) -> None:
             "1",
             "fraction of the kinetic-theory flux, 0 < alpha <= 1",
             exclusive_minimum=True,
+        )
+    if product.characteristic_size is not None:
+        require_scalar_within(
+            product.characteristic_size,
+            "product.characteristic_size",
+            SIMULATION_LIMITS["characteristic_size_min"],
+            SIMULATION_LIMITS["characteristic_size_max"],
+            "m",
+            "diameter of one item for the air's resistance to evaporation, 1 mm to 3 m",
         )
 
 

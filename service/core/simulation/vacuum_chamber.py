@@ -24,6 +24,10 @@ from service.core.properties.helmholtz import fluid_properties_at
 from service.core.properties.lookups import path_uncertainties
 from service.core.properties.phase import FloatArray
 from service.core.properties.sources import IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION
+from service.core.simulation.air_limited_evaporation import (
+    DEFAULT_CHARACTERISTIC_SIZE,
+    AirLimitedEvaporation,
+)
 from service.core.simulation.chamber_model import (
     AIR,
     CONDENSED,
@@ -40,7 +44,6 @@ from service.core.simulation.chamber_model import (
 )
 from service.core.simulation.checks import equipment_checks
 from service.core.simulation.condenser import CondenserCapture
-from service.core.simulation.evaporation import KineticEvaporation
 from service.core.simulation.inputs import VacuumChamberCase, validate_case
 from service.core.simulation.load import LoadModel, load_model
 from service.core.simulation.path_tables import (
@@ -70,6 +73,16 @@ REFERENCES: Final = (
     "Hertz-Knudsen-Langmuir evaporation and impingement flux: Eames, I. W., Marr, N. J. and "
     "Sabir, H. (1997), The evaporation coefficient of water: a review, Int. J. Heat Mass "
     "Transfer 40(12), 2963-2973 (from memory).",
+    "Air-limited evaporation (kinetic): binary diffusivity of water vapor in air by "
+    "Fuller, Schettler and Giddings (1966), as given in Poling, B. E., Prausnitz, J. M. and "
+    "O'Connell, J. P., The Properties of Gases and Liquids, 5th ed., McGraw-Hill (2001), "
+    "eq. 11-4.4 (from memory); Sherwood number of a sphere in still gas from Churchill's "
+    "natural-convection correlation by the heat and mass transfer analogy, as given in "
+    "Incropera, F. P. et al., Fundamentals of Heat and Mass Transfer, 6th ed., Wiley (2007), "
+    "eq. 9.35 (from memory); Stefan (log-mean) diffusion through stagnant air, Bird, R. B., "
+    "Stewart, W. E. and Lightfoot, E. N., Transport Phenomena, 2nd ed., Wiley (2002), "
+    "sec. 18.2 (from memory); air viscosity by Sutherland's law (White, F. M., Viscous "
+    "Fluid Flow, 3rd ed., 2006; from memory).",
     "ODE integration: LSODA (Hindmarsh, A. C., ODEPACK, 1983; Petzold, L., SIAM J. Sci. "
     "Stat. Comput. 4, 136-148, 1983) as wrapped by scipy.integrate.solve_ivp.",
 )
@@ -94,6 +107,11 @@ _LATENT_SCALE: Final = 3.0e6
 _LIQUID_VOLUME: Final = 1.0e-3
 """m3/kg, specific volume of liquid water to one digit (IAPWS-95: 1.0002e-3 at 20 degC),
 for the size of the neglected pressure work stated in the assumptions."""
+_AIR_LIMITED_SHARE: Final = 0.5
+"""Warn when the air takes more than this share of the driving vapor-pressure difference
+(the air-limited flux below half the surface flux alone)."""
+_INTO_AIR_SHARE: Final = 0.01
+"""Warn when more than this share of the evaporated water left before the flash point."""
 _SOLUTION_ACTIVITY_WARNING: Final = 0.9
 _DRIFT_WARNING: Final = 1e-6
 
@@ -455,10 +473,28 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
         "between events; events located on the dense output.",
     ]
     if case.product.evaporation == "kinetic":
+        size = _characteristic_size(case)
         items.append(
-            "Evaporation: Hertz-Knudsen-Langmuir flux j = alpha A (p_eq(T) - p_v) / "
-            "sqrt(2 pi R T) at all chamber pressures (diffusion through the air not limiting); "
-            "negative j is condensation onto the product."
+            "Evaporation (kinetic): the Hertz-Knudsen-Langmuir surface flux j = alpha A "
+            "(p_eq(T) - p_i) / sqrt(2 pi R T) in series with vapor diffusion through the "
+            "chamber air, j = A k_c p / (R T_f) ln(p_a / (p - p_i)) (Stefan flow through "
+            "stagnant air, log-mean form; p_i the vapor pressure between the two resistances, "
+            "T_f the mean of product and chamber temperatures); negative j is condensation "
+            "onto the product."
+        )
+        items.append(
+            "Air's resistance: k_c = Sh D / L with D the diffusivity of water vapor in air by "
+            "Fuller, Schettler and Giddings (Poling, Prausnitz and O'Connell, The Properties "
+            "of Gases and Liquids, 5th ed., eq. 11-4.4; D p independent of pressure) and Sh "
+            "of a sphere of diameter L in still gas from Churchill's natural-convection "
+            "correlation by the heat and mass transfer analogy (Incropera et al., "
+            "Fundamentals of Heat and Mass Transfer, 6th ed., eq. 9.35), buoyancy from the "
+            "air-vapor densities at the surface and in the chamber; L = "
+            f"{size:g} m"
+            + (" (default)" if case.product.characteristic_size is None else "")
+            + ". Still gas: forced flow in the chamber (pump suction, fans) is ignored, so "
+            "the air's resistance is an upper bound; the flux tends to the surface flux as "
+            "the air is pumped out."
         )
     else:
         items.append(
@@ -573,6 +609,13 @@ def _warnings(
                 "vapor condenses onto the product.",
             )
         )
+    if case.product.evaporation == "kinetic":
+        limited = _air_limited_advisory(case, series)
+        if limited is not None:
+            items.append(limited)
+        into_air = _evaporation_into_air_advisory(load, run, series)
+        if into_air is not None:
+            items.append(into_air)
     if condenser is not None and condenser.surface_pressure >= float(series.vapor_pressure[-1]):
         items.append(
             Advisory(
@@ -590,6 +633,67 @@ def _warnings(
             )
         )
     return tuple(items)
+
+
+def _characteristic_size(case: VacuumChamberCase) -> float:
+    size = case.product.characteristic_size
+    return DEFAULT_CHARACTERISTIC_SIZE if size is None else float(size)
+
+
+def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Advisory | None:
+    """A warning when the air limits the evaporation at some series points."""
+    product = case.product
+    flux = AirLimitedEvaporation(
+        float(product.exposed_area or 0.0),
+        float(product.evaporation_coefficient or 0.0),
+        _characteristic_size(case),
+        case.chamber.temperature,
+    )
+    limited: list[float] = []
+    slowest = 1.0
+    for index in range(series.time.size):
+        solved = flux.solve(
+            float(series.product_temperature[index]),
+            float(series.product_vapor_pressure[index]),
+            float(series.vapor_pressure[index]),
+            float(series.air_pressure[index]),
+        )
+        if solved.kinetic_rate > 0.0 and solved.rate < _AIR_LIMITED_SHARE * solved.kinetic_rate:
+            limited.append(float(series.time[index]))
+            slowest = min(slowest, max(solved.rate, 0.0) / solved.kinetic_rate)
+    if not limited:
+        return None
+    return Advisory(
+        "air-limited-evaporation",
+        "Diffusion of vapor through the chamber air limits the evaporation (the flux is below "
+        f"half the surface flux alone) at times from {limited[0]:.4g} s to {limited[-1]:.4g} s; "
+        f"at its strongest the air cuts the flux to {slowest:.2g} of the surface flux. The "
+        "air's resistance comes from a still-gas correlation for a sphere of the product's "
+        "characteristic size: give product.characteristic_size for the real items.",
+    )
+
+
+def _evaporation_into_air_advisory(
+    load: LoadModel, run: _Run, series: ChamberStates
+) -> Advisory | None:
+    """A warning when the kinetic product evaporates much before the flash point."""
+    total = float(series.evaporated_mass[-1])
+    flash = next((event for event in run.events if event[0] == "flash-point"), None)
+    before = total if flash is None else load.water_mass - float(flash[2][WATER])
+    if total <= 0.0 or before <= _INTO_AIR_SHARE * total:
+        return None
+    when = (
+        "the chamber pressure never fell to the product's vapor pressure"
+        if flash is None
+        else f"the chamber pressure fell to the product's vapor pressure (at {flash[1]:.4g} s)"
+    )
+    return Advisory(
+        "evaporation-into-air",
+        f"{before:.3g} kg ({before / total:.0%} of the water evaporated) left the product by "
+        f"evaporation into the chamber air before {when}. The equilibrium mode neglects that "
+        "evaporation, so this kinetic run may cool the product sooner than the equilibrium "
+        "mode does.",
+    )
 
 
 def _event_record(
@@ -663,8 +767,11 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
     )
     product = case.product
     evaporation = (
-        KineticEvaporation(
-            float(product.exposed_area or 0.0), float(product.evaporation_coefficient or 0.0)
+        AirLimitedEvaporation(
+            float(product.exposed_area or 0.0),
+            float(product.evaporation_coefficient or 0.0),
+            _characteristic_size(case),
+            chamber.temperature,
         )
         if product.evaporation == "kinetic"
         else None

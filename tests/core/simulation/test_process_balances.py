@@ -106,8 +106,12 @@ def test_solution_matches_flash_freeze_at_the_same_end_temperature() -> None:
     assert result.summary.ice_mass == pytest.approx(float(balance.ice_mass), rel=1e-4)
 
 
-def test_mass_and_energy_close_with_condenser_heat_gain_and_leak() -> None:
-    # Conservation: water + chamber vapor + pumped + condensed; E0 + Q = E + H_vapor.
+@pytest.mark.parametrize(
+    "size", [None, 0.02, 1.0], ids=["air-limited-default-size", "air-limited-2cm", "air-limited-1m"]
+)
+def test_mass_and_energy_close_with_condenser_heat_gain_and_leak(size: float | None) -> None:
+    # Conservation: water + chamber vapor + pumped + condensed; E0 + Q = E + H_vapor. The
+    # kinetic mode evaporates through the chamber air (air-limited flux), for several sizes.
     result = simulate_vacuum_chamber(
         VacuumChamberCase(
             chamber=Chamber(
@@ -128,6 +132,7 @@ def test_mass_and_energy_close_with_condenser_heat_gain_and_leak() -> None:
                 evaporation="kinetic",
                 exposed_area=0.3,
                 evaporation_coefficient=0.01,
+                characteristic_size=size,
             ),
             companions=(Companion(2.0, 477.0),),
             heat_gain=HeatGainRate(power=10.0, conductance=1.0),
