@@ -33,6 +33,7 @@ FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
     "m2": Dimension.AREA,
     "m": Dimension.LENGTH,
     "W/K": Dimension.THERMAL_CONDUCTANCE,
+    "W/(m2*K)": Dimension.HEAT_TRANSFER_COEFFICIENT,
     "s": Dimension.TIME,
     "kg/s": Dimension.MASS_FLOW,
 }

@@ -246,6 +246,20 @@ def read_vacuum_chamber(
                 "heat_gain.surroundings_temperature",
                 Dimension.TEMPERATURE,
             ),
+            radiating_area=_one(gain.radiating_area, "heat_gain.radiating_area", Dimension.AREA),
+            emissivity=_one(gain.emissivity, "heat_gain.emissivity", Dimension.DIMENSIONLESS),
+            wall_temperature=_maybe(
+                gain.wall_temperature, "heat_gain.wall_temperature", Dimension.TEMPERATURE
+            ),
+            contact_coefficient=_one(
+                gain.contact_coefficient,
+                "heat_gain.contact_coefficient",
+                Dimension.HEAT_TRANSFER_COEFFICIENT,
+            ),
+            contact_area=_one(gain.contact_area, "heat_gain.contact_area", Dimension.AREA),
+            shelf_temperature=_maybe(
+                gain.shelf_temperature, "heat_gain.shelf_temperature", Dimension.TEMPERATURE
+            ),
         ),
         target_temperature=_maybe(
             body.target_temperature, "target_temperature", Dimension.TEMPERATURE

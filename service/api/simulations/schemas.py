@@ -208,7 +208,8 @@ class ProductInput(ApiModel):
 
 
 class HeatGainRateInput(ApiModel):
-    """Heat flowing into the product: power + conductance (surroundings - product)."""
+    """Heat flowing into the product: power + conductance (surroundings - product) + wall
+    radiation (sigma eps A_r (T_wall^4 - T^4)) + shelf contact (h_c A_c (T_shelf - T))."""
 
     power: QuantityInput = Field(
         0.0, description=_described("Constant heat flow (negative cools). Default unit W.")
@@ -217,6 +218,38 @@ class HeatGainRateInput(ApiModel):
         0.0, description=_described("UA to the surroundings. Default unit W/K; >= 0.")
     )
     surroundings_temperature: QuantityInput | None = Field(
+        None,
+        description=_described("Default unit K; omitted means the chamber temperature."),
+    )
+    radiating_area: QuantityInput = Field(
+        0.0,
+        description=_described(
+            "Product surface exchanging radiation with the chamber walls (a small body in a "
+            "large enclosure). Default unit m2; >= 0; 0 means no wall radiation."
+        ),
+    )
+    emissivity: QuantityInput = Field(
+        0.9,
+        description=_described(
+            "Effective emissivity of that exchange, above 0 and at most 1 (default 0.9; wet "
+            "foods and ice are about 0.9-0.97)."
+        ),
+    )
+    wall_temperature: QuantityInput | None = Field(
+        None,
+        description=_described("Default unit K; omitted means the chamber temperature."),
+    )
+    contact_coefficient: QuantityInput = Field(
+        0.0,
+        description=_described(
+            "Heat-transfer coefficient to a shelf or tray the product touches. Default unit "
+            "W/(m2*K); >= 0."
+        ),
+    )
+    contact_area: QuantityInput = Field(
+        0.0, description=_described("Product area touching the shelf. Default unit m2; >= 0.")
+    )
+    shelf_temperature: QuantityInput | None = Field(
         None,
         description=_described("Default unit K; omitted means the chamber temperature."),
     )

@@ -74,6 +74,12 @@ CASE_FIELDS: Final[dict[str, CaseField]] = _fields(
     ("heat_gain.power", "W", "constant heat into the product"),
     ("heat_gain.conductance", "W/K", "conductance from the surroundings to the product"),
     ("heat_gain.surroundings_temperature", "K", "temperature of the surroundings"),
+    ("heat_gain.radiating_area", "m2", "product area exchanging radiation with the walls"),
+    ("heat_gain.emissivity", "1", "effective emissivity of the product-wall exchange"),
+    ("heat_gain.wall_temperature", "K", "temperature of the radiating walls"),
+    ("heat_gain.contact_coefficient", "W/(m2*K)", "heat-transfer coefficient to the shelf"),
+    ("heat_gain.contact_area", "m2", "product area touching the shelf or tray"),
+    ("heat_gain.shelf_temperature", "K", "temperature of the shelf or tray"),
     ("end_time", "s", "latest end of the simulation"),
     ("target_temperature", "K", "product temperature that ends the simulation"),
 )

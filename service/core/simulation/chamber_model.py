@@ -22,7 +22,8 @@ Balances (chamber gas ideal and isothermal at T_g, volume V, well mixed):
 
 with p = p_a + p_v, p_v = m_v R T_g / V, the product evaporation j, the condenser
 capture j_c (:mod:`service.core.simulation.condenser`) and the heat gain
-Q_gain = P + UA (T_sur - T).
+Q_gain = P + UA (T_sur - T) + wall radiation + shelf contact
+(:mod:`service.core.simulation.product_heating`).
 
 Evaporation j:
 
@@ -59,6 +60,7 @@ from service.core.properties.phase import FloatArray
 from service.core.simulation.air_limited_evaporation import AirLimitedEvaporation
 from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.inputs import HeatGainRate
+from service.core.simulation.product_heating import ProductHeating
 from service.core.simulation.product_state import ProductState, ProductThermodynamics
 from service.core.simulation.pump import PumpingSpeed
 
@@ -125,10 +127,7 @@ class ChamberModel:
         self.product = product
         self.evaporation = evaporation
         self.regime: Regime = "kinetic" if evaporation is not None else "sealed"
-        self._power = 0.0 if heat_gain is None else heat_gain.power
-        self._conductance = 0.0 if heat_gain is None else heat_gain.conductance
-        surroundings = None if heat_gain is None else heat_gain.surroundings_temperature
-        self._surroundings = gas_temperature if surroundings is None else surroundings
+        self.heating = ProductHeating(heat_gain, gas_temperature)
         self._key: tuple[float, float, float, float, str] | None = None
         self._rates: Rates | None = None
         self._guess = 300.0
@@ -154,7 +153,7 @@ class ChamberModel:
         self.evaluations += 1
         product = self.product_state(energy, water)
         temperature = product.temperature
-        heat = self._power + self._conductance * (self._surroundings - temperature)
+        heat = self.heating.rate(temperature)
         k = self.vapor_per_pressure
         vapor = product.equilibrium_pressure - air if regime == "boiling" else vapor_mass / k
         total = air + vapor

@@ -179,7 +179,9 @@ class Product:
 
 @dataclass(frozen=True)
 class HeatGainRate:
-    """Heat flowing into the product: power + conductance (surroundings - product).
+    """Heat flowing into the product (:mod:`service.core.simulation.product_heating`):
+
+    Q = P + UA (T_sur - T) + sigma eps A_r (T_wall**4 - T**4) + h_c A_c (T_shelf - T).
 
     Attributes
     ----------
@@ -189,11 +191,30 @@ class HeatGainRate:
         W/K, >= 0.
     surroundings_temperature : float or None
         K; None means the chamber temperature.
+    radiating_area : float
+        m2, >= 0: product surface exchanging radiation with the chamber walls.
+    emissivity : float
+        Effective emissivity of that exchange, 0 < eps <= 1 (default 0.9, wet foods and
+        ice about 0.9-0.97; common practice, no source).
+    wall_temperature : float or None
+        K; None means the chamber temperature.
+    contact_coefficient : float
+        W/(m2 K), >= 0: heat-transfer coefficient to a shelf or tray the product touches.
+    contact_area : float
+        m2, >= 0: the area in contact.
+    shelf_temperature : float or None
+        K; None means the chamber temperature.
     """
 
     power: float = 0.0
     conductance: float = 0.0
     surroundings_temperature: float | None = None
+    radiating_area: float = 0.0
+    emissivity: float = 0.9
+    wall_temperature: float | None = None
+    contact_coefficient: float = 0.0
+    contact_area: float = 0.0
+    shelf_temperature: float | None = None
 
 
 @dataclass(frozen=True)
@@ -478,19 +499,7 @@ def validate_case(case: VacuumChamberCase) -> None:
             "must be >= 0",
         )
     if case.heat_gain is not None:
-        finite_scalar(case.heat_gain.power, "heat_gain.power")
-        require_scalar_within(
-            case.heat_gain.conductance, "heat_gain.conductance", 0.0, None, "W/K", "must be >= 0"
-        )
-        if case.heat_gain.surroundings_temperature is not None:
-            require_scalar_within(
-                case.heat_gain.surroundings_temperature,
-                "heat_gain.surroundings_temperature",
-                150.0,
-                500.0,
-                "K",
-                "temperature of the surroundings the product exchanges heat with",
-            )
+        _validate_heat_gain(case.heat_gain)
     require_scalar_within(
         case.end_time,
         "end_time",
@@ -532,3 +541,37 @@ def validate_case(case: VacuumChamberCase) -> None:
         limits["series_points_min"] <= points <= limits["series_points_max"]
     ):
         raise InvalidInputError("series_points", "must be an integer from 10 to 5000", points)
+
+
+def _validate_heat_gain(gain: HeatGainRate) -> None:
+    """Raise OutOfRangeError for a heat-gain term out of range (naming ``heat_gain.*``)."""
+    finite_scalar(gain.power, "heat_gain.power")
+    for name, unit in (
+        ("conductance", "W/K"),
+        ("radiating_area", "m2"),
+        ("contact_coefficient", "W/(m2*K)"),
+        ("contact_area", "m2"),
+    ):
+        require_scalar_within(
+            getattr(gain, name), f"heat_gain.{name}", 0.0, None, unit, "must be >= 0"
+        )
+    require_scalar_within(
+        gain.emissivity,
+        "heat_gain.emissivity",
+        0.0,
+        1.0,
+        "1",
+        "an effective emissivity, above 0 and at most 1",
+        exclusive_minimum=True,
+    )
+    for name in ("surroundings_temperature", "wall_temperature", "shelf_temperature"):
+        value = getattr(gain, name)
+        if value is not None:
+            require_scalar_within(
+                value,
+                f"heat_gain.{name}",
+                150.0,
+                500.0,
+                "K",
+                "temperature of a surface or surroundings the product exchanges heat with",
+            )

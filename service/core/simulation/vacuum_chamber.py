@@ -44,7 +44,7 @@ from service.core.simulation.chamber_model import (
 )
 from service.core.simulation.checks import equipment_checks
 from service.core.simulation.condenser import CondenserCapture
-from service.core.simulation.inputs import VacuumChamberCase, validate_case
+from service.core.simulation.inputs import HeatGainRate, VacuumChamberCase, validate_case
 from service.core.simulation.load import LoadModel, load_model
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
@@ -210,6 +210,25 @@ _STOPPING: Final = frozenset(
 _ONCE: Final = frozenset(
     {"flash-point", "freezing-starts", "fully-frozen", "condenser-capacity-exceeded"}
 )
+
+
+def _heat_gain_statement(gain: HeatGainRate) -> str:
+    """The heat-gain assumption, naming only the terms the case uses."""
+    terms = ["P + UA (T_surroundings - T_product)"]
+    notes = []
+    if gain.radiating_area > 0.0:
+        terms.append("sigma eps A_r (T_wall^4 - T_product^4)")
+        notes.append(
+            f"wall radiation as a small grey body in a large enclosure, eps = "
+            f"{gain.emissivity:g} (Stefan-Boltzmann constant, CODATA 2018)"
+        )
+    if gain.contact_coefficient > 0.0 and gain.contact_area > 0.0:
+        terms.append("h_c A_c (T_shelf - T_product)")
+        notes.append("shelf or tray contact by a constant heat-transfer coefficient")
+    text = "Heat gain: Q = " + " + ".join(terms) + "."
+    if notes:
+        text += " " + "; ".join(notes).capitalize() + "; walls and shelf at constant temperature."
+    return text
 
 
 def _detail(name: str, regime: Regime) -> str:
@@ -510,7 +529,7 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
             "is reported but capture continues."
         )
     if case.heat_gain is not None:
-        items.append("Heat gain: Q = P + UA (T_surroundings - T_product).")
+        items.append(_heat_gain_statement(case.heat_gain))
     else:
         items.append("Adiabatic product: no heat exchange with shelf, walls or air.")
     if case.companions:

@@ -222,3 +222,46 @@ def test_answer_states_the_formulations_uncertainty(client: TestClient) -> None:
     quantities = {entry["quantity"] for entry in body["uncertainty"]}
     assert {"vapor pressure (liquid)", "latent heat of vaporization"} <= quantities
     assert all(entry["relative"] and entry["relative"] > 0 for entry in body["uncertainty"])
+
+
+def test_wall_radiation_and_shelf_contact_as_typed(client: TestClient) -> None:
+    # A vial tray on a -40 degC shelf with 20 degC walls (source: the core with the same SI
+    # case; the physics is checked in tests/core/simulation/test_product_heating.py).
+    from service.core.simulation import Chamber, HeatGainRate, Product, Pump, VacuumChamberCase
+    from service.core.simulation.vacuum_chamber import simulate_vacuum_chamber
+
+    gain = {
+        "radiating_area": "0.3 m2",
+        "emissivity": 0.92,
+        "wall_temperature": "20 degC",
+        "contact_coefficient": "25 W/(m2*K)",
+        "contact_area": "2500 cm2",
+        "shelf_temperature": "-40 degC",
+    }
+    response = _post(client, {**BODY, "heat_gain": gain, "target_temperature": None})
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    core = simulate_vacuum_chamber(
+        VacuumChamberCase(
+            chamber=Chamber(free_volume=0.5, initial_pressure=101325.0, temperature=293.15),
+            pump=Pump(nominal_speed=0.05, ultimate_pressure=10.0),
+            product=Product(mass=1.0, initial_temperature=293.15),
+            end_time=1200.0,
+            series_points=50,
+            heat_gain=HeatGainRate(
+                radiating_area=0.3,
+                emissivity=0.92,
+                wall_temperature=293.15,
+                contact_coefficient=25.0,
+                contact_area=0.25,
+                shelf_temperature=233.15,
+            ),
+        )
+    )
+    assert answer["summary"]["final_temperature"]["value"] == pytest.approx(
+        core.summary.final_temperature, rel=1e-9
+    )
+    assert any("wall radiation" in line.lower() for line in answer["assumptions"])
+    refused = _post(client, {**BODY, "heat_gain": {**gain, "emissivity": "0"}})
+    assert refused.status_code == 422
+    assert "heat_gain.emissivity" in refused.json()["detail"]
