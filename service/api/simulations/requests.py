@@ -162,6 +162,11 @@ def _product(product: ProductInput) -> Product:
         characteristic_size=_maybe(
             product.characteristic_size, "product.characteristic_size", Dimension.LENGTH
         ),
+        nucleation_temperature=_maybe(
+            product.nucleation_temperature,
+            "product.nucleation_temperature",
+            Dimension.TEMPERATURE,
+        ),
     )
 
 

@@ -205,6 +205,15 @@ class ProductInput(ApiModel):
             "1 mm to 3 m; omitted means 0.1 m."
         ),
     )
+    nucleation_temperature: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Supercooling: the water stays liquid below its freezing point until this "
+            "temperature, then ice nucleates and the product recalesces to its freezing line "
+            "at once. Default unit K; from -30 degC to below the freezing point; omitted "
+            "means ice forms at the freezing point."
+        ),
+    )
 
 
 class HeatGainRateInput(ApiModel):

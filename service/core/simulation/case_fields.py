@@ -71,6 +71,7 @@ CASE_FIELDS: Final[dict[str, CaseField]] = _fields(
         "m",
         "diameter of one item for the air's resistance (kinetic evaporation)",
     ),
+    ("product.nucleation_temperature", "K", "where ice nucleates in the supercooled product"),
     ("heat_gain.power", "W", "constant heat into the product"),
     ("heat_gain.conductance", "W/K", "conductance from the surroundings to the product"),
     ("heat_gain.surroundings_temperature", "K", "temperature of the surroundings"),

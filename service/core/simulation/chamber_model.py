@@ -128,7 +128,7 @@ class ChamberModel:
         self.evaporation = evaporation
         self.regime: Regime = "kinetic" if evaporation is not None else "sealed"
         self.heating = ProductHeating(heat_gain, gas_temperature)
-        self._key: tuple[float, float, float, float, str] | None = None
+        self._key: tuple[float, float, float, float, str, bool] | None = None
         self._rates: Rates | None = None
         self._guess = 300.0
         self.evaluations = 0
@@ -147,7 +147,7 @@ class ChamberModel:
         """All rates at state ``y`` (memoized on the last state and regime)."""
         air, vapor_mass, water, energy = y[:4].tolist()
         regime = self.regime
-        key = (air, vapor_mass, water, energy, regime)
+        key = (air, vapor_mass, water, energy, regime, self.product.supercooled)
         if key == self._key and self._rates is not None:
             return self._rates
         self.evaluations += 1

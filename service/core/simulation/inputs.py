@@ -163,6 +163,11 @@ class Product:
         for the air's resistance to vapor diffusion; None means
         :data:`~service.core.simulation.air_limited_evaporation.DEFAULT_CHARACTERISTIC_SIZE`
         (0.1 m).
+    nucleation_temperature : float or None
+        K: the water stays liquid (supercooled) below its freezing point until it reaches
+        this temperature, then ice nucleates and the product recalesces to its freezing
+        line (as in the flash-freeze balance). None: ice forms at the freezing point.
+        Between 243.15 K (the supercooled-liquid tables' end) and the freezing point.
     """
 
     mass: float
@@ -175,6 +180,7 @@ class Product:
     exposed_area: float | None = None
     evaporation_coefficient: float | None = None
     characteristic_size: float | None = None
+    nucleation_temperature: float | None = None
 
 
 @dataclass(frozen=True)

@@ -118,6 +118,19 @@ class ProductThermodynamics:
         self._h_ice_t = ice_t[0]
         self._h_vapor_t = 0.5 * (liquid_t[2] + ice_t[2])
         self._last: tuple[float, float, float, float, float] | None = None
+        self.supercooled = False
+        """While True the water stays liquid below its freezing point (no ice nucleated):
+        the energy maps onto the metastable liquid branch. The simulation sets it until
+        the nucleation temperature is reached; clearing it is the recalescence (the same
+        energy maps onto the freezing path)."""
+        self.supercooling = False
+        """Whether the product supercools at all (a nucleation temperature was given)."""
+        self.nucleation_time: float | None = None
+        """s, when ice nucleated (None: not yet, or no supercooling)."""
+
+    def supercooled_at(self, time: float) -> bool:
+        """Whether the product was still supercooled at ``time`` (s) of the run."""
+        return self.supercooling and (self.nucleation_time is None or time < self.nucleation_time)
 
     @property
     def has_solute(self) -> bool:
@@ -223,6 +236,8 @@ class ProductThermodynamics:
             # predictor: first-order change of T with (E, m) from the last state
             last_energy, last_mass, last_t, slope, by_mass = self._last
             guess = last_t + (energy - last_energy - by_mass * (m - last_mass)) / slope
+        if self.supercooled:
+            return self._supercooled_inverse(energy, m, guess)
         if self._solute is not None:
             return self._solution_inverse(energy, m, guess)
         liquid_t, ice_t = self.triple_point_energies(m)
@@ -302,6 +317,33 @@ class ProductThermodynamics:
             t = following
         raise NotConvergedError(
             "product temperature from its energy (safeguarded Newton)", _ITERATIONS, abs(step)
+        )
+
+    def _supercooled_liquid(
+        self, t: float, m: float
+    ) -> tuple[float, float, float, float, float, float, float]:
+        """(E, dE/dT, dE/dm, p, dp/dT, dp/dm, h_v) of the liquid, ice or not (Raoult with a
+        solute)."""
+        e, de_dt, h_l, p_l, dp_l, h_v = self._pure_liquid(t, m)
+        k = self._solute
+        if k is None:
+            return e, de_dt, h_l, p_l, dp_l, 0.0, h_v
+        activity = m / (m + k)
+        return e, de_dt, h_l, activity * p_l, activity * dp_l, p_l * k / (m + k) ** 2, h_v
+
+    def _supercooled_inverse(self, energy: float, m: float, guess: float) -> ProductState:
+        t, values = self._newton(
+            self._supercooled_liquid,
+            energy,
+            m,
+            guess,
+            LIQUID_TEMPERATURE_MIN - _EXTRAPOLATION,
+            LIQUID_TEMPERATURE_MAX + _EXTRAPOLATION,
+        )
+        _, slope, by_mass, p, dp_dt, dp_dm, h_v = values
+        # No ice: both margins stay positive (the nucleation event ends this branch).
+        return ProductState(
+            t, 0.0, p, h_v, dp_dt / slope, dp_dm - dp_dt * by_mass / slope, 1.0, 1.0
         )
 
     def _solution_inverse(self, energy: float, m: float, guess: float) -> ProductState:

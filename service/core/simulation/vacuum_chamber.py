@@ -16,8 +16,14 @@ from typing import Any, Final
 import numpy as np
 from scipy.integrate import solve_ivp
 
+from service.core.balances.scalars import require_scalar_within
 from service.core.deadline import check_deadline
-from service.core.errors import NotConvergedError, TripointError, UnsupportedStateError
+from service.core.errors import (
+    NotConvergedError,
+    OutOfRangeError,
+    TripointError,
+    UnsupportedStateError,
+)
 from service.core.properties.advisories import Advisory
 from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 from service.core.properties.helmholtz import fluid_properties_at
@@ -44,7 +50,12 @@ from service.core.simulation.chamber_model import (
 )
 from service.core.simulation.checks import equipment_checks
 from service.core.simulation.condenser import CondenserCapture
-from service.core.simulation.inputs import HeatGainRate, VacuumChamberCase, validate_case
+from service.core.simulation.inputs import (
+    HeatGainRate,
+    Product,
+    VacuumChamberCase,
+    validate_case,
+)
 from service.core.simulation.load import LoadModel, load_model
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
@@ -163,7 +174,16 @@ def _event_functions(
         events["boiling-stops"] = _event(
             lambda t, y: model.rates(y).evaporation + condensing, terminal=True, direction=-1.0
         )
-    if "freezing-starts" not in run.fired:
+    nucleation = case.product.nucleation_temperature
+    if "freezing-starts" not in run.fired and model.product.supercooled:
+        assert nucleation is not None
+        # Supercooled: ice appears only at the nucleation temperature.
+        events["freezing-starts"] = _event(
+            lambda t, y: model.rates(y).product.temperature - nucleation,
+            terminal=True,
+            direction=-1.0,
+        )
+    elif "freezing-starts" not in run.fired:
         events["freezing-starts"] = _event(
             lambda t, y: model.rates(y).product.liquid_margin, terminal=True, direction=-1.0
         )
@@ -212,6 +232,30 @@ _ONCE: Final = frozenset(
 )
 
 
+def _check_nucleation(product: Product, onset: float) -> None:
+    """Raise OutOfRangeError for a nucleation temperature outside [243.15 K, onset)."""
+    if product.nucleation_temperature is None:
+        return
+    require_scalar_within(
+        product.nucleation_temperature,
+        "product.nucleation_temperature",
+        LIQUID_TEMPERATURE_MIN,
+        onset,
+        "K",
+        "supercooled water nucleates below the product's freezing point, and the liquid "
+        "tables end at 243.15 K",
+    )
+    if product.nucleation_temperature >= onset:
+        raise OutOfRangeError(
+            "product.nucleation_temperature",
+            product.nucleation_temperature,
+            LIQUID_TEMPERATURE_MIN,
+            onset,
+            "K",
+            "must lie below the product's freezing point (else no supercooling)",
+        )
+
+
 def _heat_gain_statement(gain: HeatGainRate) -> str:
     """The heat-gain assumption, naming only the terms the case uses."""
     terms = ["P + UA (T_surroundings - T_product)"]
@@ -240,6 +284,8 @@ def _detail(name: str, regime: Regime) -> str:
         "boiling-stops": "The pump and condenser no longer draw vapor faster than the air "
         "pressure rises: the product stops boiling.",
         "freezing-starts": "Ice forms in the product.",
+        "nucleation": "Ice nucleates in the supercooled product, which recalesces to its "
+        "freezing line at once (adiabatic; no evaporation during the jump).",
         "fully-frozen": "All the product's water is frozen.",
         "target-reached": "The product has reached the target temperature.",
         "end-time": "The end time is reached.",
@@ -332,9 +378,17 @@ def _integrate(
             model.regime = "boiling"
         elif stop_name == "boiling-stops":
             model.regime = "sealed"
+        elif stop_name == "freezing-starts" and model.product.supercooled:
+            # Nucleation: the same energy and water now map onto the freezing path (the
+            # adiabatic, instantaneous recalescence of the flash-freeze balance).
+            model.product.supercooled = False
+            model.product.nucleation_time = t1
+            label = "nucleation"
         if stop_name in _ONCE:
             run.fired.add(stop_name)
-        public = "model-range-left" if stop_name == "model-range-left-above" else label
+        public = {"model-range-left-above": "model-range-left", "nucleation": stop_name}.get(
+            label, label
+        )
         run.events.append((public, t1, y0, regime, _detail(label, regime)))
         if stop_name in _STOPPING:
             run.end_reason = public
@@ -358,9 +412,11 @@ def _states(
     count = times.size
     columns = np.empty((13, count))
     saved = model.regime
+    saved_supercooled = model.product.supercooled
     r_gas = SPECIFIC_GAS_CONSTANT * model.gas_temperature
     for index in range(count):
         model.regime = regimes[index]
+        model.product.supercooled = model.product.supercooled_at(float(times[index]))
         r = model.rates(ys[:, index])
         total = r.total_pressure
         columns[:, index] = (
@@ -379,6 +435,7 @@ def _states(
             r_gas / total if total > 0.0 else 0.0,
         )
     model.regime = saved
+    model.product.supercooled = saved_supercooled
     volume_per_mass = columns[12]
     return ChamberStates(
         time=np.asarray(times, dtype=np.float64),
@@ -444,10 +501,11 @@ def _schedule(
             checks.append(ScheduleCheck(limit.time, limit.temperature, None, met))
             continue
         y, regime = found
-        saved = model.regime
+        saved, saved_supercooled = model.regime, model.product.supercooled
         model.regime = regime
+        model.product.supercooled = model.product.supercooled_at(limit.time)
         temperature = model.rates(y).product.temperature
-        model.regime = saved
+        model.regime, model.product.supercooled = saved, saved_supercooled
         met = temperature <= limit.temperature
         checks.append(ScheduleCheck(limit.time, limit.temperature, temperature, met))
         if not met:
@@ -474,7 +532,15 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
         "S(p) nominal or the speed curve interpolated linearly in ln p, constant beyond its ends.",
         "Product: uniform temperature; its phases (liquid, ice, solution) in equilibrium with "
         "each other at every instant; state recovered from its water mass and energy through "
-        "the equilibrium path (no supercooling: ice forms at the freezing onset).",
+        "the equilibrium path"
+        + (
+            " (no supercooling: ice forms at the freezing onset)."
+            if case.product.nucleation_temperature is None
+            else f"; supercooled liquid (no ice) down to the nucleation temperature "
+            f"{case.product.nucleation_temperature:.6g} K, then an instantaneous, adiabatic "
+            "recalescence to the freezing line at the same energy and water mass, with no "
+            "evaporation during the jump (as in the flash-freeze balance)."
+        ),
         "Vapor leaves (or reaches) the product with the enthalpy of saturated vapor at the "
         "product temperature. The condensed phases are taken at their own vapor pressure: "
         "the pressure work V dp as the chamber falls from its initial pressure is neglected, "
@@ -807,6 +873,9 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         evaporation=evaporation,
         heat_gain=case.heat_gain,
     )
+    _check_nucleation(product, load.freezing_onset)
+    model.product.supercooling = product.nucleation_temperature is not None
+    model.product.supercooled = model.product.supercooling
     model.start_from(product.initial_temperature)
     initial = np.zeros(STATE_SIZE)
     initial[AIR] = chamber.initial_pressure

@@ -265,3 +265,37 @@ def test_wall_radiation_and_shelf_contact_as_typed(client: TestClient) -> None:
     refused = _post(client, {**BODY, "heat_gain": {**gain, "emissivity": "0"}})
     assert refused.status_code == 422
     assert "heat_gain.emissivity" in refused.json()["detail"]
+
+
+def test_supercooling_as_typed(client: TestClient) -> None:
+    # A vial of water that supercools to -6 degC before it nucleates (source: the core with
+    # the same SI case; the recalescence is checked in tests/core/simulation/test_supercooling.py).
+    from service.core.simulation import Chamber, Product, Pump, VacuumChamberCase
+    from service.core.simulation.vacuum_chamber import simulate_vacuum_chamber
+
+    body = {
+        **BODY,
+        "product": {**BODY["product"], "nucleation_temperature": "-6 degC"},
+        "target_temperature": None,
+    }
+    response = _post(client, body)
+    assert response.status_code == 200, response.text
+    core = simulate_vacuum_chamber(
+        VacuumChamberCase(
+            chamber=Chamber(free_volume=0.5, initial_pressure=101325.0, temperature=293.15),
+            pump=Pump(nominal_speed=0.05, ultimate_pressure=10.0),
+            product=Product(mass=1.0, initial_temperature=293.15, nucleation_temperature=267.15),
+            end_time=1200.0,
+            series_points=50,
+        )
+    )
+    answer = response.json()
+    start = next(e for e in answer["events"] if e["name"] == "freezing-starts")
+    expected = next(e.time for e in core.events if e.name == "freezing-starts")
+    assert start["time"]["value"] == pytest.approx(expected, rel=1e-9)
+    assert any("recalescence" in line for line in answer["assumptions"])
+    above = _post(
+        client, {**body, "product": {**body["product"], "nucleation_temperature": "1 degC"}}
+    )
+    assert above.status_code == 422
+    assert "product.nucleation_temperature" in above.json()["detail"]
