@@ -19,6 +19,8 @@ from service.api.calculations import router as calculations
 from service.api.calibrations import router as calibrations
 from service.api.drying import router as drying
 from service.api.http.body_media import document_body_problems
+from service.api.http.caching import Validators
+from service.api.http.compression import Compression
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
@@ -55,6 +57,17 @@ CSV_ROUTES = (
     CsvRoute("/v1/design-spaces/", one_call_per_row=True, answer_part="cells"),
 )
 """Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
+
+COMPRESSION_MINIMUM_BYTES = 1024
+"""Answers this long or longer are gzip-coded for clients that accept gzip."""
+
+LOOKUP_PREFIX = "/v1/properties/"
+"""GET requests under this prefix are deterministic lookups: ETag, Cache-Control, 304."""
+
+
+def _is_lookup(path: str) -> bool:
+    return path.startswith(LOOKUP_PREFIX)
+
 
 EXPOSED_HEADERS = ["X-Request-ID", "X-Calculation-ID", "ETag"]
 """Answer headers a browser script may read under CORS (a plot's record id among them)."""
@@ -185,7 +198,14 @@ def create_app(
         pending=app.state.pending_computations,
     )
     app.add_middleware(BodySizeLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(
+        Validators,
+        version=__version__,
+        cacheable=_is_lookup,
+        shared=not settings.api_keys,
+    )
     app.add_middleware(ApiKeyGuard, keys=[key.get_secret_value() for key in settings.api_keys])
+    app.add_middleware(Compression, minimum_bytes=COMPRESSION_MINIMUM_BYTES)
     routes = RouteTable(
         lambda: app.routes,
         lambda template: any(route.matches(template) for route in csv_routes),
