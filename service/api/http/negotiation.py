@@ -112,7 +112,13 @@ def choose_media_type(accept: str | None, available: Sequence[str]) -> str | Non
     """The media type to answer in, of ``available`` (the route's default first).
 
     None when the client accepts none of them (answer 406). No header: the default.
+    Choices are cached per header and media types: clients repeat their headers.
     """
+    return _choose(accept, tuple(available))
+
+
+@functools.lru_cache(maxsize=512)
+def _choose(accept: str | None, available: tuple[str, ...]) -> str | None:
     if not available:
         return None
     if accept is None or not accept.strip():

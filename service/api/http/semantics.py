@@ -22,7 +22,6 @@ from typing import Any
 import orjson
 from fastapi.datastructures import DefaultPlaceholder
 from fastapi.routing import APIRoute, iter_route_contexts
-from starlette.datastructures import MutableHeaders
 from starlette.routing import BaseRoute
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
@@ -221,7 +220,7 @@ class HttpSemantics:
                         await emit(body)
                         return
                 if negotiated:
-                    MutableHeaders(scope=message).add_vary_header("Accept")
+                    _add_vary_accept(message)
             await emit(message)
 
         takes = info is not None and (method in info.methods or (head and "GET" in info.methods))
@@ -244,6 +243,19 @@ class HttpSemantics:
                 scope["method"] = "HEAD"
             return
         await self.app(scope, receive, answer)
+
+
+def _add_vary_accept(start: Message) -> None:
+    """Add ``Accept`` to the answer's ``Vary`` (kept as one field, RFC 9110 §12.5.5)."""
+    headers = list(start.get("headers", []))
+    for position, (name, value) in enumerate(headers):
+        if name.lower() == b"vary":
+            if b"accept" not in {part.strip().lower() for part in bytes(value).split(b",")}:
+                headers[position] = (name, bytes(value) + b", Accept")
+            break
+    else:
+        headers.append((b"vary", b"Accept"))
+    start["headers"] = headers
 
 
 def _header(scope: Scope, wanted: bytes) -> str | None:
