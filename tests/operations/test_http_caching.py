@@ -181,3 +181,16 @@ def test_metrics_still_scrape_gzipped(client: TestClient) -> None:
     response = client.get("/metrics", headers=GZIP)  # the client decodes
     assert response.status_code == 200
     assert "tripoint_http_requests_total" in response.text
+
+
+def test_streamed_file_is_gzipped_chunk_by_chunk(client: TestClient) -> None:
+    # The docs script is sent as a file, in several body messages: the streamed path.
+    asset = "/docs-assets/swagger-ui-bundle.js"
+    plain = client.get(asset, headers=IDENTITY)
+    with client.stream("GET", asset, headers=GZIP) as packed:
+        raw = b"".join(packed.iter_raw())
+        headers = packed.headers
+    assert headers["content-encoding"] == "gzip"
+    assert "content-length" not in headers or int(headers["content-length"]) == len(raw)
+    assert gzip.decompress(raw) == plain.content
+    assert len(raw) < len(plain.content) / 2

@@ -94,6 +94,10 @@ class Compression:
                 start = message
                 return
             if message["type"] != "http.response.body" or start is None:
+                if start is not None and stream is None:
+                    # Not a body (e.g. a path sent by the server itself): send it as it is.
+                    passing = True
+                    await send(start)
                 await send(message)
                 return
             body: bytes = message.get("body", b"")
