@@ -205,3 +205,32 @@ def test_request_id_echoed_and_logged_as_json(live_server: LiveServer) -> None:
     assert matching[0]["status"] == 200
     assert all(KEY not in json.dumps(line) for line in lines)
     assert any("API keys on" in line["message"] for line in lines)
+
+
+def test_head_and_gzip_over_a_real_connection(live_server: LiveServer) -> None:
+    # RFC 9110 §9.3.2: HEAD gets the GET's headers and no body; on one kept-alive
+    # connection the next answer must start cleanly after it (no stray body bytes).
+    import gzip
+    import http.client
+    from urllib.parse import urlsplit
+
+    where = urlsplit(live_server.origin)
+    connection = http.client.HTTPConnection(where.hostname or "127.0.0.1", where.port, timeout=10)
+    auth = {"Authorization": f"Bearer {KEY}", "Accept-Encoding": "gzip"}
+    path = "/v1/properties/saturation?temperature=300"
+    try:
+        connection.request("HEAD", path, headers=auth)
+        head = connection.getresponse()
+        assert head.status == 200
+        assert head.read() == b""
+        assert head.getheader("content-encoding") == "gzip"
+        connection.request("GET", path, headers=auth)
+        got = connection.getresponse()
+        body = got.read()
+        assert got.status == 200
+        assert got.getheader("content-encoding") == "gzip"
+        assert int(got.getheader("content-length") or 0) == len(body)
+        assert b'"temperature"' in gzip.decompress(body)
+        assert got.getheader("etag") and got.getheader("cache-control") == "private, max-age=3600"
+    finally:
+        connection.close()

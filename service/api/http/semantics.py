@@ -236,11 +236,14 @@ class HttpSemantics:
                 return
             scope.setdefault("state", {})[CHOSEN_MEDIA_TYPE] = chosen
         if head and info is not None and "GET" in info.methods and "HEAD" not in info.methods:
-            scope["method"] = "GET"  # answered as GET, sent without its body (§9.3.2)
+            # Answered as GET, sent without its body (§9.3.2). A copy: the server reads the
+            # method from its own scope to know that a HEAD answer has no body.
+            inner = {**scope, "method": "GET"}
             try:
-                await self.app(scope, receive, answer)
+                await self.app(inner, receive, answer)
             finally:
-                scope["method"] = "HEAD"
+                if "route" in inner:
+                    scope["route"] = inner["route"]  # the route label of metrics and logs
             return
         await self.app(scope, receive, answer)
 
