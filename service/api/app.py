@@ -19,7 +19,7 @@ from service.api.calculations import router as calculations
 from service.api.calibrations import router as calibrations
 from service.api.drying import router as drying
 from service.api.http.body_media import document_body_problems
-from service.api.http.caching import Validators
+from service.api.http.caching import Validators, document_caching
 from service.api.http.compression import Compression
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
@@ -244,6 +244,7 @@ def create_app(
             document_csv(schema, csv_routes)
             document_negotiation(schema)
             document_body_problems(schema)
+            document_caching(schema, _is_lookup)
             document_validation_problems(schema)
             document_time_limit(schema, settings.max_request_seconds)
             if settings.api_keys:

@@ -194,3 +194,12 @@ def test_streamed_file_is_gzipped_chunk_by_chunk(client: TestClient) -> None:
     assert "content-length" not in headers or int(headers["content-length"]) == len(raw)
     assert gzip.decompress(raw) == plain.content
     assert len(raw) < len(plain.content) / 2
+
+
+def test_caching_is_documented_on_the_lookups_only(client: TestClient) -> None:
+    paths = client.get("/openapi.json").json()["paths"]
+    lookup = paths["/v1/properties/saturation"]["get"]
+    assert {"ETag", "Cache-Control"} <= set(lookup["responses"]["200"]["headers"])
+    assert "304" in lookup["responses"]
+    assert "304" not in paths["/v1/properties/saturation"]["post"]["responses"]
+    assert "304" not in paths["/v1/calculations"]["get"]["responses"]

@@ -20,12 +20,19 @@ from __future__ import annotations
 import hashlib
 import re
 from collections.abc import Callable
+from typing import Any
 
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.negotiation import CHOSEN_MEDIA_TYPE
 
-__all__ = ["MAX_AGE_SECONDS", "Validators", "entity_tag", "if_none_match_hits"]
+__all__ = [
+    "MAX_AGE_SECONDS",
+    "Validators",
+    "document_caching",
+    "entity_tag",
+    "if_none_match_hits",
+]
 
 MAX_AGE_SECONDS = 3600
 """How long a lookup answer stays fresh in a cache."""
@@ -123,3 +130,33 @@ async def _not_modified(send: Send, fields: list[tuple[bytes, bytes]]) -> None:
     headers = [*fields, (b"vary", b"Accept-Encoding")]
     await send({"type": "http.response.start", "status": 304, "headers": headers})
     await send({"type": "http.response.body", "body": b""})
+
+
+def document_caching(schema: dict[str, Any], cacheable: Callable[[str], bool]) -> None:
+    """Declare the ``ETag`` and ``Cache-Control`` headers and the 304 answer on the GET
+    lookups' operations."""
+    for path, operations in schema.get("paths", {}).items():
+        operation = operations.get("get")
+        if operation is None or not cacheable(path):
+            continue
+        responses = operation.setdefault("responses", {})
+        ok = responses.get("200")
+        if ok is not None:
+            ok.setdefault("headers", {}).update(
+                {
+                    "ETag": {
+                        "description": "Weak entity tag of this answer; send it back in "
+                        "`If-None-Match` to get 304 while it is current.",
+                        "schema": {"type": "string"},
+                    },
+                    "Cache-Control": {
+                        "description": f"`public, max-age={MAX_AGE_SECONDS}` (`private` "
+                        "when API keys are on).",
+                        "schema": {"type": "string"},
+                    },
+                }
+            )
+        responses.setdefault(
+            "304",
+            {"description": "Not modified: the `If-None-Match` tag is current; no body."},
+        )
