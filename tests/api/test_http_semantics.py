@@ -182,6 +182,8 @@ def test_cors_exposes_the_calculation_and_request_ids(tmp_path: Path) -> None:
     }
     assert {"x-calculation-id", "x-request-id", "etag"} <= exposed
     assert {name.lower() for name in EXPOSED_HEADERS} == exposed
+    # One Vary field lists both: the answer depends on Origin (CORS) and on Accept.
+    assert {"origin", "accept"} <= _vary(answer)
 
 
 # -- Request media type: 415 and 400 (RFC 9110 §15.5.16, §15.5.1) -----------------------

@@ -55,6 +55,11 @@ def test_qvalue_grammar(q: str, quality: float) -> None:
         pytest.param("*/*;q=0", None, id="everything-refused"),
         pytest.param("text/*;q=0, */*;q=0.3", JSON, id="type-refused-others-not"),
         pytest.param("garbage", JSON, id="unreadable-as-absent"),
+        pytest.param(
+            "text/html,application/xhtml+xml,application/xml;q=0.9,*/*;q=0.8",
+            JSON,
+            id="browser-navigation-gets-json",
+        ),
     ],
 )
 def test_choose_media_type(accept: str | None, chosen: str | None) -> None:
