@@ -255,3 +255,34 @@ def test_body_problems_and_406_are_documented(client: TestClient) -> None:
     assert "406" in paths[CHAMBER]["post"]["responses"]
     assert "415" not in paths["/health"]["get"]["responses"]
     assert "406" not in paths["/v1/calculations"]["get"]["responses"]
+
+
+def _documented_paths(client: TestClient) -> dict[str, set[str]]:
+    paths = client.get("/openapi.json").json()["paths"]
+    return {
+        path.replace("{calculation_id}", "no-such-record"): {method.upper() for method in ops}
+        for path, ops in paths.items()
+    }
+
+
+def test_every_documented_get_answers_head(client: TestClient) -> None:
+    # RFC 9110 §9.3.2: a server SHOULD answer HEAD wherever it answers GET.
+    checked = 0
+    for path, methods in _documented_paths(client).items():
+        if "GET" not in methods:
+            continue
+        got = client.get(path, headers={"accept-encoding": "identity"})
+        head = client.head(path, headers={"accept-encoding": "identity"})
+        assert head.status_code == got.status_code, path
+        assert head.content == b"", path
+        checked += 1
+    assert checked >= 10
+
+
+def test_every_documented_path_allows_what_it_documents(client: TestClient) -> None:
+    # RFC 9110 §10.2.1 / §15.5.6: Allow lists the methods the target resource supports.
+    for path, methods in _documented_paths(client).items():
+        response = client.request("PATCH", path)
+        assert response.status_code == 405, path
+        expected = methods | ({"HEAD"} if "GET" in methods else set())
+        assert set(response.headers["allow"].split(", ")) == expected, path
