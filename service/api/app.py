@@ -18,6 +18,9 @@ from service.api.balances import router as balances
 from service.api.calculations import router as calculations
 from service.api.calibrations import router as calibrations
 from service.api.drying import router as drying
+from service.api.http.body_media import document_body_problems
+from service.api.http.caching import Validators, document_caching
+from service.api.http.compression import Compression
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
@@ -32,6 +35,7 @@ from service.api.http.quantities import read_quantity
 from service.api.http.recording import RecordKeeper
 from service.api.http.responses import FastJSONResponse
 from service.api.http.security import ApiKeyGuard, document_security
+from service.api.http.semantics import HttpSemantics, RouteTable, document_negotiation
 from service.api.http.units import Dimension
 from service.api.operations import router as operations
 from service.api.properties import router as properties
@@ -42,7 +46,7 @@ from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
 
-__all__ = ["CSV_ROUTES", "create_app"]
+__all__ = ["CSV_ROUTES", "EXPOSED_HEADERS", "create_app"]
 
 _log = logging.getLogger("tripoint.app")
 
@@ -53,6 +57,20 @@ CSV_ROUTES = (
     CsvRoute("/v1/design-spaces/", one_call_per_row=True, answer_part="cells"),
 )
 """Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
+
+COMPRESSION_MINIMUM_BYTES = 1024
+"""Answers this long or longer are gzip-coded for clients that accept gzip."""
+
+LOOKUP_PREFIX = "/v1/properties/"
+"""GET requests under this prefix are deterministic lookups: ETag, Cache-Control, 304."""
+
+
+def _is_lookup(path: str) -> bool:
+    return path.startswith(LOOKUP_PREFIX)
+
+
+EXPOSED_HEADERS = ["X-Request-ID", "X-Calculation-ID", "ETag"]
+"""Answer headers a browser script may read under CORS (a plot's record id among them)."""
 
 _DESCRIPTION = """
 Water, ice and vapor phase-change energy calculations for vacuum cooling,
@@ -180,18 +198,37 @@ def create_app(
         pending=app.state.pending_computations,
     )
     app.add_middleware(BodySizeLimit, max_bytes=settings.max_body_bytes)
+    app.add_middleware(
+        Validators,
+        version=__version__,
+        cacheable=_is_lookup,
+        shared=not settings.api_keys,
+    )
     app.add_middleware(ApiKeyGuard, keys=[key.get_secret_value() for key in settings.api_keys])
+    app.add_middleware(Compression, minimum_bytes=COMPRESSION_MINIMUM_BYTES)
+    routes = RouteTable(
+        lambda: app.routes,
+        lambda template: any(route.matches(template) for route in csv_routes),
+    )
+    app.state.route_table = routes
+    app.add_middleware(HttpSemantics, table=routes)
     if settings.cors_origins:
         app.add_middleware(
             CORSMiddleware,
             allow_origins=settings.cors_origins,
-            allow_methods=["GET", "POST"],
-            allow_headers=["Authorization", "Content-Type", "Accept", "X-Request-ID"],
-            expose_headers=["X-Request-ID"],
+            allow_methods=["GET", "HEAD", "POST"],
+            allow_headers=[
+                "Authorization",
+                "Content-Type",
+                "Accept",
+                "X-Request-ID",
+                "If-None-Match",
+            ],
+            expose_headers=EXPOSED_HEADERS,
             allow_credentials=False,
             max_age=600,
         )
-    app.add_middleware(RequestObservation, metrics=metrics)
+    app.add_middleware(RequestObservation, metrics=metrics, routes=routes)
 
     examples = load_examples(default_examples_folder())
 
@@ -205,6 +242,9 @@ def create_app(
             )
             add_examples_to_openapi(schema, examples)
             document_csv(schema, csv_routes)
+            document_negotiation(schema)
+            document_body_problems(schema)
+            document_caching(schema, _is_lookup)
             document_validation_problems(schema)
             document_time_limit(schema, settings.max_request_seconds)
             if settings.api_keys:

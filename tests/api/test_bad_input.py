@@ -252,5 +252,5 @@ def test_malformed_json_is_4xx(client: TestClient) -> None:
         content=b"{not json",
         headers={"content-type": "application/json"},
     )
-    assert response.status_code == 422
+    assert response.status_code == 400  # RFC 9110 §15.5.1: not JSON at all is malformed
     assert response.headers["content-type"].startswith("application/problem+json")

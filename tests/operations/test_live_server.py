@@ -266,3 +266,32 @@ def test_a_request_head_over_the_limit_is_431_and_the_body_does_not_count(
     # A large body with a small head reaches the application (which refuses the unknown
     # field with 422): the head limit does not count body bytes.
     assert answered.startswith(b"HTTP/1.1 422"), answered[:200]
+
+
+def test_head_and_gzip_over_a_real_connection(live_server: LiveServer) -> None:
+    # RFC 9110 §9.3.2: HEAD gets the GET's headers and no body; on one kept-alive
+    # connection the next answer must start cleanly after it (no stray body bytes).
+    import gzip
+    import http.client
+    from urllib.parse import urlsplit
+
+    where = urlsplit(live_server.origin)
+    connection = http.client.HTTPConnection(where.hostname or "127.0.0.1", where.port, timeout=10)
+    auth = {"Authorization": f"Bearer {KEY}", "Accept-Encoding": "gzip"}
+    path = "/v1/properties/saturation?temperature=300"
+    try:
+        connection.request("HEAD", path, headers=auth)
+        head = connection.getresponse()
+        assert head.status == 200
+        assert head.read() == b""
+        assert head.getheader("content-encoding") == "gzip"
+        connection.request("GET", path, headers=auth)
+        got = connection.getresponse()
+        body = got.read()
+        assert got.status == 200
+        assert got.getheader("content-encoding") == "gzip"
+        assert int(got.getheader("content-length") or 0) == len(body)
+        assert b'"temperature"' in gzip.decompress(body)
+        assert got.getheader("etag") and got.getheader("cache-control") == "private, max-age=3600"
+    finally:
+        connection.close()

@@ -146,7 +146,16 @@ CASES: list[Case] = [
         "temperature",
         body={"temperature": {"value": 300, "uncertainty": -1}},
     ),
-    Case("sat-body-not-json", "POST", _SAT, 422, "body", raw=b'{"temperature": '),
+    Case("sat-body-not-json", "POST", _SAT, 400, "body", raw=b'{"temperature": '),
+    Case(
+        "sat-body-wrong-media-type",
+        "POST",
+        _SAT,
+        415,
+        "Content-Type",
+        raw=b'{"temperature": 300}',
+        content_type="text/plain",
+    ),
     Case("sat-body-array", "POST", _SAT, 422, "body", raw=b"[300, 310]"),
     Case(
         "sat-body-unknown", "POST", _SAT, 422, "colour", body={"temperature": 300, "colour": "red"}

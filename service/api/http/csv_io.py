@@ -46,7 +46,7 @@ import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.limits import TimeLimitExceededError, run_within_limit
-from service.api.http.negotiation import accept_qualities, json_quality
+from service.api.http.negotiation import CHOSEN_MEDIA_TYPE, choose_media_type
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
 from service.core.deadline import set_deadline
@@ -440,11 +440,12 @@ def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
     return buffer.getvalue().encode()
 
 
-def prefers_csv(accept: str | None) -> bool:
-    """Whether an ``Accept`` header names ``text/csv`` at least as high as JSON."""
-    qualities = accept_qualities(accept)
-    csv_quality = qualities.get(CSV_MEDIA_TYPE, 0.0)
-    return csv_quality > 0 and csv_quality >= json_quality(qualities)
+def prefers_csv(
+    accept: str | None, available: Sequence[str] = ("application/json", CSV_MEDIA_TYPE)
+) -> bool:
+    """Whether ``text/csv`` is the media type chosen for ``accept`` among ``available``
+    (the route's media types, JSON first; :func:`negotiation.choose_media_type`)."""
+    return choose_media_type(accept, available) == CSV_MEDIA_TYPE
 
 
 # -- the middleware ----------------------------------------------------------------------
@@ -545,7 +546,14 @@ class CsvAdapter:
             return
         content_type = (_header(scope, b"content-type") or "").split(";")[0].strip().lower()
         sends_csv = scope.get("method") == "POST" and content_type == CSV_MEDIA_TYPE
-        wants_csv = prefers_csv(_header(scope, b"accept"))
+        chosen = scope.get("state", {}).get(CHOSEN_MEDIA_TYPE)
+        # The media type the negotiation chose among all the route answers in (plots
+        # included); without it (the adapter alone), between JSON and CSV.
+        wants_csv = (
+            chosen == CSV_MEDIA_TYPE
+            if chosen is not None
+            else prefers_csv(_header(scope, b"accept"))
+        )
         if not sends_csv and not wants_csv:
             await self.app(scope, receive, send)
             return

@@ -6,7 +6,8 @@
   template, path, status, duration and API key id; never a header (so never a key), a
   query string or a body.
 - Metrics (prometheus-client): requests and errors by route template, method and status; a
-  latency histogram per route; calculations by kind and outcome. With several worker
+  latency histogram per route; calculations by kind and outcome; ``tripoint_build_info``
+  (version, python). With several worker
   processes, set ``PROMETHEUS_MULTIPROC_DIR`` (``python -m service`` does it for you) and
   ``/metrics`` adds up every worker's numbers.
 """
@@ -16,6 +17,7 @@ from __future__ import annotations
 import contextvars
 import logging
 import os
+import platform
 import re
 import time
 import traceback
@@ -28,6 +30,7 @@ from prometheus_client import (
     CONTENT_TYPE_LATEST,
     CollectorRegistry,
     Counter,
+    Gauge,
     Histogram,
     disable_created_metrics,
 )
@@ -35,6 +38,9 @@ from prometheus_client import generate_latest as _generate_latest
 from prometheus_client.multiprocess import MultiProcessCollector
 from starlette.datastructures import MutableHeaders
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+from service import __version__
+from service.api.http.semantics import RouteTable
 
 __all__ = [
     "MULTIPROCESS_ENVIRONMENT_VARIABLE",
@@ -143,9 +149,10 @@ def logging_config(level: str) -> dict[str, Any]:
 def route_template(scope: Scope) -> str:
     """The path template of the route that served the request (``/v1/calculations/{...}``).
 
-    Requests answered before routing (no such path, a 401 for a missing key, a 413 for a
-    body too large) share the label ``unrouted``, so scanning for URLs cannot blow up the
-    metrics.
+    Requests answered before routing without a route to name (no such path) share the
+    label ``unrouted``, so scanning for URLs cannot blow up the metrics; a 401, 413 or 406
+    answered before routing on a path that has a route is labelled with that route by
+    :class:`RequestObservation`.
     """
     route = scope.get("route")
     path = getattr(route, "path", None)
@@ -177,6 +184,14 @@ class Metrics:
             buckets=_LATENCY_BUCKETS,
             registry=self.registry,
         )
+        self.build = Gauge(
+            "tripoint_build_info",
+            "The service's version and the Python running it (always 1).",
+            ["version", "python"],
+            registry=self.registry,
+            multiprocess_mode="max",
+        )
+        self.build.labels(__version__, platform.python_version()).set(1)
         self.calculations = Counter(
             "tripoint_calculations",
             "Calculations answered, by kind and whether their record was stored.",
@@ -216,9 +231,10 @@ def _incoming_request_id(scope: Scope) -> str | None:
 class RequestObservation:
     """Outermost middleware: request id, access log line, request metrics."""
 
-    def __init__(self, app: ASGIApp, metrics: Metrics) -> None:
+    def __init__(self, app: ASGIApp, metrics: Metrics, routes: RouteTable | None = None) -> None:
         self.app = app
         self.metrics = metrics
+        self.routes = routes
 
     async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
         if scope["type"] != "http":
@@ -245,6 +261,11 @@ class RequestObservation:
         finally:
             seconds = time.perf_counter() - started
             route = route_template(scope)
+            if route == _UNMATCHED and status != 404 and self.routes is not None:
+                # Answered before routing (401, 413, 406): the path's template if it has one.
+                found = self.routes.resolve(str(scope.get("path", "")))
+                if found is not None:
+                    route = found.template
             method = str(scope.get("method", ""))
             self.metrics.observe_request(route, method, status, seconds)
             _access_log.info(

@@ -41,6 +41,7 @@ __all__ = [
     "problem_answer",
     "problem_body",
     "problem_responses",
+    "status_description",
 ]
 
 PROBLEM_MEDIA_TYPE = "application/problem+json"
@@ -48,11 +49,13 @@ _log = logging.getLogger("tripoint.errors")
 _TYPE_PREFIX = "urn:tripoint:problem:"
 _PROBLEM_SCHEMA_REF = "#/components/schemas/Problem"
 _DESCRIPTIONS = {
-    400: "Malformed request.",
+    400: "Malformed request (a body that is not JSON, an unreadable CSV body).",
     401: "Missing or wrong API key.",
     404: "Not found.",
+    405: "Method not allowed on this path; `Allow` lists the methods it takes.",
+    406: "None of the media types the route answers in is acceptable (`Accept`).",
     413: "Request too large (body or batch points).",
-    415: "Unsupported media type.",
+    415: "Unsupported request media type (`Content-Type`); the problem names the ones taken.",
     422: "Invalid or out-of-range input; the problem names the field and the valid range.",
     503: "Temporarily unavailable.",
 }
@@ -189,6 +192,11 @@ def _problem_content() -> dict[str, Any]:
 def problem_answer(description: str) -> dict[str, Any]:
     """An OpenAPI response object: ``description`` and a problem document as content."""
     return {"description": description, "content": _problem_content()}
+
+
+def status_description(status: int) -> str:
+    """The OpenAPI description the service gives answers of ``status``."""
+    return _DESCRIPTIONS.get(status, "Problem")
 
 
 def problem_responses(*statuses: int) -> dict[int | str, dict[str, Any]]:
@@ -366,6 +374,20 @@ def install_problem_handlers(app: FastAPI) -> None:
                     value=value,
                 )
             )
+        if any(item.get("type") == "json_invalid" for item in error.errors()):
+            # Not JSON at all: a malformed request (RFC 9110 §15.5.1), not a schema mismatch.
+            where = next(item for item in error.errors() if item.get("type") == "json_invalid")
+            reason = (where.get("ctx") or {}).get("error", "not JSON")
+            offset = next((part for part in where.get("loc", ()) if isinstance(part, int)), None)
+            at = "" if offset is None else f" at character {offset}"
+            problem = make_problem(
+                400,
+                "malformed-json",
+                "Malformed JSON body",
+                f"The body is not valid JSON{at}: {reason}.",
+                [FieldError(field="body", message=f"not valid JSON{at}: {reason}")],
+            )
+            return _render(request, problem)
         fields = ", ".join(sorted({entry.field for entry in errors}))
         problem = make_problem(
             422,

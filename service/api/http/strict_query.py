@@ -1,4 +1,5 @@
-"""A route that refuses query parameters it does not document, and notes sent units.
+"""A route that refuses query parameters it does not document and bodies that are not
+JSON (415, :mod:`body_media`), and notes sent units.
 
 The same rule on every route, GET or POST: a query parameter the operation does not
 declare is a 422 naming it (a POST body's options, such as ``output_units``, go in the
@@ -16,6 +17,7 @@ from fastapi import Request, Response
 from fastapi.exceptions import RequestValidationError
 from fastapi.routing import APIRoute
 
+from service.api.http.body_media import check_body_media_type
 from service.api.http.sent_units import begin_request
 
 __all__ = ["StrictQueryRoute"]
@@ -41,9 +43,12 @@ class StrictQueryRoute(APIRoute):
     def get_route_handler(self) -> Handler:
         handler = self.inner_handler()
         declared = self.declared_query
+        takes_body = self.body_field is not None
 
         async def checked(request: Request) -> Response:
             begin_request()
+            if takes_body:
+                check_body_media_type(request, _taken(request))
             if request.scope.get("query_string"):
                 unknown = [name for name in request.query_params if name not in declared]
                 if unknown:
@@ -71,3 +76,12 @@ def _unknown(name: str, declared: frozenset[str], method: str) -> dict[str, Any]
         "msg": f"unknown query parameter ({known})",
         "input": name,
     }
+
+
+def _taken(request: Request) -> tuple[str, ...]:
+    """The body media types of the request's path: JSON, and CSV where the path speaks it."""
+    table = getattr(request.app.state, "route_table", None)
+    info = None if table is None else table.exact(request.url.path)
+    if info is not None and "text/csv" in info.media_types:
+        return ("application/json", "text/csv")
+    return ("application/json",)

@@ -12,7 +12,7 @@ from typing import Any, Final, Literal
 
 import numpy as np
 
-from service.api.http.negotiation import accept_qualities, json_quality
+from service.api.http.negotiation import choose_media_type
 from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
 from service.core.simulation import VacuumChamberResult
 
@@ -43,20 +43,17 @@ _EVENT_LABELS: Final = {
 }
 
 
-def plot_format_for(accept: str | None) -> PlotFormat | None:
-    """The image format an ``Accept`` header prefers over JSON, if any.
+_PLOT_CHOICES: Final = ("application/json", *PLOT_MEDIA_TYPES.values())
 
-    ``image/svg+xml`` or ``image/png`` with a quality at least that of
-    ``application/json`` (or ``*/*``) selects a plot; otherwise None.
-    """
-    qualities = accept_qualities(accept)
-    best: tuple[float, PlotFormat | None] = (0.0, None)
+
+def plot_format_for(accept: str | None) -> PlotFormat | None:
+    """The image format ``accept`` chooses over JSON, if any (RFC 9110 §12.5.1, read by
+    :func:`service.api.http.negotiation.choose_media_type`); None for JSON."""
+    chosen = choose_media_type(accept, _PLOT_CHOICES)
     for kind, media_type in PLOT_MEDIA_TYPES.items():
-        quality = qualities.get(media_type, 0.0)
-        if quality > best[0]:
-            best = (quality, kind)
-    quality, chosen = best
-    return chosen if chosen is not None and quality >= json_quality(qualities) else None
+        if chosen == media_type:
+            return kind
+    return None
 
 
 def _time_axis(seconds: np.ndarray) -> tuple[np.ndarray, str]:

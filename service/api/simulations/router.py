@@ -12,7 +12,9 @@ from typing import Any
 from fastapi import APIRouter, Request
 from starlette.responses import Response
 
+from service.api.http.csv_io import CSV_MEDIA_TYPE
 from service.api.http.limits import TimeLimitedRoute
+from service.api.http.negotiation import JSON_MEDIA_TYPE, choose_media_type, not_acceptable
 from service.api.http.problems import problem_responses
 from service.api.http.recording import record_calculation
 from service.api.http.responses import FastJSONResponse
@@ -61,6 +63,9 @@ def post_vacuum_chamber_simulation(request: Request, body: VacuumChamberSimulati
     (JSON or CSV; a sweep has no plot)."""
     settings: Settings = request.app.state.settings
     cases, notes, swept = read_vacuum_chamber_sweep(body, settings.max_simulation_sweep_cases)
+    accept = request.headers.get("accept")
+    if swept and choose_media_type(accept, (JSON_MEDIA_TYPE,)) is None:
+        raise not_acceptable(accept, (JSON_MEDIA_TYPE, CSV_MEDIA_TYPE))  # a sweep has no plot
     results = simulate_vacuum_chambers(cases, settings.simulation_workers)
     if swept:
         sweep = sweep_answer(results, cases, swept, body.output_units, notes)
@@ -69,7 +74,7 @@ def post_vacuum_chamber_simulation(request: Request, body: VacuumChamberSimulati
     result = results[0]
     answer = simulation_answer(result, body.output_units, notes)
     record_calculation(request, "simulations.vacuum_chamber", body, answer)
-    kind = plot_format_for(request.headers.get("accept"))
+    kind = plot_format_for(accept)
     if kind is not None:
         return Response(
             plot_simulation(result, body.output_units, kind),
