@@ -6,19 +6,42 @@ PNG is compressed already. A compressed answer says ``Content-Encoding: gzip`` a
 ``Vary: Accept-Encoding`` (§8.4, §12.5.5). A whole answer is compressed at once with a
 fixed header (no time stamp), so the same answer gives the same bytes; a streamed answer
 (more than one body message) is compressed message by message, each flushed.
+
+Cost, measured on a 2.3 MB 10,000-point saturation answer: zlib level 6 took 128 ms for 44 %
+of the size, level 1 took 22 ms for 46 %. So bodies of 64 KiB or more are compressed at level
+1, and bodies (or streamed pieces) of 256 KiB or more in a worker thread, so that compressing
+a large answer never holds the event loop (and ``/health``) for its duration.
 """
 
 from __future__ import annotations
 
 import gzip
 import zlib
+from typing import Final
 
+import anyio.to_thread
 from starlette.datastructures import Headers, MutableHeaders
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 __all__ = ["Compression", "accepts_gzip"]
 
 _COMPRESSIBLE = ("application/json", "application/problem+json", "image/svg+xml")
+
+LARGE_BODY_BYTES: Final = 64 * 1024
+"""From this size a body is compressed at level 1 (nearly the same size, 6x faster)."""
+THREAD_BODY_BYTES: Final = 256 * 1024
+"""From this size a body, or a streamed piece, is compressed in a worker thread."""
+
+
+def _level(size: int, level: int) -> int:
+    return 1 if size >= LARGE_BODY_BYTES else level
+
+
+async def _gzip(body: bytes, level: int) -> bytes:
+    """The body as one gzip member (no time stamp), off the event loop when large."""
+    if len(body) < THREAD_BODY_BYTES:
+        return gzip.compress(body, compresslevel=level, mtime=0)
+    return await anyio.to_thread.run_sync(lambda: gzip.compress(body, compresslevel=level, mtime=0))
 
 
 def _compressible(content_type: str) -> bool:
@@ -112,17 +135,25 @@ class Compression:
                 headers["Content-Encoding"] = "gzip"
                 headers.add_vary_header("Accept-Encoding")
                 if not more:
-                    packed = gzip.compress(body, compresslevel=self.level, mtime=0)
+                    packed = await _gzip(body, _level(len(body), self.level))
                     headers["Content-Length"] = str(len(packed))
                     passing = True
                     await send(start)
                     await send({"type": "http.response.body", "body": packed})
                     return
                 del headers["Content-Length"]
-                stream = zlib.compressobj(self.level, zlib.DEFLATED, 31)  # 31: gzip framing
+                # A stream's length is unknown: the fast level for all of it.
+                stream = zlib.compressobj(1, zlib.DEFLATED, 31)  # 31: gzip framing
                 await send(start)
-            chunk = stream.compress(body)
-            chunk += stream.flush(zlib.Z_SYNC_FLUSH if more else zlib.Z_FINISH)
+            active = stream
+
+            def piece() -> bytes:
+                chunk = active.compress(body)
+                return chunk + active.flush(zlib.Z_SYNC_FLUSH if more else zlib.Z_FINISH)
+
+            chunk = (
+                piece() if len(body) < THREAD_BODY_BYTES else await anyio.to_thread.run_sync(piece)
+            )
             await send({"type": "http.response.body", "body": chunk, "more_body": more})
 
         await self.app(scope, receive, compress)
