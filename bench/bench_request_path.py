@@ -10,7 +10,7 @@ three runs, so the client's own cost does not count. Scenarios: the bare route, 
 lookup, tripoint's ``/health``, a one-point saturation lookup (GET), a 1,000-point lookup
 (POST JSON) and a flash-freeze balance (POST). Beside them, in this process: the core's
 10,000-point saturation lookup plus orjson of its arrays, against tripoint's 10,000-point
-POST.
+POST (asked uncompressed, and once more with gzip).
 
 Goals (issue: request path at the floor): ``/health`` <= 2 x the bare Starlette route; a
 one-point lookup <= 1.5 x the raw ASGI floor; a 10,000-point JSON batch <= 1.3 x the
@@ -54,10 +54,17 @@ def _cpu_seconds(pid: int) -> float:
     return (int(fields[11]) + int(fields[12])) / _TICKS
 
 
-def _server_cpu_per_request(base_url: str, pid: int, calls: Sequence[Call], count: int) -> float:
-    """Best of three: server CPU seconds per request over ``count`` sequential requests."""
+def _server_cpu_per_request(
+    base_url: str, pid: int, calls: Sequence[Call], count: int, *, gzip: bool = False
+) -> float:
+    """Best of three: server CPU seconds per request over ``count`` sequential requests.
+
+    Answers are asked uncompressed (``Accept-Encoding: identity``) unless ``gzip``: the
+    floors compress nothing, and compression is the client's choice.
+    """
     best = float("inf")
-    with httpx.Client(base_url=base_url, timeout=60) as client:
+    coding = {"accept-encoding": "gzip" if gzip else "identity"}
+    with httpx.Client(base_url=base_url, timeout=60, headers=coding) as client:
         for method, path, body in calls[:3]:  # warm the route and its caches
             client.request(method, path, json=body).raise_for_status()
         for _ in range(_RUNS):
@@ -195,6 +202,9 @@ def main() -> int:
     with running_server() as server:
         for name, calls, count in service_scenarios:
             rows[name] = _server_cpu_per_request(server.base_url, server.pid, calls, count)
+        rows["tripoint lookup, 10,000 points (POST, gzip)"] = _server_cpu_per_request(
+            server.base_url, server.pid, _batch(10_000), 30, gzip=True
+        )
     rows["in-process core + orjson, 10,000 points"] = _in_process_batch(10_000)
     print(f"server CPU per request (best of {_RUNS}, one keep-alive connection):")
     for name, seconds in rows.items():
