@@ -9,7 +9,7 @@ from typing import Final
 import numpy as np
 
 from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
-from service.api.simulations.plots import PlotFormat, figure_bytes, mark_events
+from service.api.simulations.plots import PlotFormat, display_unit, figure_bytes, mark_events
 from service.core.drying import DesignSpaceResult, PrimaryDryingResult
 
 __all__ = ["plot_design_space", "plot_primary_drying"]
@@ -34,7 +34,7 @@ def plot_primary_drying(result: PrimaryDryingResult, unit_set: UnitSet, kind: Pl
 
     series = result.series
     hours = series.time / _HOUR
-    temperature_unit = output_unit(Dimension.TEMPERATURE, unit_set)
+    temperature_unit = display_unit(output_unit(Dimension.TEMPERATURE, unit_set))
     rate_unit = output_unit(Dimension.MASS_FLOW, unit_set)
 
     def temperature(values: np.ndarray) -> np.ndarray:
@@ -101,7 +101,7 @@ def plot_design_space(result: DesignSpaceResult, unit_set: UnitSet, kind: PlotFo
     from matplotlib.figure import Figure
 
     pressure_unit = output_unit(Dimension.PRESSURE, unit_set)
-    temperature_unit = output_unit(Dimension.TEMPERATURE, unit_set)
+    temperature_unit = display_unit(output_unit(Dimension.TEMPERATURE, unit_set))
     x = np.asarray(convert_from_si(result.chamber_pressures, Dimension.PRESSURE, unit_set))
     y = np.asarray(convert_from_si(result.shelf_temperatures, Dimension.TEMPERATURE, unit_set))
     front = np.asarray(convert_from_si(result.front_temperature, Dimension.TEMPERATURE, unit_set))

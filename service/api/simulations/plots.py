@@ -19,6 +19,7 @@ from service.core.simulation import VacuumChamberResult
 __all__ = [
     "PLOT_MEDIA_TYPES",
     "PlotFormat",
+    "display_unit",
     "figure_bytes",
     "mark_events",
     "plot_format_for",
@@ -65,8 +66,32 @@ def _time_axis(seconds: np.ndarray) -> tuple[np.ndarray, str]:
     return seconds, "s"
 
 
-def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFormat) -> bytes:
-    """Pressure (log scale) and product temperature against time, events marked.
+_DISPLAY_UNITS: Final = {"degC": "°C", "degF": "°F"}
+"""Unit labels as a reader expects them on an axis (the API's spellings stay ASCII)."""
+
+
+def display_unit(unit: str) -> str:
+    """An output unit as an axis label shows it (``degC`` -> ``°C``)."""
+    return _DISPLAY_UNITS.get(unit, unit)
+
+
+def _clock(seconds: float) -> str:
+    """A time of the run as a label: s below 5 min, else min, else h above 2 h."""
+    if seconds >= 7200.0:
+        return f"{seconds / 3600.0:.3g} h"
+    if seconds >= 300.0:
+        return f"{seconds / 60.0:.3g} min"
+    return f"{seconds:.3g} s"
+
+
+def plot_simulation(
+    result: VacuumChamberResult,
+    unit_set: UnitSet,
+    kind: PlotFormat,
+    calculation_id: str | None = None,
+) -> bytes:
+    """Pressure (log scale) and product temperature against time, events marked with their
+    times, the schedule's limits drawn as markers (filled when met, open when missed).
 
     Parameters
     ----------
@@ -76,6 +101,8 @@ def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFo
         Units of the pressure and temperature axes.
     kind
         ``"svg"`` or ``"png"``.
+    calculation_id
+        The stored record's id, named in the title.
 
     Returns
     -------
@@ -116,41 +143,75 @@ def plot_simulation(result: VacuumChamberResult, unit_set: UnitSet, kind: PlotFo
         color="tab:green",
         label="product",
     )
-    lower.set_ylabel(f"product temperature [{temperature_unit}]")
+    for check in result.schedule:
+        at = check.time / (float(series.time[-1] / time[-1]) if time.size and time[-1] else 1.0)
+        limit = convert_from_si(
+            np.array([check.temperature_limit]), Dimension.TEMPERATURE, unit_set
+        )
+        lower.plot(
+            [at],
+            limit,
+            marker="v",
+            ms=7,
+            color="tab:purple",
+            fillstyle="full" if check.met else "none",
+            ls="none",
+        )
+    if result.schedule:
+        lower.plot([], [], marker="v", color="tab:purple", ls="none", label="schedule limit")
+        lower.legend(loc="upper right", fontsize="small")
+    lower.set_ylabel(f"product temperature [{display_unit(temperature_unit)}]")
     lower.set_xlabel(f"time [{time_unit}]")
     lower.grid(True, alpha=0.3)
     scale = float(series.time[-1] / time[-1]) if time.size and time[-1] > 0 else 1.0
     marks = [
-        (event.time / scale, _EVENT_LABELS[event.name])
+        (event.time / scale, f"{_EVENT_LABELS[event.name]} {_clock(event.time)}")
         for event in result.events
         if event.name in _EVENT_LABELS
     ]
-    mark_events((upper, lower), lower, marks)
-    figure.suptitle("Vacuum chamber simulation")
+    mark_events((upper, lower), upper, marks)
+    summary = result.summary
+    final = float(
+        convert_from_si(np.array([summary.final_temperature]), Dimension.TEMPERATURE, unit_set)[0]
+    )
+    title = (
+        f"Vacuum chamber simulation: {summary.end_reason.replace('-', ' ')} after "
+        f"{_clock(summary.end_time)}, product at {final:.4g} {display_unit(temperature_unit)}, "
+        f"{summary.evaporated_mass:.3g} kg evaporated"
+    )
+    if calculation_id:
+        title += f"\ncalculation {calculation_id}"
+    figure.suptitle(title, fontsize="medium")
     return figure_bytes(figure, kind)
 
 
 def mark_events(axes: Sequence[Any], labelled: Any, marks: Sequence[tuple[float, str]]) -> None:
     """A vertical line on every one of ``axes`` at each mark's time (in the axis' time
-    unit), its label written along the line at the top of the axis ``labelled``."""
+    unit), its label written upright above the top of the axis ``labelled`` (outside the
+    data, so it hides no curve)."""
     for at, label in marks:
         for axis in axes:
             axis.axvline(at, color="grey", lw=0.8, ls="-.")
         labelled.annotate(
             label,
-            xy=(at, 1.0),
+            xy=(at, 1.01),
             xycoords=("data", "axes fraction"),
             rotation=90,
-            va="top",
-            ha="right",
+            va="bottom",
+            ha="center",
             fontsize="x-small",
             color="dimgrey",
+            annotation_clip=False,  # a label near an edge is drawn, not dropped
         )
 
 
 def figure_bytes(figure: Any, kind: PlotFormat) -> bytes:
     """The figure as SVG (no date, so the same answer gives the same bytes) or PNG."""
+    import matplotlib
+
     buffer = io.BytesIO()
     metadata = {"Date": None} if kind == "svg" else None
-    figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
+    # svg.fonttype "none": text stays text (searchable, selectable), not glyph paths.
+    with matplotlib.rc_context({"svg.fonttype": "none"}):
+        figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
     return buffer.getvalue()

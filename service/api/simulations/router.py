@@ -77,7 +77,7 @@ def post_vacuum_chamber_simulation(request: Request, body: VacuumChamberSimulati
     kind = plot_format_for(accept)
     if kind is not None:
         return Response(
-            plot_simulation(result, body.output_units, kind),
+            plot_simulation(result, body.output_units, kind, answer["meta"]["calculation_id"]),
             media_type=PLOT_MEDIA_TYPES[kind],
             headers={"X-Calculation-ID": answer["meta"]["calculation_id"]},
         )

@@ -299,3 +299,23 @@ def test_supercooling_as_typed(client: TestClient) -> None:
     )
     assert above.status_code == 422
     assert "product.nucleation_temperature" in above.json()["detail"]
+
+
+def test_plot_reads_as_a_report(client: TestClient) -> None:
+    # SVG text stays text (searchable), the temperature axis says °C in engineering units,
+    # the title names the stored calculation, and event labels carry their times.
+    body = {
+        **BODY,
+        "output_units": "engineering",
+        "schedule": [{"time": "5 min", "temperature": "5 degC"}],
+    }
+    response = _post(client, body, accept="image/svg+xml")
+    assert response.status_code == 200
+    svg = response.text
+    assert "<text" in svg
+    assert "°C" in svg
+    assert response.headers["x-calculation-id"] in svg
+    assert ("flash " in svg and " s</text>" in svg) or "flash " in svg
+    answer = _post(client, body).json()
+    flash = next(e for e in answer["events"] if e["name"] == "flash-point")
+    assert f"flash {flash['time']['value']:.3g} s" in svg
