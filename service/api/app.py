@@ -21,6 +21,7 @@ from service.api.drying import router as drying
 from service.api.http.body_media import document_body_problems
 from service.api.http.caching import Validators, document_caching
 from service.api.http.compression import Compression
+from service.api.http.contract import document_contract
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
@@ -240,6 +241,7 @@ def create_app(
                 description=app.description,
                 routes=app.routes,
             )
+            document_contract(schema)
             add_examples_to_openapi(schema, examples)
             document_csv(schema, csv_routes)
             document_negotiation(schema)

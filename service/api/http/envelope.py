@@ -5,7 +5,6 @@ from __future__ import annotations
 
 import functools
 import math
-import uuid
 from collections.abc import Iterable, Sequence
 from datetime import UTC, datetime
 from typing import Any
@@ -13,6 +12,7 @@ from typing import Any
 import orjson
 
 from service import __version__
+from service.api.http.observability import current_request_id
 from service.api.http.responses import NonFiniteResultError
 from service.api.http.units import UnitSet
 from service.core.properties.advisories import Advisory
@@ -97,7 +97,10 @@ def envelope(
         ],
         "meta": {
             "service_version": __version__,
-            "calculation_id": str(uuid.uuid4()),
+            # Only a stored answer has a calculation id (record_calculation gives it); every
+            # answer carries its request id.
+            "calculation_id": None,
+            "request_id": current_request_id(),
             "time": datetime.now(UTC).isoformat(timespec="milliseconds").replace("+00:00", "Z"),
             "output_units": unit_set.value,
         },

@@ -120,8 +120,19 @@ class Meta(ApiModel):
     """Where and when the answer was made."""
 
     service_version: str
-    calculation_id: str
-    time: str = Field(description="UTC time of the calculation, ISO 8601.")
+    calculation_id: str | None = Field(
+        None,
+        description="Id of the stored record of this answer (`GET /v1/calculations/{id}`); "
+        "null for answers that are not stored (property lookups).",
+        json_schema_extra={"format": "uuid"},
+    )
+    request_id: str | None = Field(
+        None, description="The request's id, as in the `X-Request-ID` header."
+    )
+    time: str = Field(
+        description="UTC time of the calculation, ISO 8601.",
+        json_schema_extra={"format": "date-time"},
+    )
     output_units: UnitSet
 
 

@@ -12,6 +12,7 @@ from __future__ import annotations
 
 import asyncio
 import logging
+import uuid
 from collections.abc import Mapping
 from datetime import UTC, datetime, timedelta
 from typing import Any, Literal
@@ -202,6 +203,9 @@ def record_calculation(
         check_finite(result)  # a record is written only for an answer that can be sent
     except NonFiniteResultError:
         raise non_finite_problem(sent) from None
+    meta = result.get("meta")
+    if isinstance(meta, dict) and not meta.get("calculation_id"):
+        meta["calculation_id"] = str(uuid.uuid4())  # the id of the record stored now
     key_id = getattr(request.state, "api_key_id", None)
     keeper.record(kind=kind, inputs=sent, result=result, key_id=key_id)
     return result

@@ -107,6 +107,8 @@ def document_security(schema: dict[str, Any]) -> None:
     }
     for path, operations in schema.get("paths", {}).items():
         if not is_protected(path):
+            for operation in operations.values():
+                operation["security"] = []  # open: no key needed (OpenAPI 3.1 Sec. 4.8.10)
             continue
         for operation in operations.values():
             operation["security"] = [{_SCHEME_NAME: []}]

@@ -34,7 +34,9 @@ def _check_envelope(body: dict[str, Any]) -> None:
     assert body["property_sources"], "every answer names its formulations"
     for source in body["property_sources"]:
         assert source["release"].startswith("IAPWS")
-    assert body["meta"]["calculation_id"]
+    # A lookup is not stored: no calculation id that would lead nowhere; its request id.
+    assert body["meta"]["calculation_id"] is None
+    assert body["meta"]["request_id"]
     assert body["meta"]["service_version"]
 
 
