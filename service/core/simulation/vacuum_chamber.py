@@ -271,7 +271,8 @@ def _heat_gain_statement(gain: HeatGainRate) -> str:
         notes.append("shelf or tray contact by a constant heat-transfer coefficient")
     text = "Heat gain: Q = " + " + ".join(terms) + "."
     if notes:
-        text += " " + "; ".join(notes).capitalize() + "; walls and shelf at constant temperature."
+        joined = "; ".join(notes)
+        text += f" {joined[0].upper()}{joined[1:]}; walls and shelf at constant temperature."
     return text
 
 

@@ -96,7 +96,7 @@ def test_terms_add_up_with_the_older_ones() -> None:
         + 10.0 * 0.1 * (250.0 - START)
     )
     assert float(result.series.heat_gain_rate[0]) == pytest.approx(expected, rel=1e-12)
-    assert any("wall radiation" in line.lower() for line in result.assumptions)
+    assert any("Wall radiation" in line and "CODATA 2018" in line for line in result.assumptions)
     assert any("shelf or tray contact" in line.lower() for line in result.assumptions)
 
 
