@@ -29,6 +29,7 @@ from service.core.balances import (
     Companion,
     Composition,
     Solute,
+    named_solute,
 )
 from service.core.errors import InvalidInputError, OutOfRangeError
 from service.core.simulation import (
@@ -115,8 +116,8 @@ def _solute(solute: SoluteInput | None) -> Solute | None:
                 f"{prefix}.name",
                 "a named solute brings its molar mass and van 't Hoff factor; omit them",
             )
-        # the chamber simulation keeps the ideal (Raoult) solution of the named solute
-        return replace(NAMED_SOLUTES[solute.name], mass_fraction=fraction, activity_model=None)
+        # the named solute's published model by default, as in the balances
+        return named_solute(solute.name, fraction, solute.model)
     if solute.molar_mass is None:
         raise InvalidInputError(
             f"{prefix}.molar_mass", "give a named solute (name) or its molar mass"

@@ -13,7 +13,9 @@ Non-water heat capacity
 
 The sensible heat S(tau) = integral from T_t to T of the total, a cubic in
 tau = T - 273.16 K. A solute is part of the non-water mass (its heat is in the solids'
-specific heat); it sets the water activity (ideal solution, van 't Hoff factor).
+specific heat); it sets the water activity: its non-ideal model where it has one
+(:mod:`service.core.simulation.solution_tables`), else the ideal solution with its van 't Hoff
+factor.
 """
 
 from __future__ import annotations
@@ -31,6 +33,7 @@ from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATU
 from service.core.simulation.inputs import Product
 from service.core.simulation.path_tables import LIQUID_TEMPERATURE_MIN, path_tables
 from service.core.simulation.product_state import ProductThermodynamics
+from service.core.simulation.solution_tables import SolutionActivity
 
 __all__ = ["LoadModel", "load_model"]
 
@@ -87,19 +90,16 @@ def _solute_constant(product: Product, water: float) -> tuple[float | None, floa
     solute = product.solute
     if solute is None:
         return None, 0.0
-    if solute.activity_model is not None:
-        raise InvalidInputError(
-            "product.solute.model",
-            "the chamber simulation takes the ideal (Raoult) solution only; give the solute "
-            "without its non-ideal activity model",
-        )
+    model = solute.activity_model
     fraction = require_scalar_within(
         solute.mass_fraction,
         "product.solute.mass_fraction",
         0.0,
-        0.5,
+        0.5 if model is None else model.maximum_mass_fraction,
         "1",
-        "ideal-solution model range",
+        "ideal-solution model range"
+        if model is None
+        else f"{model.name}: the {model.model} model's range",
     )
     molar = require_scalar_within(
         solute.molar_mass, "product.solute.molar_mass", 1e-3, None, "kg/mol", "must be positive"
@@ -162,9 +162,19 @@ def load_model(product: Product, companions: tuple[Companion, ...]) -> LoadModel
     (c1, c2, c3), water, rescaled = _solids_polynomial(product)
     c1 += heat_capacity(companions)
     constant, solute_mass = _solute_constant(product, water)
-    onset = TRIPLE_POINT_TEMPERATURE if constant is None else _freezing_onset(constant, water)
+    model = None if product.solute is None else product.solute.activity_model
+    activity = (
+        None if model is None or constant is None else SolutionActivity(model, solute_mass, water)
+    )
+    if activity is not None:
+        constant = None  # the non-ideal tables replace the ideal constant
+        onset = activity.freezing_onset
+    else:
+        onset = TRIPLE_POINT_TEMPERATURE if constant is None else _freezing_onset(constant, water)
     if product.initial_temperature < onset or (
-        constant is None and product.initial_temperature == TRIPLE_POINT_TEMPERATURE
+        constant is None
+        and activity is None
+        and product.initial_temperature == TRIPLE_POINT_TEMPERATURE
     ):
         raise OutOfRangeError(
             "product.initial_temperature",
@@ -174,7 +184,7 @@ def load_model(product: Product, companions: tuple[Companion, ...]) -> LoadModel
             "K",
             "the product starts unfrozen, above its freezing onset",
         )
-    thermodynamics = ProductThermodynamics((c1, c2, c3), constant)
+    thermodynamics = ProductThermodynamics((c1, c2, c3), constant, activity)
     sensible, _ = thermodynamics.sensible(product.initial_temperature)
     energy = water * path_tables().liquid.values(product.initial_temperature)[0] + sensible
     return LoadModel(

@@ -47,6 +47,7 @@ from service.core.simulation.path_tables import (
     LIQUID_TEMPERATURE_MIN,
     path_tables,
 )
+from service.core.simulation.solution_tables import SolutionActivity
 
 __all__ = ["ProductState", "ProductThermodynamics"]
 
@@ -104,10 +105,14 @@ class ProductThermodynamics:
     """
 
     def __init__(
-        self, sensible_coefficients: tuple[float, float, float], solute_constant: float | None
+        self,
+        sensible_coefficients: tuple[float, float, float],
+        solute_constant: float | None,
+        solution: SolutionActivity | None = None,
     ) -> None:
         self._c1, self._c2, self._c3 = sensible_coefficients
         self._solute = solute_constant
+        self._activity = solution
         tables = path_tables()
         self._liquid = tables.liquid
         self._ice = tables.ice
@@ -135,16 +140,25 @@ class ProductThermodynamics:
     @property
     def has_solute(self) -> bool:
         """Whether the water holds a solute (progressive freezing)."""
-        return self._solute is not None
+        return self._solute is not None or self._activity is not None
+
+    @property
+    def lowest_temperature(self) -> float:
+        """K: the coldest state the product's model takes (its solute model's end)."""
+        if self._activity is not None:
+            return self._activity.lowest_temperature
+        return LIQUID_TEMPERATURE_MIN if self._solute is not None else ICE_TEMPERATURE_MIN
 
     def water_activity(self, evaporated: float, ice_fraction: float, water_mass: float) -> float:
         """a_w = m_l / (m_l + K) of the unfrozen water (1 for pure water).
 
         ``evaporated`` and ``water_mass`` in kg, ``ice_fraction`` per initial water mass.
         """
+        unfrozen = water_mass - evaporated - ice_fraction * water_mass
+        if self._activity is not None:
+            return math.exp(self._activity.liquid_log_activity(unfrozen)[0])
         if self._solute is None:
             return 1.0
-        unfrozen = water_mass - evaporated - ice_fraction * water_mass
         return unfrozen / (unfrozen + self._solute)
 
     def sensible(self, temperature: float) -> tuple[float, float]:
@@ -176,6 +190,8 @@ class ProductThermodynamics:
         self, t: float, m: float
     ) -> tuple[float, float, float, float, float, float, float, float]:
         """(E, dE/dT, dE/dm, p, dp/dT, dp/dm, h_v, unfrozen water capacity - m)."""
+        if self._activity is not None:
+            return self._non_ideal_state(t, m, self._activity)
         k = self._solute
         assert k is not None
         (h_l, log_p, h_v), (dh_l, dlog_p, _) = self._liquid.values_and_slopes(t)
@@ -217,6 +233,44 @@ class ProductThermodynamics:
             capacity - m,
         )
 
+    def _non_ideal_state(
+        self, t: float, m: float, activity: SolutionActivity
+    ) -> tuple[float, float, float, float, float, float, float, float]:
+        """As :meth:`_solution_state`, with the solute's tabulated non-ideal activity."""
+        (h_l, log_p, h_v), (dh_l, dlog_p, _) = self._liquid.values_and_slopes(t)
+        s, ds = self.sensible(t)
+        p_l = math.exp(log_p)
+        capacity, dcapacity = math.inf, 0.0
+        if t < TRIPLE_POINT_TEMPERATURE:
+            capacity, dcapacity = activity.unfrozen_water(t)
+        if capacity >= m:
+            log_a, dlog_a_dm = activity.liquid_log_activity(m)
+            p = math.exp(log_a) * p_l
+            return (
+                m * h_l + s,
+                m * dh_l + ds,
+                h_l,
+                p,
+                p * dlog_p,
+                p * dlog_a_dm,
+                h_v,
+                min(capacity - m, m),
+            )
+        (log_a,), (dlog_a,) = self._solution.values_and_slopes(t)
+        (h_i, _, _), (dh_i, _, _) = self._ice.values_and_slopes(t)
+        latent = h_l - h_i
+        p = math.exp(log_a) * p_l
+        return (
+            m * h_i + capacity * latent + s,
+            m * dh_i + dcapacity * latent + capacity * (dh_l - dh_i) + ds,
+            h_i,
+            p,
+            p * (dlog_a + dlog_p),
+            0.0,
+            h_v,
+            capacity - m,
+        )
+
     # -- inverse ----------------------------------------------------------------------
 
     def state(self, energy: float, water_mass: float, guess: float) -> ProductState:
@@ -238,7 +292,7 @@ class ProductThermodynamics:
             guess = last_t + (energy - last_energy - by_mass * (m - last_mass)) / slope
         if self.supercooled:
             return self._supercooled_inverse(energy, m, guess)
-        if self._solute is not None:
+        if self.has_solute:
             return self._solution_inverse(energy, m, guess)
         liquid_t, ice_t = self.triple_point_energies(m)
         if energy >= liquid_t:
@@ -325,6 +379,10 @@ class ProductThermodynamics:
         """(E, dE/dT, dE/dm, p, dp/dT, dp/dm, h_v) of the liquid, ice or not (Raoult with a
         solute)."""
         e, de_dt, h_l, p_l, dp_l, h_v = self._pure_liquid(t, m)
+        if self._activity is not None:
+            log_a, dlog_a_dm = self._activity.liquid_log_activity(m)
+            a = math.exp(log_a)
+            return e, de_dt, h_l, a * p_l, a * dp_l, a * p_l * dlog_a_dm, h_v
         k = self._solute
         if k is None:
             return e, de_dt, h_l, p_l, dp_l, 0.0, h_v

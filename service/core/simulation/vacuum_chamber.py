@@ -58,7 +58,6 @@ from service.core.simulation.inputs import (
 )
 from service.core.simulation.load import LoadModel, load_model
 from service.core.simulation.path_tables import (
-    ICE_TEMPERATURE_MIN,
     LIQUID_TEMPERATURE_MAX,
     LIQUID_TEMPERATURE_MIN,
 )
@@ -208,7 +207,7 @@ def _event_functions(
         events["condenser-capacity-exceeded"] = _event(
             lambda t, y: float(y[CONDENSED]) - capacity, terminal=False, direction=1.0
         )
-    lowest = LIQUID_TEMPERATURE_MIN if model.product.has_solute else ICE_TEMPERATURE_MIN
+    lowest = model.product.lowest_temperature
     events["model-range-left"] = _event(
         lambda t, y: model.rates(y).product.temperature - lowest, terminal=True, direction=-1.0
     )
@@ -607,10 +606,19 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
             "fiber and ash (coefficients from memory)."
         )
     if case.product.solute is not None:
+        model = case.product.solute.activity_model
         items.append(
-            "Solute: ideal (Raoult) solution with effective molar mass and van 't Hoff factor "
-            "(Heldman 1974); vapor pressure a_w p_liquid(T); part of the non-water mass, its "
-            "heat in the solids' specific heat; no eutectic: some water stays unfrozen."
+            (
+                "Solute: ideal (Raoult) solution with effective molar mass and van 't Hoff "
+                "factor (Heldman 1974)"
+                if model is None
+                else f"Solute: {model.source}; tabulated for the run (brine in equilibrium "
+                "with ice against temperature, activity without ice at the freezing onset's "
+                "temperature)"
+            )
+            + "; vapor pressure a_w p_liquid(T); part of the non-water mass, its heat in the "
+            "solids' specific heat; no heat of mixing; the simulation stops where the brine "
+            "leaves the model's range (sodium chloride: the eutectic)."
         )
     return tuple(items)
 
@@ -676,8 +684,13 @@ def _warnings(
                 Advisory(
                     "solution-concentrated",
                     f"The unfrozen solution ends with a water activity below "
-                    f"{_SOLUTION_ACTIVITY_WARNING}; the ideal-solution model is outside its "
-                    "reliable range.",
+                    f"{_SOLUTION_ACTIVITY_WARNING}; "
+                    + (
+                        "the ideal-solution model is outside its reliable range."
+                        if case.product.solute is None or case.product.solute.activity_model is None
+                        else "the brine is concentrated: check it against the solute's "
+                        "validated range."
+                    ),
                 )
             )
     if load.composition_rescaled:

@@ -61,6 +61,9 @@ branch, near the homogeneous-nucleation limit of water)."""
 _NORMAL_PRESSURE: Final = 101325.0
 _ITERATIONS: Final = 40
 _TOLERANCE: Final = 1e-9
+_ABOVE_TRIPLE_POINT: Final = 1e-4
+"""K: how far above 273.16 K a freezing point may want to go and still be taken as 273.16 K
+(below the triple-point pressure; at 0 Pa pure water melts 4.5e-5 K above it)."""
 
 
 def ice_log_water_activity(temperature: FloatArray, pressure: FloatArray) -> FloatArray:
@@ -109,8 +112,16 @@ def _onset(
             SPECIFIC_GAS_CONSTANT * temperature**2
         )
         step = (solution - target) / (solution_slope - target_slope)
-        temperature = np.clip(temperature - step, LIQUID_FLOOR_TEMPERATURE, 273.2)
-        if np.all(np.abs(step) < _TOLERANCE):
+        wanted = temperature - step
+        temperature = np.clip(wanted, LIQUID_FLOOR_TEMPERATURE, TRIPLE_POINT_TEMPERATURE)
+        # Below the triple-point pressure the melting point of (nearly) pure water lies up
+        # to 4.5e-5 K above 273.16 K, where R10-06 ice is not evaluated: the cap is the
+        # answer there, at most 4.5e-5 K low.
+        settled = (np.abs(step) < _TOLERANCE) | (
+            (wanted > TRIPLE_POINT_TEMPERATURE)
+            & (wanted - TRIPLE_POINT_TEMPERATURE < _ABOVE_TRIPLE_POINT)
+        )
+        if np.all(settled):
             return np.asarray(temperature, dtype=np.float64)
     raise NotConvergedError(
         "freezing point of the solution (Newton)",

@@ -111,3 +111,18 @@ def test_bad_numbers_are_refused() -> None:
         solution_freezing(model, float("nan"), 270.0)
     with pytest.raises(OutOfRangeError):
         solution_freezing(model, 0.1, 270.0, pressure=-1.0)
+
+
+def test_freezing_points_at_vacuum_pressures() -> None:
+    # Under vacuum (below the triple-point pressure, 611.657 Pa) the freezing point rises by
+    # the melting line's slope, dT/dp = T (v_liquid - v_ice) / L_f, about -7.4e-8 K/Pa
+    # (Clausius-Clapeyron with IAPWS-95 and R10-06 volumes and latent heat; from memory);
+    # the pure-water end of the line is taken as 273.16 K (4.5e-5 K low at most).
+    from service.core.solutions.aqueous import solution_model as model_of
+    from service.core.solutions.freezing import solute_freezing_point as onset_of
+
+    sucrose = model_of("sucrose")
+    vacuum = float(onset_of(sucrose, 0.10, 500.0))
+    atmospheric = float(onset_of(sucrose, 0.10, 101325.0))
+    assert vacuum - atmospheric == pytest.approx(7.4e-8 * (101325.0 - 500.0), rel=0.05)
+    assert float(onset_of(sucrose, 0.0, 500.0)) == pytest.approx(273.16, abs=5e-5)
