@@ -150,16 +150,34 @@ class ProductThermodynamics:
         return LIQUID_TEMPERATURE_MIN if self._solute is not None else ICE_TEMPERATURE_MIN
 
     def water_activity(self, evaporated: float, ice_fraction: float, water_mass: float) -> float:
-        """a_w = m_l / (m_l + K) of the unfrozen water (1 for pure water).
+        """a_w of the unfrozen water (1 for pure water; m_l / (m_l + K) for the ideal solution).
 
         ``evaporated`` and ``water_mass`` in kg, ``ice_fraction`` per initial water mass.
         """
         unfrozen = water_mass - evaporated - ice_fraction * water_mass
+        return self._liquid_activity(unfrozen)[0]
+
+    def _liquid_activity(self, m: float) -> tuple[float, float]:
+        """(a_w, da_w/dm) of the product's water without ice, ``m`` kg of it: 1 for pure
+        water, Raoult's m / (m + K) for the ideal solution, else the solute's tables."""
         if self._activity is not None:
-            return math.exp(self._activity.liquid_log_activity(unfrozen)[0])
-        if self._solute is None:
-            return 1.0
-        return unfrozen / (unfrozen + self._solute)
+            log_a, dlog_a_dm = self._activity.liquid_log_activity(m)
+            a = math.exp(log_a)
+            return a, a * dlog_a_dm
+        k = self._solute
+        if k is None:
+            return 1.0, 0.0
+        return m / (m + k), k / ((m + k) * (m + k))
+
+    def _unfrozen_water(self, t: float, log_a: float, dlog_a: float) -> tuple[float, float]:
+        """(m_l, dm_l/dT): water left liquid beside ice at ``t`` < 273.16 K, where ice
+        equilibrium has ln a_w = ``log_a`` (slope ``dlog_a``)."""
+        if self._activity is not None:
+            return self._activity.unfrozen_water(t)
+        k = self._solute
+        assert k is not None
+        denominator = math.expm1(-log_a)
+        return k / denominator, k * math.exp(-log_a) * dlog_a / (denominator * denominator)
 
     def sensible(self, temperature: float) -> tuple[float, float]:
         """S(tau) and dS/dT of the non-water part, J and J/K."""
@@ -190,10 +208,6 @@ class ProductThermodynamics:
         self, t: float, m: float
     ) -> tuple[float, float, float, float, float, float, float, float]:
         """(E, dE/dT, dE/dm, p, dp/dT, dp/dm, h_v, unfrozen water capacity - m)."""
-        if self._activity is not None:
-            return self._non_ideal_state(t, m, self._activity)
-        k = self._solute
-        assert k is not None
         (h_l, log_p, h_v), (dh_l, dlog_p, _) = self._liquid.values_and_slopes(t)
         s, ds = self.sensible(t)
         p_l = math.exp(log_p)
@@ -203,11 +217,9 @@ class ProductThermodynamics:
         dlog_a = 0.0
         if t < TRIPLE_POINT_TEMPERATURE:
             (log_a,), (dlog_a,) = self._solution.values_and_slopes(t)
-            denominator = math.expm1(-log_a)
-            capacity = k / denominator
-            dcapacity = k * math.exp(-log_a) * dlog_a / (denominator * denominator)
+            capacity, dcapacity = self._unfrozen_water(t, log_a, dlog_a)
         if capacity >= m:
-            activity = m / (m + k)
+            activity, by_mass = self._liquid_activity(m)
             p = activity * p_l
             return (
                 m * h_l + s,
@@ -215,48 +227,10 @@ class ProductThermodynamics:
                 h_l,
                 p,
                 p * dlog_p,
-                p_l * k / ((m + k) * (m + k)),
+                p_l * by_mass,
                 h_v,
                 min(capacity - m, m),
             )
-        (h_i, _, _), (dh_i, _, _) = self._ice.values_and_slopes(t)
-        latent = h_l - h_i
-        p = math.exp(log_a) * p_l
-        return (
-            m * h_i + capacity * latent + s,
-            m * dh_i + dcapacity * latent + capacity * (dh_l - dh_i) + ds,
-            h_i,
-            p,
-            p * (dlog_a + dlog_p),
-            0.0,
-            h_v,
-            capacity - m,
-        )
-
-    def _non_ideal_state(
-        self, t: float, m: float, activity: SolutionActivity
-    ) -> tuple[float, float, float, float, float, float, float, float]:
-        """As :meth:`_solution_state`, with the solute's tabulated non-ideal activity."""
-        (h_l, log_p, h_v), (dh_l, dlog_p, _) = self._liquid.values_and_slopes(t)
-        s, ds = self.sensible(t)
-        p_l = math.exp(log_p)
-        capacity, dcapacity = math.inf, 0.0
-        if t < TRIPLE_POINT_TEMPERATURE:
-            capacity, dcapacity = activity.unfrozen_water(t)
-        if capacity >= m:
-            log_a, dlog_a_dm = activity.liquid_log_activity(m)
-            p = math.exp(log_a) * p_l
-            return (
-                m * h_l + s,
-                m * dh_l + ds,
-                h_l,
-                p,
-                p * dlog_p,
-                p * dlog_a_dm,
-                h_v,
-                min(capacity - m, m),
-            )
-        (log_a,), (dlog_a,) = self._solution.values_and_slopes(t)
         (h_i, _, _), (dh_i, _, _) = self._ice.values_and_slopes(t)
         latent = h_l - h_i
         p = math.exp(log_a) * p_l
@@ -379,15 +353,8 @@ class ProductThermodynamics:
         """(E, dE/dT, dE/dm, p, dp/dT, dp/dm, h_v) of the liquid, ice or not (Raoult with a
         solute)."""
         e, de_dt, h_l, p_l, dp_l, h_v = self._pure_liquid(t, m)
-        if self._activity is not None:
-            log_a, dlog_a_dm = self._activity.liquid_log_activity(m)
-            a = math.exp(log_a)
-            return e, de_dt, h_l, a * p_l, a * dp_l, a * p_l * dlog_a_dm, h_v
-        k = self._solute
-        if k is None:
-            return e, de_dt, h_l, p_l, dp_l, 0.0, h_v
-        activity = m / (m + k)
-        return e, de_dt, h_l, activity * p_l, activity * dp_l, p_l * k / (m + k) ** 2, h_v
+        activity, by_mass = self._liquid_activity(m)
+        return e, de_dt, h_l, activity * p_l, activity * dp_l, p_l * by_mass, h_v
 
     def _supercooled_inverse(self, energy: float, m: float, guess: float) -> ProductState:
         t, values = self._newton(
