@@ -66,6 +66,25 @@ _ABOVE_TRIPLE_POINT: Final = 1e-4
 (below the triple-point pressure; at 0 Pa pure water melts 4.5e-5 K above it)."""
 
 
+def capped_freezing_step(
+    temperature: FloatArray, step: FloatArray, tolerance: float
+) -> tuple[FloatArray, bool]:
+    """One Newton step on a freezing line, capped at 273.16 K; (new T, all converged).
+
+    Below the triple-point pressure (611.657 Pa) the melting point of (nearly) pure water
+    lies up to 4.5e-5 K above 273.16 K (dT/dp about -7.4e-8 K/Pa), where R10-06 ice is not
+    evaluated: the cap is the answer there, at most 4.5e-5 K low. An element has converged
+    when its step is below ``tolerance`` K or it wants to go less than 1e-4 K past the cap.
+    """
+    wanted = temperature - step
+    capped = np.minimum(wanted, TRIPLE_POINT_TEMPERATURE)
+    settled = (np.abs(step) < tolerance) | (
+        (wanted > TRIPLE_POINT_TEMPERATURE)
+        & (wanted - TRIPLE_POINT_TEMPERATURE < _ABOVE_TRIPLE_POINT)
+    )
+    return np.asarray(capped, dtype=np.float64), bool(np.all(settled))
+
+
 def ice_log_water_activity(temperature: FloatArray, pressure: FloatArray) -> FloatArray:
     """ln a_w of water in equilibrium with ice Ih at (T, p), dimensionless (T <= 273.16 K)."""
     liquid = fluid_properties_at(temperature, pressure, phase="liquid")
@@ -112,16 +131,9 @@ def _onset(
             SPECIFIC_GAS_CONSTANT * temperature**2
         )
         step = (solution - target) / (solution_slope - target_slope)
-        wanted = temperature - step
-        temperature = np.clip(wanted, LIQUID_FLOOR_TEMPERATURE, TRIPLE_POINT_TEMPERATURE)
-        # Below the triple-point pressure the melting point of (nearly) pure water lies up
-        # to 4.5e-5 K above 273.16 K, where R10-06 ice is not evaluated: the cap is the
-        # answer there, at most 4.5e-5 K low.
-        settled = (np.abs(step) < _TOLERANCE) | (
-            (wanted > TRIPLE_POINT_TEMPERATURE)
-            & (wanted - TRIPLE_POINT_TEMPERATURE < _ABOVE_TRIPLE_POINT)
-        )
-        if np.all(settled):
+        capped, settled = capped_freezing_step(temperature, step, _TOLERANCE)
+        temperature = np.maximum(capped, LIQUID_FLOOR_TEMPERATURE)
+        if settled:
             return np.asarray(temperature, dtype=np.float64)
     raise NotConvergedError(
         "freezing point of the solution (Newton)",

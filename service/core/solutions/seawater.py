@@ -42,6 +42,7 @@ from service.core.properties.constants import SPECIFIC_GAS_CONSTANT
 from service.core.properties.helmholtz import fluid_properties_at
 from service.core.properties.ice import ice_gibbs_derivatives
 from service.core.properties.phase import FloatArray
+from service.core.solutions.freezing import capped_freezing_step
 from service.core.solutions.seawater_coefficients import (
     NORMAL_PRESSURE,
     REDUCING_PRESSURE,
@@ -87,9 +88,6 @@ _ROOM_TEMPERATURE_FREEZING_GUESS: Final = 54.0
 
 _ITERATIONS: Final = 40
 _TEMPERATURE_TOLERANCE: Final = 1e-10
-_ABOVE_TRIPLE_POINT: Final = 1e-4
-"""K: how far above 273.16 K a freezing temperature may want to go and still be taken as
-273.16 K (at 0 Pa the equilibrium of pure water is 4.5e-5 K above it)."""
 _SALINITY_ROOT_TOLERANCE: Final = 1e-13
 
 _I = np.array([row[0] for row in SALINE_GIBBS_TERMS])
@@ -302,16 +300,10 @@ def _freezing_temperature(salinity: FloatArray, pressure: FloatArray) -> FloatAr
         mismatch = water_gibbs + saline - ice.gibbs_energy
         slope = -water_entropy + saline_slope - ice.temperature_derivative
         step = mismatch / slope
-        wanted = temperature - step
-        temperature = np.minimum(wanted, 273.16)
-        # Below the triple-point pressure (611.657 Pa) the ice-liquid equilibrium of (nearly)
-        # pure water lies up to 4.5e-5 K above 273.16 K (dT/dp about -7.4e-8 K/Pa), where
-        # R10-06 ice is not evaluated: the cap is the answer there, 4.5e-5 K low at most.
-        settled = (np.abs(step) < _TEMPERATURE_TOLERANCE) | (
-            (wanted > 273.16) & (wanted - 273.16 < _ABOVE_TRIPLE_POINT)
-        )
-        if np.all(settled):
-            return np.asarray(temperature, dtype=np.float64)
+        # capped at 273.16 K, where below 611.657 Pa the pure-water end of the line stops
+        temperature, settled = capped_freezing_step(temperature, step, _TEMPERATURE_TOLERANCE)
+        if settled:
+            return temperature
     raise NotConvergedError(
         "freezing temperature of seawater (Newton)",
         _ITERATIONS,
