@@ -67,6 +67,8 @@ _SUMMARY: Final[tuple[tuple[str, Dimension], ...]] = (
     ("fully_frozen_time", Dimension.TIME),
     ("target_time", Dimension.TIME),
     ("final_temperature", Dimension.TEMPERATURE),
+    ("final_core_temperature", Dimension.TEMPERATURE),
+    ("final_surface_temperature", Dimension.TEMPERATURE),
     ("final_pressure", Dimension.PRESSURE),
     ("evaporated_mass", Dimension.MASS),
     ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
@@ -143,6 +145,7 @@ def _summary(summary: SimulationSummary, unit_set: UnitSet) -> dict[str, Any]:
         "schedule_met": summary.schedule_met,
         "solver_steps": summary.solver_steps,
         "right_hand_side_evaluations": summary.right_hand_side_evaluations,
+        "target_applies_to": summary.target_applies_to,
     }
 
 
@@ -226,11 +229,22 @@ def sweep_answer(
     }
 
 
+_INTERIOR_STATES: Final = ("core_temperature", "surface_temperature")
+"""Fields of :class:`ChamberStates` set only with the interior model (K; omitted without)."""
+
+
 def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict[str, Any]:
-    return {
+    answer: dict[str, Any] = {
         name: quantity_output(getattr(states, name), dimension, unit_set, as_array=as_array)
         for name, dimension in STATE_DIMENSIONS
     }
+    for name in _INTERIOR_STATES:
+        values = getattr(states, name)
+        if values is not None:  # omitted for the uniform product
+            answer[name] = quantity_output(
+                values, Dimension.TEMPERATURE, unit_set, as_array=as_array
+            )
+    return answer
 
 
 def simulation_answer(
@@ -260,6 +274,7 @@ def simulation_answer(
                     check.product_temperature, Dimension.TEMPERATURE, unit_set
                 ),
                 "met": check.met,
+                "applies_to": check.applies_to,
             }
             for check in result.schedule
         ],

@@ -137,12 +137,28 @@ def plot_simulation(
     upper.set_ylabel(f"pressure [{pressure_unit}]")
     upper.legend(loc="upper right", fontsize="small")
     upper.grid(True, which="both", alpha=0.3)
+    interior = series.core_temperature is not None and series.surface_temperature is not None
     lower.plot(
         time,
         convert_from_si(series.product_temperature, Dimension.TEMPERATURE, unit_set),
         color="tab:green",
-        label="product",
+        label="product (volume mean)" if interior else "product",
     )
+    if series.core_temperature is not None and series.surface_temperature is not None:
+        lower.plot(
+            time,
+            convert_from_si(series.core_temperature, Dimension.TEMPERATURE, unit_set),
+            color="tab:brown",
+            lw=2.0,
+            label="core",
+        )
+        lower.plot(
+            time,
+            convert_from_si(series.surface_temperature, Dimension.TEMPERATURE, unit_set),
+            color="tab:olive",
+            ls="--",
+            label="surface",
+        )
     for check in result.schedule:
         at = check.time / (float(series.time[-1] / time[-1]) if time.size and time[-1] else 1.0)
         limit = convert_from_si(
@@ -158,7 +174,16 @@ def plot_simulation(
             ls="none",
         )
     if result.schedule:
-        lower.plot([], [], marker="v", color="tab:purple", ls="none", label="schedule limit")
+        applies = result.schedule[0].applies_to if interior else ""
+        lower.plot(
+            [],
+            [],
+            marker="v",
+            color="tab:purple",
+            ls="none",
+            label=f"schedule limit ({applies})" if applies else "schedule limit",
+        )
+    if result.schedule or interior:
         lower.legend(loc="upper right", fontsize="small")
     lower.set_ylabel(f"product temperature [{display_unit(temperature_unit)}]")
     lower.set_xlabel(f"time [{time_unit}]")
@@ -174,9 +199,18 @@ def plot_simulation(
     final = float(
         convert_from_si(np.array([summary.final_temperature]), Dimension.TEMPERATURE, unit_set)[0]
     )
+    degrees = display_unit(temperature_unit)
+    where = f"product at {final:.4g} {degrees}"
+    if summary.final_core_temperature is not None:
+        core = float(
+            convert_from_si(
+                np.array([summary.final_core_temperature]), Dimension.TEMPERATURE, unit_set
+            )[0]
+        )
+        where = f"core at {core:.4g} {degrees}, mean {final:.4g} {degrees}"
     title = (
         f"Vacuum chamber simulation: {summary.end_reason.replace('-', ' ')} after "
-        f"{_clock(summary.end_time)}, product at {final:.4g} {display_unit(temperature_unit)}, "
+        f"{_clock(summary.end_time)}, {where}, "
         f"{summary.evaporated_mass:.3g} kg evaporated"
     )
     if calculation_id:

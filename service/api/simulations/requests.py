@@ -20,6 +20,7 @@ from service.api.http.quantities import read_quantity
 from service.api.http.units import Dimension
 from service.api.simulations.schemas import (
     ProductInput,
+    ProductInteriorInput,
     PumpInput,
     VacuumChamberSimulationCreate,
 )
@@ -37,6 +38,7 @@ from service.core.simulation import (
     Condenser,
     HeatGainRate,
     Product,
+    ProductInterior,
     Pump,
     ScheduleLimit,
     VacuumChamberCase,
@@ -132,6 +134,28 @@ def _solute(solute: SoluteInput | None) -> Solute | None:
     )
 
 
+def _interior(interior: ProductInteriorInput | None) -> ProductInterior | None:
+    if interior is None:
+        return None
+    prefix = "product.interior"
+    return ProductInterior(
+        geometry=interior.geometry,
+        half_thickness_or_radius=_one(
+            interior.half_thickness_or_radius,
+            f"{prefix}.half_thickness_or_radius",
+            Dimension.LENGTH,
+        ),
+        thermal_conductivity=_maybe(
+            interior.thermal_conductivity,
+            f"{prefix}.thermal_conductivity",
+            Dimension.THERMAL_CONDUCTIVITY,
+        ),
+        density=_maybe(interior.density, f"{prefix}.density", Dimension.DENSITY),
+        nodes=interior.nodes,
+        target_applies_to=interior.target_applies_to,
+    )
+
+
 def _product(product: ProductInput) -> Product:
     if product.composition is not None and (
         product.model_fields_set & {"water_fraction", "solids_specific_heat"}
@@ -168,6 +192,7 @@ def _product(product: ProductInput) -> Product:
             "product.nucleation_temperature",
             Dimension.TEMPERATURE,
         ),
+        interior=_interior(product.interior),
     )
 
 

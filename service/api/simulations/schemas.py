@@ -24,6 +24,7 @@ __all__ = [
     "HeatGainRateInput",
     "MassEnergyBalanceOut",
     "ProductInput",
+    "ProductInteriorInput",
     "PumpInput",
     "ScheduleCheckOut",
     "ScheduleLimitInput",
@@ -149,6 +150,47 @@ class CondenserInput(ApiModel):
     )
 
 
+class ProductInteriorInput(ApiModel):
+    """Heat conduction inside the product: the load as identical items of one shape, each
+    with a centre (core) and a surface, on radial nodes (finite volumes)."""
+
+    geometry: Literal["slab", "cylinder", "sphere"] = Field(
+        description="`slab` (heat and vapor leave by both faces), `cylinder` (long, by its "
+        "side) or `sphere`."
+    )
+    half_thickness_or_radius: QuantityInput = Field(
+        description=_described(
+            "Half the thickness of a slab, or the radius of a cylinder or sphere (not the "
+            'diameter that `characteristic_size` takes). Default unit m (`"5 cm"`); 1 mm '
+            "to 1 m."
+        )
+    )
+    thermal_conductivity: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Of the product as a whole. Default unit W/(m*K); 0.01 to 10. Omitted: from "
+            "`product.composition` by the Choi and Okos (1986) parallel model at the initial "
+            "temperature (non-porous; give it for bread, produce and other porous products)."
+        ),
+    )
+    density: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Of the product as a whole, pores included. Default unit kg/m3; 20 to 3000. "
+            "Omitted: from `product.composition` by Choi and Okos (non-porous)."
+        ),
+    )
+    nodes: int = Field(
+        20, ge=5, le=100, description="Radial nodes from the centre to the surface (unit 1)."
+    )
+    target_applies_to: Literal["core", "mean", "surface"] = Field(
+        "core",
+        description="Where `target_temperature` and the schedule are read: the centre "
+        "(`core`, the default, as food-safety cooling limits are read), the volume mean or "
+        "the surface.",
+    )
+
+
 class ProductInput(ApiModel):
     """The load: its water and non-water part, and how it evaporates."""
 
@@ -213,6 +255,12 @@ class ProductInput(ApiModel):
             "at once. Default unit K; from -30 degC to below the freezing point; omitted "
             "means ice forms at the freezing point."
         ),
+    )
+    interior: ProductInteriorInput | None = Field(
+        None,
+        description="Conduction inside the product, for surface, mean and core temperatures "
+        "(unfrozen products without a solute or supercooling; no evaporation inside pores). "
+        "Omitted: one uniform product temperature.",
     )
 
 
@@ -324,7 +372,10 @@ class ChamberStatesOut(ApiModel):
     total_pressure: QuantityOutput = Field(description="Chamber pressure (SI: Pa).")
     air_pressure: QuantityOutput = Field(description="Air partial pressure (SI: Pa).")
     vapor_pressure: QuantityOutput = Field(description="Vapor partial pressure (SI: Pa).")
-    product_temperature: QuantityOutput = Field(description="(SI: K).")
+    product_temperature: QuantityOutput = Field(
+        description="The product's one temperature, or its volume mean with "
+        "`product.interior` (SI: K)."
+    )
     product_vapor_pressure: QuantityOutput = Field(
         description="Equilibrium vapor pressure over the product (SI: Pa)."
     )
@@ -347,6 +398,16 @@ class ChamberStatesOut(ApiModel):
     condenser_load: QuantityOutput = Field(description="Heat the condenser removes (SI: W).")
     condenser_ice: QuantityOutput = Field(description="Ice on the condenser (SI: kg).")
     heat_gain_rate: QuantityOutput = Field(description="Heat into the product (SI: W).")
+    core_temperature: QuantityOutput | None = Field(
+        None,
+        description="At the centre of the product's items, with `product.interior`; omitted "
+        "without (SI: K).",
+    )
+    surface_temperature: QuantityOutput | None = Field(
+        None,
+        description="At the surface of the product's items, with `product.interior`; omitted "
+        "without (SI: K).",
+    )
 
 
 class SimulationEventOut(ApiModel):
@@ -368,9 +429,15 @@ class ScheduleCheckOut(ApiModel):
     time: QuantityOutput
     temperature_limit: QuantityOutput
     product_temperature: QuantityOutput | None = Field(
-        description="At `time`; null when the simulation ended before (not evaluated)."
+        description="At `time`, where `applies_to` says; null when the simulation ended "
+        "before (not evaluated)."
     )
     met: bool | None = Field(description="Null when not evaluated.")
+    applies_to: Literal["core", "mean", "surface"] = Field(
+        "mean",
+        description="Where the temperature is read: `product.interior.target_applies_to`, "
+        "or `mean` for the one temperature of the uniform product.",
+    )
 
 
 class SimulationSummaryOut(ApiModel):
@@ -384,7 +451,10 @@ class SimulationSummaryOut(ApiModel):
     freezing_start_time: QuantityOutput | None
     fully_frozen_time: QuantityOutput | None
     target_time: QuantityOutput | None
-    final_temperature: QuantityOutput
+    final_temperature: QuantityOutput = Field(
+        description="The product's one temperature, or its volume mean with "
+        "`product.interior` (SI: K)."
+    )
     final_pressure: QuantityOutput
     evaporated_mass: QuantityOutput
     evaporated_fraction_of_water: QuantityOutput = Field(
@@ -400,6 +470,17 @@ class SimulationSummaryOut(ApiModel):
     schedule_met: bool | None = Field(description="Null without a schedule.")
     solver_steps: int
     right_hand_side_evaluations: int
+    final_core_temperature: QuantityOutput | None = Field(
+        None, description="At the centre, with `product.interior`; null without (SI: K)."
+    )
+    final_surface_temperature: QuantityOutput | None = Field(
+        None, description="At the surface, with `product.interior`; null without (SI: K)."
+    )
+    target_applies_to: Literal["core", "mean", "surface"] = Field(
+        "mean",
+        description="Where the target and schedule were read (`mean` for the uniform "
+        "product's one temperature).",
+    )
 
 
 class MassEnergyBalanceOut(ApiModel):

@@ -12,6 +12,9 @@ State vector y (SI):
 6     H_v                 enthalpy carried by vapor leaving the product, J (accumulated)
 7     Q_c                 condenser heat, J (accumulated)
 8     Q_g                 heat gained by the product, J (accumulated)
+9...  E_0 ... E_(N-2)     interior nodes' energies, J (only with the interior
+                          model, :mod:`service.core.simulation.product_interior`;
+                          the surface node holds E minus their sum)
 ====  ==================  =================================================
 
 Balances (chamber gas ideal and isothermal at T_g, volume V, well mixed):
@@ -61,6 +64,7 @@ from service.core.simulation.air_limited_evaporation import AirLimitedEvaporatio
 from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.inputs import HeatGainRate
 from service.core.simulation.product_heating import ProductHeating
+from service.core.simulation.product_interior import InteriorConduction
 from service.core.simulation.product_state import ProductState, ProductThermodynamics
 from service.core.simulation.pump import PumpingSpeed
 
@@ -88,6 +92,15 @@ class Rates(NamedTuple):
     vapor_to_condenser: float
     condenser_load: float
     heat_gain: float
+    surface_temperature: float = 0.0
+    """K: the surface node's (the product's, lumped)."""
+    core_temperature: float = 0.0
+    """K: the centre node's (the product's, lumped)."""
+    node_temperatures: tuple[float, ...] = ()
+    """K, centre to surface (empty: lumped)."""
+    node_heat_flows: tuple[float, ...] = ()
+    """W into each interior node (conduction, less the enthalpy of the water it gives up
+    to the surface); empty: lumped."""
 
 
 class ChamberModel:
@@ -104,6 +117,9 @@ class ChamberModel:
         The kinetic model (surface and air resistances in series); None for the
         equilibrium model.
     heat_gain : HeatGainRate or None
+    interior : InteriorConduction or None
+        Conduction inside the product (its nodes' energies follow the nine chamber
+        states); None: one uniform product temperature.
     """
 
     def __init__(
@@ -117,6 +133,7 @@ class ChamberModel:
         product: ProductThermodynamics,
         evaporation: AirLimitedEvaporation | None,
         heat_gain: HeatGainRate | None,
+        interior: InteriorConduction | None = None,
     ) -> None:
         self.volume = volume
         self.gas_temperature = gas_temperature
@@ -128,7 +145,9 @@ class ChamberModel:
         self.evaporation = evaporation
         self.regime: Regime = "kinetic" if evaporation is not None else "sealed"
         self.heating = ProductHeating(heat_gain, gas_temperature)
-        self._key: tuple[float, float, float, float, str, bool] | None = None
+        self.interior = interior
+        self.state_size = STATE_SIZE + (0 if interior is None else interior.count - 1)
+        self._key: tuple[float, float, float, float, str, bool, tuple[float, ...]] | None = None
         self._rates: Rates | None = None
         self._guess = 300.0
         self.evaluations = 0
@@ -136,6 +155,8 @@ class ChamberModel:
     def start_from(self, temperature: float) -> None:
         """Start Newton's method for the product temperature from ``temperature`` (K)."""
         self._guess = temperature
+        if self.interior is not None:
+            self.interior.start_from(temperature)
 
     def product_state(self, energy: float, water: float) -> ProductState:
         """The product's state, Newton warm-started from the last temperature."""
@@ -147,12 +168,23 @@ class ChamberModel:
         """All rates at state ``y`` (memoized on the last state and regime)."""
         air, vapor_mass, water, energy = y[:4].tolist()
         regime = self.regime
-        key = (air, vapor_mass, water, energy, regime, self.product.supercooled)
+        extras = tuple(y[STATE_SIZE:].tolist())
+        key = (air, vapor_mass, water, energy, regime, self.product.supercooled, extras)
         if key == self._key and self._rates is not None:
             return self._rates
         self.evaluations += 1
-        product = self.product_state(energy, water)
-        temperature = product.temperature
+        nodes: tuple[float, ...] = ()
+        flows: tuple[float, ...] = ()
+        carried: tuple[float, ...] = ()
+        conducted = advected = 0.0
+        surface_share = 1.0
+        if self.interior is None:
+            product = self.product_state(energy, water)
+            temperature = core = product.temperature
+        else:
+            product, nodes, flows, carried = self._interior_state(energy, water, extras)
+            temperature, core, conducted = nodes[-1], nodes[0], flows[-1]
+            advected, surface_share = sum(carried), self.interior.surface_share
         heat = self.heating.rate(temperature)
         k = self.vapor_per_pressure
         vapor = product.equilibrium_pressure - air if regime == "boiling" else vapor_mass / k
@@ -171,11 +203,17 @@ class ChamberModel:
         else:
             air_rate = (self.leak_rate - air_throughput) / self.volume
             evaporation = (
-                to_pump + to_condenser + k * product.pressure_by_energy * heat - k * air_rate
+                to_pump
+                + to_condenser
+                + k * product.pressure_by_energy * (heat + conducted)
+                - k * air_rate
             ) / (
                 1.0
                 + k
-                * (product.pressure_by_energy * product.vapor_enthalpy + product.pressure_by_mass)
+                * (
+                    product.pressure_by_energy * (product.vapor_enthalpy - advected)
+                    + product.pressure_by_mass * surface_share
+                )
             )
         load = 0.0 if self.condenser is None else to_condenser * self.condenser.heat_per_mass
         rates = Rates(
@@ -190,15 +228,51 @@ class ChamberModel:
             vapor_to_condenser=to_condenser,
             condenser_load=load,
             heat_gain=heat,
+            surface_temperature=temperature,
+            core_temperature=core,
+            node_temperatures=nodes,
+            node_heat_flows=tuple(
+                flow - evaporation * part for flow, part in zip(flows[:-1], carried, strict=True)
+            ),
         )
         self._key, self._rates = key, rates
         return rates
+
+    def _interior_state(
+        self, energy: float, water: float, interior_energies: tuple[float, ...]
+    ) -> tuple[ProductState, tuple[float, ...], tuple[float, ...], tuple[float, ...]]:
+        """The product seen by the chamber (its surface node, with the nodes' mean
+        temperature, ice and smallest margins), the node temperatures, the conduction
+        into each node (W) and the enthalpy each interior node gives up per kilogram
+        evaporated (J/kg)."""
+        assert self.interior is not None
+        states = self.interior.states(energy, water, interior_energies)
+        temperatures = np.array([state.temperature for state in states])
+        flows = self.interior.heat_flows(temperatures)
+        surface = states[-1]
+        product = ProductState(
+            temperature=self.interior.mean_temperature(temperatures),
+            ice_mass=sum(state.ice_mass for state in states),
+            equilibrium_pressure=surface.equilibrium_pressure,
+            vapor_enthalpy=surface.vapor_enthalpy,
+            pressure_by_energy=surface.pressure_by_energy,
+            pressure_by_mass=surface.pressure_by_mass,
+            liquid_margin=min(state.liquid_margin for state in states),
+            frozen_margin=min(state.frozen_margin for state in states),
+        )
+        carried, _ = self.interior.moisture_enthalpy(temperatures)
+        return (
+            product,
+            tuple(temperatures.tolist()),
+            tuple(flows.tolist()),
+            tuple(carried.tolist()),
+        )
 
     def derivatives(self, t: float, y: FloatArray) -> FloatArray:
         """dy/dt (the ``fun`` of :func:`scipy.integrate.solve_ivp`)."""
         r = self.rates(y)
         j = r.evaporation
-        return np.array(
+        chamber = np.array(
             [
                 (self.leak_rate - r.air_throughput) / self.volume,
                 j - r.vapor_to_pump - r.vapor_to_condenser,
@@ -211,3 +285,6 @@ class ChamberModel:
                 r.heat_gain,
             ]
         )
+        if self.interior is None:
+            return chamber
+        return np.concatenate([chamber, r.node_heat_flows])

@@ -14,7 +14,7 @@ from service.core.balances.companions import Companion
 from service.core.balances.food_composition import Composition
 from service.core.balances.scalars import finite_scalar, require_scalar_within
 from service.core.balances.solutes import Solute
-from service.core.errors import InvalidInputError
+from service.core.errors import InvalidInputError, UnsupportedStateError
 from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
 from service.core.simulation.path_tables import (
     ICE_TEMPERATURE_MIN,
@@ -28,14 +28,19 @@ __all__ = [
     "Condenser",
     "EvaporationModel",
     "HeatGainRate",
+    "InteriorGeometry",
     "Product",
+    "ProductInterior",
     "Pump",
     "ScheduleLimit",
+    "TemperatureLocation",
     "VacuumChamberCase",
     "validate_case",
 ]
 
 EvaporationModel = Literal["equilibrium", "kinetic"]
+InteriorGeometry = Literal["slab", "cylinder", "sphere"]
+TemperatureLocation = Literal["core", "mean", "surface"]
 
 SIMULATION_LIMITS: Final = {
     "free_volume_min": 1.0e-6,
@@ -50,6 +55,14 @@ SIMULATION_LIMITS: Final = {
     "specific_heat_max": 1.0e4,
     "characteristic_size_min": 1.0e-3,
     "characteristic_size_max": 3.0,
+    "interior_size_min": 1.0e-3,
+    "interior_size_max": 1.0,
+    "interior_conductivity_min": 0.01,
+    "interior_conductivity_max": 10.0,
+    "interior_density_min": 20.0,
+    "interior_density_max": 3000.0,
+    "interior_nodes_min": 5,
+    "interior_nodes_max": 100,
 }
 """Validity limits of the simulation inputs (SI). Temperatures follow the balances'
 ranges (supercooled or solution liquid from 243.15 K, ice from 173.15 K, the normal
@@ -130,6 +143,42 @@ class Condenser:
 
 
 @dataclass(frozen=True)
+class ProductInterior:
+    """Heat conduction inside the product (:mod:`service.core.simulation.product_interior`).
+
+    The load is taken as identical items of one shape, each conducting heat from its
+    centre to its surface; the chamber sees their surfaces.
+
+    Attributes
+    ----------
+    geometry : {"slab", "cylinder", "sphere"}
+        Slab (heat leaves by both faces), long cylinder (by its side), sphere.
+    half_thickness_or_radius : float
+        m, 1e-3 to 1: half the thickness of a slab, or the radius of a cylinder or sphere
+        (not the diameter that ``Product.characteristic_size`` gives the air's resistance).
+    thermal_conductivity : float or None
+        W/(m K), 0.01 to 10. None: from ``Product.composition`` by the Choi and Okos (1986)
+        parallel model at the initial temperature
+        (:mod:`service.core.simulation.product_conductivity`).
+    density : float or None
+        kg/m3, 20 to 3000 (with the pores of a porous product). None: from the composition
+        (non-porous).
+    nodes : int
+        Radial nodes from the centre to the surface, 5 to 100.
+    target_applies_to : {"core", "mean", "surface"}
+        The temperature the target and the schedule are checked on: the centre (the
+        default, as a food-safety cooling limit reads), the volume mean, or the surface.
+    """
+
+    geometry: InteriorGeometry
+    half_thickness_or_radius: float
+    thermal_conductivity: float | None = None
+    density: float | None = None
+    nodes: int = 20
+    target_applies_to: TemperatureLocation = "core"
+
+
+@dataclass(frozen=True)
 class Product:
     """The load: water with its solids (and optionally a solute).
 
@@ -168,6 +217,9 @@ class Product:
         this temperature, then ice nucleates and the product recalesces to its freezing
         line (as in the flash-freeze balance). None: ice forms at the freezing point.
         Between 243.15 K (the supercooled-liquid tables' end) and the freezing point.
+    interior : ProductInterior or None
+        Heat conduction inside the product (surface, mean and core temperatures). None:
+        the product has one uniform temperature (lumped).
     """
 
     mass: float
@@ -181,6 +233,7 @@ class Product:
     evaporation_coefficient: float | None = None
     characteristic_size: float | None = None
     nucleation_temperature: float | None = None
+    interior: ProductInterior | None = None
 
 
 @dataclass(frozen=True)
@@ -469,6 +522,76 @@ def _validate_product(product: Product) -> None:
             "m",
             "diameter of one item for the air's resistance to evaporation, 1 mm to 3 m",
         )
+    if product.interior is not None:
+        _validate_interior(product)
+
+
+def _validate_interior(product: Product) -> None:
+    """Raise for an interior model out of range or asked for what it does not model."""
+    interior = product.interior
+    assert interior is not None
+    limits = SIMULATION_LIMITS
+    if interior.geometry not in ("slab", "cylinder", "sphere"):
+        raise InvalidInputError(
+            "product.interior.geometry",
+            "must be 'slab', 'cylinder' or 'sphere'",
+            interior.geometry,
+        )
+    if interior.target_applies_to not in ("core", "mean", "surface"):
+        raise InvalidInputError(
+            "product.interior.target_applies_to",
+            "must be 'core', 'mean' or 'surface'",
+            interior.target_applies_to,
+        )
+    require_scalar_within(
+        interior.half_thickness_or_radius,
+        "product.interior.half_thickness_or_radius",
+        limits["interior_size_min"],
+        limits["interior_size_max"],
+        "m",
+        "half-thickness of a slab or radius of a cylinder or sphere, 1 mm to 1 m",
+    )
+    for name, low, high, unit in (
+        (
+            "thermal_conductivity",
+            limits["interior_conductivity_min"],
+            limits["interior_conductivity_max"],
+            "W/(m*K)",
+        ),
+        ("density", limits["interior_density_min"], limits["interior_density_max"], "kg/m3"),
+    ):
+        value = getattr(interior, name)
+        if value is None:
+            if product.composition is None:
+                raise InvalidInputError(
+                    f"product.interior.{name}",
+                    "give it, or product.composition to take it from the Choi and Okos "
+                    "(1986) correlations",
+                )
+            continue
+        require_scalar_within(
+            value, f"product.interior.{name}", low, high, unit, "of the product as a whole"
+        )
+    nodes = interior.nodes
+    if (
+        not isinstance(nodes, int)
+        or isinstance(nodes, bool)
+        or not limits["interior_nodes_min"] <= nodes <= limits["interior_nodes_max"]
+    ):
+        raise InvalidInputError("product.interior.nodes", "must be an integer from 5 to 100", nodes)
+    if product.solute is not None:
+        raise UnsupportedStateError(
+            "product.interior",
+            "the interior model follows unfrozen products only and does not take a solute "
+            "(progressive freezing inside the product is not modelled); omit "
+            "product.interior or product.solute",
+        )
+    if product.nucleation_temperature is not None:
+        raise UnsupportedStateError(
+            "product.interior",
+            "the interior model does not follow supercooling or freezing inside the "
+            "product; omit product.interior or product.nucleation_temperature",
+        )
 
 
 def validate_case(case: VacuumChamberCase) -> None:
@@ -524,6 +647,15 @@ def validate_case(case: VacuumChamberCase) -> None:
             "K",
             "the target lies below the product's initial temperature, above 173.15 K",
         )
+        if case.product.interior is not None and case.target_temperature <= (
+            TRIPLE_POINT_TEMPERATURE
+        ):
+            raise UnsupportedStateError(
+                "target_temperature",
+                "with product.interior the target must lie above the freezing point "
+                "(273.16 K): freezing inside the product is not modelled",
+                case.target_temperature,
+            )
     for index, limit in enumerate(case.schedule):
         require_scalar_within(
             limit.time,

@@ -57,6 +57,9 @@ class LoadModel:
         E at the initial temperature, J.
     composition_rescaled : bool
         The composition's fractions were rescaled to sum to 1.
+    solids_coefficients : tuple of float
+        (c1, c2, c3) of S(tau) for the product's non-water part alone (no companions), J
+        (the interior model spreads it over its nodes).
     """
 
     water_mass: float
@@ -65,6 +68,7 @@ class LoadModel:
     thermodynamics: ProductThermodynamics
     initial_energy: float
     composition_rescaled: bool
+    solids_coefficients: tuple[float, float, float] = (0.0, 0.0, 0.0)
 
 
 def _solids_polynomial(product: Product) -> tuple[tuple[float, float, float], float, bool]:
@@ -159,7 +163,8 @@ def load_model(product: Product, companions: tuple[Companion, ...]) -> LoadModel
     OutOfRangeError
         An initial temperature below the product's freezing onset.
     """
-    (c1, c2, c3), water, rescaled = _solids_polynomial(product)
+    solids, water, rescaled = _solids_polynomial(product)
+    c1, c2, c3 = solids
     c1 += heat_capacity(companions)
     constant, solute_mass = _solute_constant(product, water)
     model = None if product.solute is None else product.solute.activity_model
@@ -194,4 +199,5 @@ def load_model(product: Product, companions: tuple[Companion, ...]) -> LoadModel
         thermodynamics=thermodynamics,
         initial_energy=energy,
         composition_rescaled=rescaled,
+        solids_coefficients=solids,
     )

@@ -53,6 +53,10 @@ class ChamberStates:
         kg of ice on the condenser.
     heat_gain_rate : ndarray
         W into the product.
+    core_temperature, surface_temperature : ndarray or None
+        K at the product's centre and at its surface (interior model); None for the
+        lumped product, whose one temperature is ``product_temperature``. With the
+        interior model ``product_temperature`` is the volume mean.
     """
 
     time: FloatArray
@@ -72,6 +76,8 @@ class ChamberStates:
     condenser_load: FloatArray
     condenser_ice: FloatArray
     heat_gain_rate: FloatArray
+    core_temperature: FloatArray | None = None
+    surface_temperature: FloatArray | None = None
 
 
 @dataclass(frozen=True)
@@ -107,15 +113,20 @@ class ScheduleCheck:
     time, temperature_limit : float
         s, K.
     product_temperature : float or None
-        K at ``time``; None when the simulation ended before.
+        K at ``time`` where the limit applies (``applies_to``); None when the
+        simulation ended before.
     met : bool or None
         None when not evaluated (the simulation ended before ``time``).
+    applies_to : {"core", "mean", "surface"}
+        Where the temperature is read: the one product temperature of the lumped
+        model is reported as ``"mean"``.
     """
 
     time: float
     temperature_limit: float
     product_temperature: float | None
     met: bool | None
+    applies_to: str = "mean"
 
 
 @dataclass(frozen=True)
@@ -145,7 +156,12 @@ class MassEnergyBalance:
 
 @dataclass(frozen=True)
 class SimulationSummary:
-    """Headline numbers (SI; times in s, None where the event did not happen)."""
+    """Headline numbers (SI; times in s, None where the event did not happen).
+
+    ``final_temperature`` is the product's (its volume mean with the interior model);
+    ``final_core_temperature`` and ``final_surface_temperature`` are None for the lumped
+    product; ``target_applies_to`` says where the target and schedule were read.
+    """
 
     end_reason: str
     end_time: float
@@ -167,6 +183,9 @@ class SimulationSummary:
     schedule_met: bool | None
     solver_steps: int
     right_hand_side_evaluations: int
+    final_core_temperature: float | None = None
+    final_surface_temperature: float | None = None
+    target_applies_to: str = "mean"
 
 
 @dataclass(frozen=True)

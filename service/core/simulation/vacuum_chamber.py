@@ -16,6 +16,7 @@ from typing import Any, Final
 import numpy as np
 from scipy.integrate import solve_ivp
 
+from service.core.balances.companions import heat_capacity
 from service.core.balances.scalars import require_scalar_within
 from service.core.deadline import check_deadline
 from service.core.errors import (
@@ -46,6 +47,7 @@ from service.core.simulation.chamber_model import (
     VAPOR_ENTHALPY,
     WATER,
     ChamberModel,
+    Rates,
     Regime,
 )
 from service.core.simulation.checks import equipment_checks
@@ -53,6 +55,7 @@ from service.core.simulation.condenser import CondenserCapture
 from service.core.simulation.inputs import (
     HeatGainRate,
     Product,
+    TemperatureLocation,
     VacuumChamberCase,
     validate_case,
 )
@@ -61,6 +64,8 @@ from service.core.simulation.path_tables import (
     LIQUID_TEMPERATURE_MAX,
     LIQUID_TEMPERATURE_MIN,
 )
+from service.core.simulation.product_conductivity import CHOI_OKOS_CONDUCTIVITY_REFERENCE
+from service.core.simulation.product_interior import InteriorConduction
 from service.core.simulation.pump import PumpingSpeed
 from service.core.simulation.results import (
     ChamberStates,
@@ -127,6 +132,39 @@ _DRIFT_WARNING: Final = 1e-6
 
 EventFunction = Callable[[float, FloatArray], float]
 
+_INTERIOR_REFERENCES: Final = (
+    "Product interior: finite volumes on radial nodes (Patankar, S. V., Numerical Heat "
+    "Transfer and Fluid Flow, Hemisphere, 1980, ch. 4; from memory), integrated by the "
+    "method of lines with the chamber's stiff integrator.",
+    CHOI_OKOS_CONDUCTIVITY_REFERENCE,
+)
+
+
+def _location(case: VacuumChamberCase) -> TemperatureLocation:
+    """Where the target and the schedule are read: the interior option, else the (one)
+    product temperature."""
+    interior = case.product.interior
+    return "mean" if interior is None else interior.target_applies_to
+
+
+def _located(rates: Rates, location: TemperatureLocation) -> float:
+    """The product temperature at ``location`` (K)."""
+    if location == "core":
+        return rates.core_temperature
+    if location == "surface":
+        return rates.surface_temperature
+    return rates.product.temperature
+
+
+def _coldest(rates: Rates) -> float:
+    nodes = rates.node_temperatures
+    return min(nodes) if nodes else rates.product.temperature
+
+
+def _warmest(rates: Rates) -> float:
+    nodes = rates.node_temperatures
+    return max(nodes) if nodes else rates.product.temperature
+
 
 @dataclass
 class _Segment:
@@ -191,9 +229,10 @@ def _event_functions(
             lambda t, y: model.rates(y).product.frozen_margin, terminal=True, direction=-1.0
         )
     target = case.target_temperature
+    location = _location(case)
     if target is not None:
         events["target-reached"] = _event(
-            lambda t, y: model.rates(y).product.temperature - target,
+            lambda t, y: _located(model.rates(y), location) - target,
             terminal=True,
             direction=-1.0,
         )
@@ -209,10 +248,10 @@ def _event_functions(
         )
     lowest = model.product.lowest_temperature
     events["model-range-left"] = _event(
-        lambda t, y: model.rates(y).product.temperature - lowest, terminal=True, direction=-1.0
+        lambda t, y: _coldest(model.rates(y)) - lowest, terminal=True, direction=-1.0
     )
     events["model-range-left-above"] = _event(
-        lambda t, y: LIQUID_TEMPERATURE_MAX - model.rates(y).product.temperature,
+        lambda t, y: LIQUID_TEMPERATURE_MAX - _warmest(model.rates(y)),
         terminal=True,
         direction=-1.0,
     )
@@ -295,6 +334,8 @@ def _detail(name: str, regime: Regime) -> str:
         "model-range-left-above": "The product temperature rises above 373.15 K; the "
         "simulation stops.",
         "water-exhausted": "The product has lost 99.9 % of its water; the simulation stops.",
+        "interior-freezing": "Ice forms in the product; the interior model does not follow "
+        "freezing inside the product, so the simulation stops here.",
     }[name]
 
 
@@ -305,7 +346,7 @@ def _integrate(
     initial: FloatArray,
 ) -> _Run:
     run = _Run()
-    scale = np.array(
+    chamber_scale = np.array(
         [
             case.chamber.initial_pressure + case.chamber.initial_vapor_pressure,
             load.water_mass,
@@ -318,6 +359,12 @@ def _integrate(
             load.water_mass * _LATENT_SCALE,
         ]
     )
+    interior_scale = (
+        np.zeros(0)
+        if model.interior is None
+        else load.water_mass * _LATENT_SCALE * model.interior.grid.fractions[:-1]
+    )
+    scale = np.concatenate([chamber_scale, interior_scale])
     t0, y0 = 0.0, initial
 
     def derivatives(time: float, state: FloatArray) -> FloatArray:
@@ -384,11 +431,18 @@ def _integrate(
             model.product.supercooled = False
             model.product.nucleation_time = t1
             label = "nucleation"
+        if stop_name == "freezing-starts" and model.interior is not None:
+            run.events.append(
+                ("freezing-starts", t1, y0, regime, _detail("interior-freezing", regime))
+            )
+            run.end_reason = "model-range-left"
+            return run
         if stop_name in _ONCE:
             run.fired.add(stop_name)
-        public = {"model-range-left-above": "model-range-left", "nucleation": stop_name}.get(
-            label, label
-        )
+        public = {
+            "model-range-left-above": "model-range-left",
+            "nucleation": stop_name,
+        }.get(label, label)
         run.events.append((public, t1, y0, regime, _detail(label, regime)))
         if stop_name in _STOPPING:
             run.end_reason = public
@@ -410,7 +464,7 @@ def _states(
 ) -> ChamberStates:
     """Derived quantities at states ``ys`` (shape (STATE_SIZE, n)) in their regimes."""
     count = times.size
-    columns = np.empty((13, count))
+    columns = np.empty((15, count))
     saved = model.regime
     saved_supercooled = model.product.supercooled
     r_gas = SPECIFIC_GAS_CONSTANT * model.gas_temperature
@@ -433,6 +487,8 @@ def _states(
             r.condenser_load,
             r.heat_gain,
             r_gas / total if total > 0.0 else 0.0,
+            r.core_temperature,
+            r.surface_temperature,
         )
     model.regime = saved
     model.product.supercooled = saved_supercooled
@@ -455,6 +511,8 @@ def _states(
         condenser_load=columns[10],
         condenser_ice=np.asarray(ys[CONDENSED], dtype=np.float64),
         heat_gain_rate=columns[11],
+        core_temperature=None if model.interior is None else columns[13],
+        surface_temperature=None if model.interior is None else columns[14],
     )
 
 
@@ -462,7 +520,7 @@ def _series(model: ChamberModel, load: LoadModel, run: _Run, points: int) -> Cha
     end = run.segments[-1].end
     times = np.linspace(0.0, end, points)
     times = np.unique(np.concatenate([times, [event[1] for event in run.events]]))
-    ys = np.empty((STATE_SIZE, times.size))
+    ys = np.empty((model.state_size, times.size))
     regimes: list[Regime] = ["sealed"] * times.size
     for number, segment in enumerate(run.segments):
         last = number == len(run.segments) - 1
@@ -487,6 +545,8 @@ def _schedule(
 ) -> tuple[list[ScheduleCheck], list[tuple[str, float, FloatArray, Regime, str]]]:
     checks: list[ScheduleCheck] = []
     missed: list[tuple[str, float, FloatArray, Regime, str]] = []
+    location = _location(case)
+    where = "product" if case.product.interior is None else f"product's {location}"
     for limit in sorted(case.schedule, key=lambda item: item.time):
         found = _value_at(run, limit.time)
         if found is None:
@@ -498,16 +558,16 @@ def _schedule(
                 and target <= limit.temperature
             )
             met = True if reached else None
-            checks.append(ScheduleCheck(limit.time, limit.temperature, None, met))
+            checks.append(ScheduleCheck(limit.time, limit.temperature, None, met, location))
             continue
         y, regime = found
         saved, saved_supercooled = model.regime, model.product.supercooled
         model.regime = regime
         model.product.supercooled = model.product.supercooled_at(limit.time)
-        temperature = model.rates(y).product.temperature
+        temperature = _located(model.rates(y), location)
         model.regime, model.product.supercooled = saved, saved_supercooled
         met = temperature <= limit.temperature
-        checks.append(ScheduleCheck(limit.time, limit.temperature, temperature, met))
+        checks.append(ScheduleCheck(limit.time, limit.temperature, temperature, met, location))
         if not met:
             missed.append(
                 (
@@ -515,11 +575,45 @@ def _schedule(
                     limit.time,
                     y,
                     regime,
-                    f"The product is at {temperature:.6g} K, above the schedule's limit of "
+                    f"The {where} is at {temperature:.6g} K, above the schedule's limit of "
                     f"{limit.temperature:.6g} K at this time.",
                 )
             )
     return checks, missed
+
+
+def _interior_statement(case: VacuumChamberCase) -> str:
+    interior = case.product.interior
+    assert interior is not None
+    surface = {
+        "slab": "both faces",
+        "cylinder": "its side (ends neglected)",
+        "sphere": "its surface",
+    }
+    return (
+        f"Product interior: identical {interior.geometry}s of half-thickness or radius "
+        f"{interior.half_thickness_or_radius:g} m losing heat and water through "
+        f"{surface[interior.geometry]}; transient conduction on {interior.nodes} radial nodes "
+        "(finite volumes, centre to surface; method of lines in the same stiff integrator), "
+        "each node's phases in equilibrium and its temperature recovered from its energy and "
+        "water on the equilibrium path; constant conductivity and density "
+        + (
+            "as given"
+            if interior.thermal_conductivity is not None and interior.density is not None
+            else "(those not given from the composition by Choi and Okos 1986 at the initial "
+            "temperature, parallel model, non-porous)"
+        )
+        + ". Evaporation, heat gain and the companions act on the surface node; liquid "
+        "water moves to the surface without resistance, so the water content stays uniform "
+        "(each node gives up its share of the evaporated water at its own liquid enthalpy; "
+        "a real product dries from its surface inward). No water evaporates inside pores: a "
+        "porous product's internal evaporation is not modelled, so a porous core (bread, "
+        "produce) cools more slowly here than it may in practice, and the uniform product "
+        "(no product.interior) is the other bound. Unfrozen product only: the "
+        "simulation stops when ice appears in any node. product_temperature is the volume "
+        "mean; target and schedule apply to the "
+        f"{interior.target_applies_to} temperature."
+    )
 
 
 def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
@@ -530,7 +624,9 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
         "- j_condenser; the pump takes each gas at its partial density.",
         "Pump: S_eff(p) = S(p) (1 - p_ult/p) above the ultimate pressure, 0 at or below it; "
         "S(p) nominal or the speed curve interpolated linearly in ln p, constant beyond its ends.",
-        "Product: uniform temperature; its phases (liquid, ice, solution) in equilibrium with "
+        _interior_statement(case)
+        if case.product.interior is not None
+        else "Product: uniform temperature; its phases (liquid, ice, solution) in equilibrium with "
         "each other at every instant; state recovered from its water mass and energy through "
         "the equilibrium path"
         + (
@@ -605,6 +701,13 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
             "Non-water part: Choi and Okos (1986) specific heats of protein, fat, carbohydrate, "
             "fiber and ash (coefficients from memory)."
         )
+    if case.product.interior is not None:
+        items.append(
+            "Food safety: the core temperature here is the centre of an idealised shape with "
+            "uniform properties; the real coldest-to-cool point, its probe position and the "
+            "cooling limits and times that apply are set by local food codes and licensed "
+            "practice (HACCP plan), not by this simulation."
+        )
     if case.product.solute is not None:
         model = case.product.solute.activity_model
         items.append(
@@ -666,8 +769,10 @@ def _warnings(
                 "The chamber pressure never falls to the product's vapor pressure.",
             )
         )
+    interior_froze = case.product.interior is not None and "freezing-starts" in names
     if run.end_reason in ("model-range-left", "water-exhausted"):
-        items.append(Advisory(run.end_reason, _detail(run.end_reason, "sealed")))
+        detail = "interior-freezing" if interior_froze else run.end_reason
+        items.append(Advisory(run.end_reason, _detail(detail, "sealed")))
     if case.product.solute is not None:
         items.append(
             Advisory(
@@ -750,9 +855,14 @@ def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Adv
     )
     limited: list[float] = []
     slowest = 1.0
+    surface = (
+        series.product_temperature
+        if series.surface_temperature is None
+        else series.surface_temperature
+    )
     for index in range(series.time.size):
         solved = flux.solve(
-            float(series.product_temperature[index]),
+            float(surface[index]),
             float(series.product_vapor_pressure[index]),
             float(series.vapor_pressure[index]),
             float(series.air_pressure[index]),
@@ -875,6 +985,13 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         if product.evaporation == "kinetic"
         else None
     )
+    interior = (
+        None
+        if product.interior is None
+        else InteriorConduction(
+            product, load.water_mass, load.solids_coefficients, heat_capacity(case.companions)
+        )
+    )
     model = ChamberModel(
         volume=chamber.free_volume,
         gas_temperature=chamber.temperature,
@@ -886,16 +1003,19 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         product=load.thermodynamics,
         evaporation=evaporation,
         heat_gain=case.heat_gain,
+        interior=interior,
     )
     _check_nucleation(product, load.freezing_onset)
     model.product.supercooling = product.nucleation_temperature is not None
     model.product.supercooled = model.product.supercooling
     model.start_from(product.initial_temperature)
-    initial = np.zeros(STATE_SIZE)
+    initial = np.zeros(model.state_size)
     initial[AIR] = chamber.initial_pressure
     initial[VAPOR] = chamber.initial_vapor_pressure * model.vapor_per_pressure
     initial[WATER] = load.water_mass
     initial[ENERGY] = load.initial_energy
+    if interior is not None:
+        initial[STATE_SIZE:] = interior.initial_energies(product.initial_temperature)[:-1]
     start = model.rates(initial)
     if model.regime == "sealed" and start.total_pressure <= start.product.equilibrium_pressure:
         raise UnsupportedStateError(
@@ -966,6 +1086,9 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         schedule_met=None if not checks else all(check.met is True for check in checks),
         solver_steps=run.steps,
         right_hand_side_evaluations=model.evaluations,
+        final_core_temperature=None if interior is None else final_rates.core_temperature,
+        final_surface_temperature=None if interior is None else final_rates.surface_temperature,
+        target_applies_to=_location(case),
     )
     return VacuumChamberResult(
         events=tuple(_event_record(model, load, event) for event in run.events),
@@ -975,7 +1098,7 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
         schedule=tuple(checks),
         assumptions=_assumptions(case),
         warnings=_warnings(case, load, run, series, checks, drift, model.condenser),
-        references=REFERENCES,
+        references=REFERENCES if interior is None else (*REFERENCES, *_INTERIOR_REFERENCES),
         property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION),
         property_uncertainties=tuple(path_uncertainties(series.product_temperature)),
         checks=equipment_checks(case, series, float(final[PUMPED])),
