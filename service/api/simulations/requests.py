@@ -153,6 +153,9 @@ def _interior(interior: ProductInteriorInput | None) -> ProductInterior | None:
         density=_maybe(interior.density, f"{prefix}.density", Dimension.DENSITY),
         nodes=interior.nodes,
         target_applies_to=interior.target_applies_to,
+        pore_venting_time=_maybe(
+            interior.pore_venting_time, f"{prefix}.pore_venting_time", Dimension.TIME
+        ),
     )
 
 

@@ -189,6 +189,16 @@ class ProductInteriorInput(ApiModel):
         "(`core`, the default, as food-safety cooling limits are read), the volume mean or "
         "the surface.",
     )
+    pore_venting_time: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "Porous products (bread, produce): inside the product, water boils where its "
+            "vapor pressure exceeds the chamber pressure, and the vapor leaves through the "
+            "pores with this time constant (a stated model without published values: fit it "
+            'to a logged core temperature). Default unit s (`"10 s"`); 0.01 s to 1e5 s. '
+            "Omitted: no evaporation inside the product (non-porous)."
+        ),
+    )
 
 
 class ProductInput(ApiModel):
@@ -259,8 +269,8 @@ class ProductInput(ApiModel):
     interior: ProductInteriorInput | None = Field(
         None,
         description="Conduction inside the product, for surface, mean and core temperatures "
-        "(unfrozen products without a solute or supercooling; no evaporation inside pores). "
-        "Omitted: one uniform product temperature.",
+        "(unfrozen products without a solute or supercooling; evaporation inside pores "
+        "optional). Omitted: one uniform product temperature.",
     )
 
 

@@ -100,7 +100,30 @@ class Rates(NamedTuple):
     """K, centre to surface (empty: lumped)."""
     node_heat_flows: tuple[float, ...] = ()
     """W into each interior node (conduction, less the enthalpy of the water it gives up
-    to the surface); empty: lumped."""
+    to the surface and of the vapor leaving its pores); empty: lumped."""
+    surface_evaporation: float = 0.0
+    """kg/s leaving the product's surface (``evaporation`` less the pores')."""
+    vapor_enthalpy_flow: float = 0.0
+    """W: enthalpy carried by all the vapor leaving the product."""
+
+
+class _Inside(NamedTuple):
+    """The interior nodes at one state (interior model only)."""
+
+    product: ProductState
+    states: list[ProductState]
+    """The interior nodes' states (the surface node's is ``product``'s pressures)."""
+    temperatures: FloatArray
+    """K, all N nodes, centre to surface."""
+    flows: FloatArray
+    """W of conduction into each of the N nodes."""
+    liquid_enthalpies: FloatArray
+    """J/kg, h_l(T_i) of the interior nodes."""
+    vapor_enthalpies: FloatArray
+    """J/kg, h_v(T_i) of the interior nodes."""
+    carried: FloatArray
+    """J per kg evaporated: f_i h_l(T_i), the liquid enthalpy each interior node sends to
+    the surface with its share of the water."""
 
 
 class ChamberModel:
@@ -173,18 +196,14 @@ class ChamberModel:
         if key == self._key and self._rates is not None:
             return self._rates
         self.evaluations += 1
-        nodes: tuple[float, ...] = ()
-        flows: tuple[float, ...] = ()
-        carried: tuple[float, ...] = ()
-        conducted = advected = 0.0
-        surface_share = 1.0
+        inside: _Inside | None = None
         if self.interior is None:
             product = self.product_state(energy, water)
             temperature = core = product.temperature
         else:
-            product, nodes, flows, carried = self._interior_state(energy, water, extras)
-            temperature, core, conducted = nodes[-1], nodes[0], flows[-1]
-            advected, surface_share = sum(carried), self.interior.surface_share
+            inside = self._inside(energy, water, extras)
+            product = inside.product
+            temperature, core = inside.temperatures[-1], inside.temperatures[0]
         heat = self.heating.rate(temperature)
         k = self.vapor_per_pressure
         vapor = product.equilibrium_pressure - air if regime == "boiling" else vapor_mass / k
@@ -193,6 +212,21 @@ class ChamberModel:
         air_throughput = speed * air
         to_pump = speed * vapor * k / self.volume
         to_condenser = 0.0 if self.condenser is None else self.condenser.rate(vapor)
+        # the interior's terms (all zero for the lumped product): conduction into the
+        # surface node, the liquid enthalpy the nodes send it per kg evaporated, the
+        # surface node's share of the water, and the pores' evaporation
+        conducted = advected = pores = pore_liquid = pore_enthalpy = 0.0
+        surface_share = 1.0
+        pore_rates = np.zeros(0)
+        if inside is not None:
+            assert self.interior is not None
+            conducted = float(inside.flows[-1])
+            advected = float(np.sum(inside.carried))
+            surface_share = self.interior.surface_share
+            pore_rates = self.interior.pore_evaporation(inside.states, total)
+            pores = float(np.sum(pore_rates))
+            pore_liquid = float(np.dot(pore_rates, inside.liquid_enthalpies))
+            pore_enthalpy = float(np.dot(pore_rates, inside.vapor_enthalpies))
         if regime == "kinetic":
             assert self.evaporation is not None
             evaporation = self.evaporation.rate(
@@ -205,7 +239,12 @@ class ChamberModel:
             evaporation = (
                 to_pump
                 + to_condenser
-                + k * product.pressure_by_energy * (heat + conducted)
+                - pores
+                + k
+                * (
+                    product.pressure_by_energy * (heat + conducted + pores * advected - pore_liquid)
+                    - product.pressure_by_mass * surface_share * pores
+                )
                 - k * air_rate
             ) / (
                 1.0
@@ -216,6 +255,19 @@ class ChamberModel:
                 )
             )
         load = 0.0 if self.condenser is None else to_condenser * self.condenser.heat_per_mass
+        surface_evaporation = evaporation
+        evaporation += pores
+        node_flows: tuple[float, ...] = ()
+        if inside is not None:
+            assert self.interior is not None
+            shares = self.interior.grid.fractions[:-1]
+            node_flows = tuple(
+                (
+                    inside.flows[:-1]
+                    - pore_rates * inside.vapor_enthalpies
+                    - (shares * evaporation - pore_rates) * inside.liquid_enthalpies
+                ).tolist()
+            )
         rates = Rates(
             product=product,
             air_pressure=air,
@@ -230,25 +282,20 @@ class ChamberModel:
             heat_gain=heat,
             surface_temperature=temperature,
             core_temperature=core,
-            node_temperatures=nodes,
-            node_heat_flows=tuple(
-                flow - evaporation * part for flow, part in zip(flows[:-1], carried, strict=True)
-            ),
+            node_temperatures=() if inside is None else tuple(inside.temperatures.tolist()),
+            node_heat_flows=node_flows,
+            surface_evaporation=surface_evaporation,
+            vapor_enthalpy_flow=surface_evaporation * product.vapor_enthalpy + pore_enthalpy,
         )
         self._key, self._rates = key, rates
         return rates
 
-    def _interior_state(
-        self, energy: float, water: float, interior_energies: tuple[float, ...]
-    ) -> tuple[ProductState, tuple[float, ...], tuple[float, ...], tuple[float, ...]]:
-        """The product seen by the chamber (its surface node, with the nodes' mean
-        temperature, ice and smallest margins), the node temperatures, the conduction
-        into each node (W) and the enthalpy each interior node gives up per kilogram
-        evaporated (J/kg)."""
+    def _inside(self, energy: float, water: float, interior_energies: tuple[float, ...]) -> _Inside:
+        """The interior nodes at this state, and the product the chamber sees: its surface
+        node, with the nodes' mean temperature, ice and smallest margins."""
         assert self.interior is not None
         states = self.interior.states(energy, water, interior_energies)
         temperatures = np.array([state.temperature for state in states])
-        flows = self.interior.heat_flows(temperatures)
         surface = states[-1]
         product = ProductState(
             temperature=self.interior.mean_temperature(temperatures),
@@ -260,12 +307,15 @@ class ChamberModel:
             liquid_margin=min(state.liquid_margin for state in states),
             frozen_margin=min(state.frozen_margin for state in states),
         )
-        carried, _ = self.interior.moisture_enthalpy(temperatures)
-        return (
-            product,
-            tuple(temperatures.tolist()),
-            tuple(flows.tolist()),
-            tuple(carried.tolist()),
+        liquid = self.interior.liquid_enthalpies(temperatures[:-1])
+        return _Inside(
+            product=product,
+            states=states[:-1],
+            temperatures=temperatures,
+            flows=self.interior.heat_flows(temperatures),
+            liquid_enthalpies=liquid,
+            vapor_enthalpies=np.array([state.vapor_enthalpy for state in states[:-1]]),
+            carried=self.interior.grid.fractions[:-1] * liquid,
         )
 
     def derivatives(self, t: float, y: FloatArray) -> FloatArray:
@@ -277,10 +327,10 @@ class ChamberModel:
                 (self.leak_rate - r.air_throughput) / self.volume,
                 j - r.vapor_to_pump - r.vapor_to_condenser,
                 -j,
-                r.heat_gain - r.product.vapor_enthalpy * j,
+                r.heat_gain - r.vapor_enthalpy_flow,
                 r.vapor_to_condenser,
                 r.vapor_to_pump,
-                r.product.vapor_enthalpy * j,
+                r.vapor_enthalpy_flow,
                 r.condenser_load,
                 r.heat_gain,
             ]

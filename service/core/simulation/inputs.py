@@ -63,6 +63,8 @@ SIMULATION_LIMITS: Final = {
     "interior_density_max": 3000.0,
     "interior_nodes_min": 5,
     "interior_nodes_max": 100,
+    "pore_venting_time_min": 0.01,
+    "pore_venting_time_max": 1.0e5,
 }
 """Validity limits of the simulation inputs (SI). Temperatures follow the balances'
 ranges (supercooled or solution liquid from 243.15 K, ice from 173.15 K, the normal
@@ -168,6 +170,11 @@ class ProductInterior:
     target_applies_to : {"core", "mean", "surface"}
         The temperature the target and the schedule are checked on: the centre (the
         default, as a food-safety cooling limit reads), the volume mean, or the surface.
+    pore_venting_time : float or None
+        s, 0.01 to 1e5: a porous product's interior boils where its vapor pressure
+        exceeds the chamber's, the vapor leaving through the pores with this time
+        constant (see :mod:`service.core.simulation.product_interior`). None: no
+        evaporation inside the product (non-porous).
     """
 
     geometry: InteriorGeometry
@@ -176,6 +183,7 @@ class ProductInterior:
     density: float | None = None
     nodes: int = 20
     target_applies_to: TemperatureLocation = "core"
+    pore_venting_time: float | None = None
 
 
 @dataclass(frozen=True)
@@ -571,6 +579,15 @@ def _validate_interior(product: Product) -> None:
             continue
         require_scalar_within(
             value, f"product.interior.{name}", low, high, unit, "of the product as a whole"
+        )
+    if interior.pore_venting_time is not None:
+        require_scalar_within(
+            interior.pore_venting_time,
+            "product.interior.pore_venting_time",
+            limits["pore_venting_time_min"],
+            limits["pore_venting_time_max"],
+            "s",
+            "time constant of the vapor leaving a porous product's pores, 0.01 s to 1e5 s",
         )
     nodes = interior.nodes
     if (

@@ -20,10 +20,11 @@ through the same equilibrium path as the lumped product
 share f_i of the non-water heat capacity). Water evaporates at the surface, and liquid
 water moves to the surface without resistance, so the water content stays uniform:
 m_i = f_i m, each node giving up f_i j of liquid water at its own enthalpy h_l(T_i) to the
-surface node, where the whole flow j evaporates. The balances are
+surface node, where it evaporates. The balances, with j_s evaporating at the surface and
+j_i in the pores of node i (below; zero for a non-porous product), j = j_s + sum j_i:
 
-    dE_i/dt = q_(i-1) - q_i - f_i j h_l(T_i)                              (i < N - 1)
-    dE_s/dt = q_(N-2) + sum_(i<N-1) f_i j h_l(T_i) + Q_gain(T_s) - h_v(T_s) j
+    dE_i/dt = q_(i-1) - q_i - j_i h_v(T_i) - (f_i j - j_i) h_l(T_i)        (i < N - 1)
+    dE_s/dt = q_(N-2) + sum_(i<N-1) (f_i j - j_i) h_l(T_i) + Q_gain(T_s) - h_v(T_s) j_s
     dm/dt = -j
 
 so the conduction and moisture terms cancel in the sum: the product's total energy
@@ -31,8 +32,20 @@ E = sum E_i obeys the lumped balance dE/dt = Q_gain - h_v j exactly. The simulat
 integrates E and m (the totals) and the interior nodes' energies; the surface node holds
 what remains. Free moisture movement is one bound (a real product dries from its surface
 inward; a thin surface layer alone could not supply the several per cent of the mass that
-vacuum cooling evaporates). No water evaporates inside pores: a porous product's internal
-evaporation is not modelled. The companions (trays, racks) take the surface temperature.
+vacuum cooling evaporates). The companions (trays, racks) take the surface temperature.
+
+Pores (optional, ``pore_venting_time`` tau): in a porous product (bread crumb, a lettuce
+head) an interior node whose vapor pressure p_i exceeds the chamber pressure p boils, and
+its vapor escapes through the pores to the chamber. Its energy above the boiling point,
+to first order (p_i - p) / (dp_i/dE_i), leaves as latent heat with the time constant tau:
+
+    j_i = (p_i - p) / (dp_i/dE_i) / (tau (h_v(T_i) - h_l(T_i)))  where p_i > p, else 0.
+
+tau lumps the pores' resistance to the vapor: small tau holds every node near the boiling
+point of the chamber pressure (free venting, the uniform product's behaviour), a large one
+leaves conduction to carry the heat (a closed crumb). It is a stated model with no
+published value for a given product: fit it to a logged core temperature (calibration).
+Below the chamber's boiling point no vapor diffuses out of the pores.
 
 The conductivity is one constant (the caller's, or Choi and Okos at the initial
 temperature); only unfrozen nodes are followed: the simulation stops when ice appears in
@@ -140,6 +153,7 @@ class InteriorConduction:
             assert fractions is not None
             self.density = composition_density(fractions, product.initial_temperature)
         self.size = interior.half_thickness_or_radius
+        self.venting_time = interior.pore_venting_time
         self.volume = product.mass / self.density
         self.surface_area = self.volume * self.grid.surface_factor / self.size
         scale = self.conductivity * self.volume / (self.size * self.size)
@@ -204,12 +218,24 @@ class InteriorConduction:
         """h_l(T_i) of the liquid water in each node, J/kg (IAPWS-95 path tables)."""
         return np.array([self._liquid.values(float(t))[0] for t in temperatures])
 
-    def moisture_enthalpy(self, temperatures: FloatArray) -> tuple[FloatArray, float]:
-        """Per unit of evaporation (kg): the enthalpy each interior node gives up with its
-        share of the water, f_i h_l(T_i) (J/kg, shape (N - 1,)), and their sum, which
-        the surface node receives."""
-        carried = self.grid.fractions[:-1] * self.liquid_enthalpies(temperatures[:-1])
-        return carried, float(np.sum(carried))
+    def pore_evaporation(self, states: Sequence[ProductState], pressure: float) -> FloatArray:
+        """kg/s of vapor leaving each interior node through the pores (zeros without a
+        venting time), at chamber pressure ``pressure`` (Pa).
+
+        A node boils where its vapor pressure p_i exceeds the chamber's; the energy above
+        its boiling point, (p_i - p) / (dp_i/dE_i) to first order, leaves as latent heat
+        over the venting time tau: j_i = (p_i - p) / (dp_i/dE_i) / (tau (h_v - h_l)).
+        """
+        rates = np.zeros(len(states))
+        if self.venting_time is None:
+            return rates
+        for index, state in enumerate(states):
+            excess = state.equilibrium_pressure - pressure
+            if excess > 0.0 and state.pressure_by_energy > 0.0:
+                liquid = float(self._liquid.values(state.temperature)[0])
+                latent = state.vapor_enthalpy - liquid
+                rates[index] = excess / state.pressure_by_energy / (self.venting_time * latent)
+        return rates
 
     def mean_temperature(self, temperatures: FloatArray) -> float:
         """Volume-mean temperature sum f_i T_i, K."""

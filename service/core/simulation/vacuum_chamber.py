@@ -209,7 +209,9 @@ def _event_functions(
     if regime == "boiling":
         condensing = _CONDENSING_BAND * load.water_mass
         events["boiling-stops"] = _event(
-            lambda t, y: model.rates(y).evaporation + condensing, terminal=True, direction=-1.0
+            lambda t, y: model.rates(y).surface_evaporation + condensing,
+            terminal=True,
+            direction=-1.0,
         )
     nucleation = case.product.nucleation_temperature
     if "freezing-starts" not in run.fired and model.product.supercooled:
@@ -606,10 +608,19 @@ def _interior_statement(case: VacuumChamberCase) -> str:
         + ". Evaporation, heat gain and the companions act on the surface node; liquid "
         "water moves to the surface without resistance, so the water content stays uniform "
         "(each node gives up its share of the evaporated water at its own liquid enthalpy; "
-        "a real product dries from its surface inward). No water evaporates inside pores: a "
-        "porous product's internal evaporation is not modelled, so a porous core (bread, "
-        "produce) cools more slowly here than it may in practice, and the uniform product "
-        "(no product.interior) is the other bound. Unfrozen product only: the "
+        "a real product dries from its surface inward). "
+        + (
+            "No water evaporates inside the product (non-porous): for a porous product "
+            "(bread, produce) give pore_venting_time, else its core cools more slowly here "
+            "than it may in practice. "
+            if interior.pore_venting_time is None
+            else "Pores: an interior node whose vapor pressure exceeds the chamber pressure "
+            "boils, its energy above the boiling point, (p_i - p) / (dp_i/dE_i), leaving "
+            f"as latent heat with the time constant {interior.pore_venting_time:g} s "
+            "(a stated model without a published value: fit it to a logged core "
+            "temperature); below the boiling point no vapor leaves the pores. "
+        )
+        + "Unfrozen product only: the "
         "simulation stops when ice appears in any node. product_temperature is the volume "
         "mean; target and schedule apply to the "
         f"{interior.target_applies_to} temperature."
