@@ -64,7 +64,11 @@ from service.core.simulation.path_tables import (
     LIQUID_TEMPERATURE_MAX,
     LIQUID_TEMPERATURE_MIN,
 )
-from service.core.simulation.product_conductivity import CHOI_OKOS_CONDUCTIVITY_REFERENCE
+from service.core.simulation.product_conductivity import (
+    CHOI_OKOS_CONDUCTIVITY_REFERENCE,
+    composition_conductivity,
+    composition_density,
+)
 from service.core.simulation.product_interior import InteriorConduction
 from service.core.simulation.pump import PumpingSpeed
 from service.core.simulation.results import (
@@ -592,13 +596,24 @@ def _interior_statement(case: VacuumChamberCase) -> str:
         "cylinder": "its side (ends neglected)",
         "sphere": "its surface",
     }
+    fractions = None if case.product.composition is None else case.product.composition.fractions()
+    start = case.product.initial_temperature
+    conductivity = interior.thermal_conductivity
+    if conductivity is None:
+        assert fractions is not None
+        conductivity = composition_conductivity(fractions, start)
+    density = interior.density
+    if density is None:
+        assert fractions is not None
+        density = composition_density(fractions, start)
     return (
         f"Product interior: identical {interior.geometry}s of half-thickness or radius "
         f"{interior.half_thickness_or_radius:g} m losing heat and water through "
         f"{surface[interior.geometry]}; transient conduction on {interior.nodes} radial nodes "
         "(finite volumes, centre to surface; method of lines in the same stiff integrator), "
         "each node's phases in equilibrium and its temperature recovered from its energy and "
-        "water on the equilibrium path; constant conductivity and density "
+        "water on the equilibrium path; constant conductivity "
+        f"{conductivity:.4g} W/(m K) and density {density:.4g} kg/m3 "
         + (
             "as given"
             if interior.thermal_conductivity is not None and interior.density is not None
