@@ -47,7 +47,11 @@ FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
 }
 """Dimension of each case field, by its dotted path."""
 
-_STATES: Final = dict(STATE_DIMENSIONS)
+_STATES: Final = {
+    **dict(STATE_DIMENSIONS),
+    "core_temperature": Dimension.TEMPERATURE,
+    "surface_temperature": Dimension.TEMPERATURE,
+}
 _UNCERTAINTY_KEYS: Final = frozenset({"absolute", "relative"})
 
 

@@ -36,6 +36,8 @@ FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
     "W/(m2*K)": Dimension.HEAT_TRANSFER_COEFFICIENT,
     "s": Dimension.TIME,
     "kg/s": Dimension.MASS_FLOW,
+    "W/(m*K)": Dimension.THERMAL_CONDUCTIVITY,
+    "kg/m3": Dimension.DENSITY,
 }
 """SI unit of a case field (:data:`CASE_FIELDS`) -> its dimension."""
 

@@ -215,7 +215,14 @@ def _fit_case(case: VacuumChamberCase, run: CleanedRun) -> VacuumChamberCase:
 def _model_at(result: VacuumChamberResult, item: CleanedSeries) -> FloatArray:
     """Model values of one series at its measured times (held beyond the model's end)."""
     times = result.series.time
-    values = np.asarray(getattr(result.series, item.quantity), dtype=np.float64)
+    found = getattr(result.series, item.quantity)
+    if found is None:
+        raise InvalidInputError(
+            f"measured.{item.name}",
+            f"the model has no {item.quantity} without product.interior in the case",
+            item.name,
+        )
+    values = np.asarray(found, dtype=np.float64)
     if item.relative:
         logs = np.log(np.maximum(values, _PRESSURE_FLOOR))
         return np.exp(np.interp(item.time, times, logs))

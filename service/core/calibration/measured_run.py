@@ -33,6 +33,8 @@ MEASURABLE_SERIES: Final[dict[str, str]] = {
     "air_pressure": "Pa",
     "vapor_pressure": "Pa",
     "product_temperature": "K",
+    "core_temperature": "K",
+    "surface_temperature": "K",
     "evaporated_mass": "kg",
     "condenser_ice": "kg",
     "condenser_load": "W",

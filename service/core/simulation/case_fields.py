@@ -72,6 +72,18 @@ CASE_FIELDS: Final[dict[str, CaseField]] = _fields(
         "diameter of one item for the air's resistance (kinetic evaporation)",
     ),
     ("product.nucleation_temperature", "K", "where ice nucleates in the supercooled product"),
+    (
+        "product.interior.half_thickness_or_radius",
+        "m",
+        "half-thickness or radius of one item (interior conduction)",
+    ),
+    ("product.interior.thermal_conductivity", "W/(m*K)", "product conductivity (interior)"),
+    ("product.interior.density", "kg/m3", "product density, pores included (interior)"),
+    (
+        "product.interior.pore_venting_time",
+        "s",
+        "time constant of vapor leaving a porous product's pores (interior)",
+    ),
     ("heat_gain.power", "W", "constant heat into the product"),
     ("heat_gain.conductance", "W/K", "conductance from the surroundings to the product"),
     ("heat_gain.surroundings_temperature", "K", "temperature of the surroundings"),
@@ -116,9 +128,11 @@ def case_field_value(case: VacuumChamberCase, path: str) -> float | None:
     if path == "pump.speed_scale":
         return 1.0
     head, _, name = path.rpartition(".")
-    parent = getattr(case, head) if head else case
-    if parent is None:
-        return None
+    parent: Any = case
+    for part in head.split(".") if head else ():
+        parent = getattr(parent, part)
+        if parent is None:
+            return None
     value = getattr(parent, name)
     return None if value is None else float(value)
 
@@ -157,10 +171,19 @@ def with_case_field(case: VacuumChamberCase, path: str, value: float) -> VacuumC
     change: dict[str, Any] = {name: float(value)}
     if not head:
         return replace(case, **change)
-    parent = getattr(case, head)
+    changed: VacuumChamberCase = _replaced(case, head.split("."), change, path)
+    return changed
+
+
+def _replaced(owner: Any, parts: list[str], change: dict[str, Any], path: str) -> Any:
+    """A copy of ``owner`` with the field ``change`` set in its part ``parts`` (nested)."""
+    parent = getattr(owner, parts[0])
     if parent is None:
-        if head != "heat_gain":
+        if parts != ["heat_gain"]:
+            head = path.rpartition(".")[0]
             raise InvalidInputError(path, f"the case has no {head}; add one to vary {path}")
         parent = HeatGainRate()
-    part: dict[str, Any] = {head: replace(parent, **change)}
-    return replace(case, **part)
+    inner = (
+        replace(parent, **change) if len(parts) == 1 else _replaced(parent, parts[1:], change, path)
+    )
+    return replace(owner, **{parts[0]: inner})

@@ -12,6 +12,7 @@ from service.core.simulation import (
     Condenser,
     HeatGainRate,
     Product,
+    ProductInterior,
     Pump,
     VacuumChamberCase,
 )
@@ -37,6 +38,7 @@ def test_every_scalar_field_of_the_case_is_listed() -> None:
         "condenser": Condenser,
         "product": Product,
         "heat_gain": HeatGainRate,
+        "product.interior": ProductInterior,
     }
     expected = {
         f"{head}.{field.name}"
@@ -76,3 +78,19 @@ def test_unknown_path_lists_the_known_ones() -> None:
         case_field_value(CASE, "pump.colour")
     with pytest.raises(InvalidInputError):
         with_case_field(CASE, "product.solute", 1.0)
+
+
+def test_nested_interior_fields_read_and_replace() -> None:
+    assert case_field_value(CASE, "product.interior.pore_venting_time") is None
+    with pytest.raises(InvalidInputError, match=r"no product\.interior"):
+        with_case_field(CASE, "product.interior.density", 500.0)
+    porous = dataclasses.replace(
+        CASE,
+        product=dataclasses.replace(
+            CASE.product, interior=ProductInterior("sphere", 0.05, 0.4, 450.0)
+        ),
+    )
+    vented = with_case_field(porous, "product.interior.pore_venting_time", 12.0)
+    assert case_field_value(vented, "product.interior.pore_venting_time") == 12.0
+    assert vented.product.interior == ProductInterior("sphere", 0.05, 0.4, 450.0, 20, "core", 12.0)
+    assert vented.product.mass == CASE.product.mass

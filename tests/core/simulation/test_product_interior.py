@@ -516,3 +516,63 @@ def test_pores_close_mass_and_energy_in_the_kinetic_mode() -> None:
     assert abs(balance.relative_energy_residual) < CLOSURE_TOLERANCE
     core = result.series.core_temperature
     assert core is not None and float(core[-1]) < 318.15 - 10.0  # the pores cooled the core
+
+
+def test_venting_time_is_recovered_from_a_logged_core_probe() -> None:
+    # A core probe logged every 20 s from the 15 s-venting run (the model's own output, no
+    # noise): the calibration finds the venting time from a 60 s start; a lumped case
+    # cannot be compared with a core probe (422, naming the series).
+    from service.core.calibration import (
+        EstimatedParameter,
+        MeasuredRun,
+        MeasuredSeries,
+        calibrate_vacuum_chamber,
+    )
+
+    truth = _bread_rack(_loaves(15.0))
+    truth = VacuumChamberCase(
+        chamber=truth.chamber,
+        pump=truth.pump,
+        condenser=truth.condenser,
+        product=truth.product,
+        companions=truth.companions,
+        end_time=300.0,
+    )
+    logged = simulate_vacuum_chamber(truth).series
+    assert logged.core_temperature is not None
+    times = np.arange(0.0, 300.0, 20.0)
+    probe = MeasuredSeries(
+        "core_temperature", times, np.interp(times, logged.time, logged.core_temperature)
+    )
+    start = VacuumChamberCase(
+        chamber=truth.chamber,
+        pump=truth.pump,
+        condenser=truth.condenser,
+        product=Product(
+            mass=40.0,
+            initial_temperature=369.15,
+            water_fraction=0.38,
+            solids_specific_heat=1300.0,
+            interior=_loaves(60.0),
+        ),
+        companions=truth.companions,
+        end_time=300.0,
+    )
+    fitted = calibrate_vacuum_chamber(
+        start,
+        MeasuredRun(series=(probe,), pump_start=0.0),
+        (EstimatedParameter("product.interior.pore_venting_time", 1.0, 300.0),),
+    )
+    assert fitted.estimates[0].value == pytest.approx(15.0, rel=0.02)
+    lumped = VacuumChamberCase(
+        chamber=truth.chamber,
+        pump=truth.pump,
+        product=Product(mass=40.0, initial_temperature=369.15),
+        end_time=300.0,
+    )
+    with pytest.raises(InvalidInputError, match="core_temperature"):
+        calibrate_vacuum_chamber(
+            lumped,
+            MeasuredRun(series=(probe,), pump_start=0.0),
+            (EstimatedParameter("chamber.leak_rate", 0.0, 1.0),),
+        )
