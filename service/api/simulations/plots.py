@@ -133,6 +133,7 @@ def plot_simulation(
         color="tab:red",
         ls=":",
     )
+    _shade_limits(upper, time, result)
     upper.set_yscale("log")
     upper.set_ylabel(f"pressure [{pressure_unit}]")
     upper.legend(loc="upper right", fontsize="small")
@@ -217,6 +218,47 @@ def plot_simulation(
         title += f"\ncalculation {calculation_id}"
     figure.suptitle(title, fontsize="medium")
     return figure_bytes(figure, kind)
+
+
+_TRAP_LIMIT_BAND: Final = 1e-9
+"""Relative: the trap governs where its load is within this of its refrigeration capacity."""
+
+
+def _shade_limits(axis: Any, time: np.ndarray, result: VacuumChamberResult) -> None:
+    """Shade the times when the trap's refrigeration capacity or the diffusion of vapor
+    through the air (kinetic evaporation) governs, with a legend entry each."""
+    series = result.series
+    transform = axis.get_xaxis_transform()
+    capacity = None if result.checks is None else result.checks.trap_refrigeration_capacity
+    if capacity is not None:
+        trap = series.condenser_load >= capacity * (1.0 - _TRAP_LIMIT_BAND)
+        if trap.any():
+            axis.fill_between(
+                time,
+                0.0,
+                1.0,
+                where=trap,
+                transform=transform,
+                color="tab:cyan",
+                alpha=0.15,
+                lw=0.0,
+                label="trap at its refrigeration capacity",
+            )
+    ratio = series.air_flux_ratio
+    if ratio is not None:
+        air = ratio < 0.5
+        if air.any():
+            axis.fill_between(
+                time,
+                0.0,
+                1.0,
+                where=air,
+                transform=transform,
+                color="tab:brown",
+                alpha=0.12,
+                lw=0.0,
+                label="evaporation limited by the air",
+            )
 
 
 def mark_events(axes: Sequence[Any], labelled: Any, marks: Sequence[tuple[float, str]]) -> None:

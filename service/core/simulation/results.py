@@ -57,6 +57,10 @@ class ChamberStates:
         K at the product's centre and at its surface (interior model); None for the
         lumped product, whose one temperature is ``product_temperature``. With the
         interior model ``product_temperature`` is the volume mean.
+    air_flux_ratio : ndarray or None
+        Kinetic evaporation only: the flux with the air's resistance over the surface
+        flux alone (below 0.5: the diffusion of vapor through the air governs); None in
+        the equilibrium mode.
     """
 
     time: FloatArray
@@ -78,6 +82,7 @@ class ChamberStates:
     heat_gain_rate: FloatArray
     core_temperature: FloatArray | None = None
     surface_temperature: FloatArray | None = None
+    air_flux_ratio: FloatArray | None = None
 
 
 @dataclass(frozen=True)

@@ -10,7 +10,7 @@ energy balances, the schedule check, assumptions and warnings.
 from __future__ import annotations
 
 from collections.abc import Callable
-from dataclasses import dataclass, field
+from dataclasses import dataclass, field, replace
 from typing import Any, Final
 
 import numpy as np
@@ -840,7 +840,7 @@ def _warnings(
             )
         )
     if case.product.evaporation == "kinetic":
-        limited = _air_limited_advisory(case, series)
+        limited = _air_limited_advisory(series)
         if limited is not None:
             items.append(limited)
         into_air = _evaporation_into_air_advisory(load, run, series)
@@ -870,8 +870,9 @@ def _characteristic_size(case: VacuumChamberCase) -> float:
     return DEFAULT_CHARACTERISTIC_SIZE if size is None else float(size)
 
 
-def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Advisory | None:
-    """A warning when the air limits the evaporation at some series points."""
+def _air_flux_ratio(case: VacuumChamberCase, series: ChamberStates) -> FloatArray:
+    """At each series point, the kinetic flux with the air's resistance over the surface
+    flux alone (1 where the surface flux is not positive)."""
     product = case.product
     flux = AirLimitedEvaporation(
         float(product.exposed_area or 0.0),
@@ -879,13 +880,12 @@ def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Adv
         _characteristic_size(case),
         case.chamber.temperature,
     )
-    limited: list[float] = []
-    slowest = 1.0
     surface = (
         series.product_temperature
         if series.surface_temperature is None
         else series.surface_temperature
     )
+    ratio = np.ones(series.time.size)
     for index in range(series.time.size):
         solved = flux.solve(
             float(surface[index]),
@@ -893,11 +893,20 @@ def _air_limited_advisory(case: VacuumChamberCase, series: ChamberStates) -> Adv
             float(series.vapor_pressure[index]),
             float(series.air_pressure[index]),
         )
-        if solved.kinetic_rate > 0.0 and solved.rate < _AIR_LIMITED_SHARE * solved.kinetic_rate:
-            limited.append(float(series.time[index]))
-            slowest = min(slowest, max(solved.rate, 0.0) / solved.kinetic_rate)
-    if not limited:
+        if solved.kinetic_rate > 0.0:
+            ratio[index] = max(solved.rate, 0.0) / solved.kinetic_rate
+    return ratio
+
+
+def _air_limited_advisory(series: ChamberStates) -> Advisory | None:
+    """A warning when the air limits the evaporation at some series points."""
+    ratio = series.air_flux_ratio
+    if ratio is None:
         return None
+    limited = series.time[ratio < _AIR_LIMITED_SHARE]
+    if not limited.size:
+        return None
+    slowest = float(np.min(ratio))
     return Advisory(
         "air-limited-evaporation",
         "Diffusion of vapor through the chamber air limits the evaporation (the flux is below "
@@ -1057,6 +1066,8 @@ def simulate_vacuum_chamber(case: VacuumChamberCase) -> VacuumChamberResult:
     run.events.extend(missed)
     run.events.sort(key=lambda event: event[1])
     series = _series(model, load, run, case.series_points)
+    if product.evaporation == "kinetic":
+        series = replace(series, air_flux_ratio=_air_flux_ratio(case, series))
     final = np.asarray(run.segments[-1].solution(run.segments[-1].end))
     last_regime = run.segments[-1].regime
     model.regime = last_regime

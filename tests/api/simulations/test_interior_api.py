@@ -167,3 +167,32 @@ def test_interior_refusals_name_the_field(
     assert response.status_code == 422, response.text
     assert response.headers["content-type"].startswith("application/problem+json")
     assert field in [error["field"] for error in response.json()["errors"]]
+
+
+@pytest.mark.parametrize(
+    ("example", "text"),
+    [
+        ("chamber-bread-rack-vacuum-cooler", "trap at its refrigeration capacity"),
+        ("chamber-lettuce-pallet-kinetic-evaporation", "evaporation limited by the air"),
+    ],
+    ids=["trap", "air"],
+)
+def test_plot_shades_what_limits_the_vapor_removal(
+    client: TestClient, example: str, text: str
+) -> None:
+    # The bread rack's 6 kW trap runs at its capacity (summary: peak condenser load 6 kW);
+    # the lettuce pallet's kinetic evaporation is limited by the air near 1 atm (its
+    # air-limited-evaporation warning).
+    import json
+    from pathlib import Path
+
+    folder = Path(__file__).resolve().parents[3] / "openapi_examples"
+    request = json.loads((folder / f"{example}.json").read_text())["request"]
+    answer = _post(client, request).json()
+    codes = {warning["code"] for warning in answer["warnings"]}
+    if "air" in text:
+        assert "air-limited-evaporation" in codes
+    else:
+        assert answer["checks"]["trap_limited_time"]["value"] > 0.0
+    svg = _post(client, request, accept="image/svg+xml").text
+    assert text in svg
