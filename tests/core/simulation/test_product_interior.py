@@ -15,7 +15,8 @@ Sources
   Bessel functions and their zeros, brentq for the convective eigenvalues).
 - Lumped capacitance for Bi << 1: Incropera et al. (7th ed.), sec. 5.1-5.2; in a sphere the
   quasi-steady core-to-surface difference is Bi / 2 of the surface-to-surroundings
-  difference (the same book's eq. 3.xx for uniform generation, from memory), so the bound
+  difference (the same book's sec. 3.5, a sphere with uniform generation; from memory),
+  so the bound
   used below, Bi times the initial difference, holds with a factor of two to spare.
 - The water's specific heat for the diffusivity: iapws 1.5.5 (IAPWS95 class) at the mean
   temperature of the run and 0.1 MPa.
