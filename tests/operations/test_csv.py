@@ -6,13 +6,12 @@ with a published table: what is tested is the CSV wiring, not the formulation.
 
 from __future__ import annotations
 
-import csv
-import io
 from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 from operations_support import running_client
 
@@ -29,7 +28,7 @@ def client(tmp_path: Path) -> Iterator[TestClient]:
 
 
 def _table(text: str) -> list[dict[str, str]]:
-    return list(csv.DictReader(io.StringIO(text)))
+    return read_csv_answer(text).rows
 
 
 def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
@@ -39,7 +38,8 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
     response = client.post("/v1/properties/saturation", content=body, headers={**CSV_IN, **CSV_OUT})
     assert response.status_code == 200, response.text
     assert response.headers["content-type"].startswith("text/csv")
-    rows = _table(response.text)
+    answer = read_csv_answer(response.text)
+    rows = answer.rows
     as_json = client.post(
         "/v1/properties/saturation",
         json={
@@ -48,6 +48,17 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
         },
     ).json()
     assert len(rows) == 3
+    # The statements every row shares are stated once, above the header, as JSON.
+    assert answer.statements["meta.output_units"] == "engineering"
+    assert answer.statements["property_sources"] == as_json["property_sources"]
+    assert answer.statements["uncertainty"] == as_json["uncertainty"]
+    assert answer.statements["reference_state"] == as_json["reference_state"]
+    assert answer.statements["assumptions"] == as_json["assumptions"]
+    assert answer.statements["meta.statements"] == as_json["meta"]["statements"]
+    assert not any(
+        name.startswith(("property_sources", "uncertainty", "meta", "assumptions", "reference"))
+        for name in answer.header
+    ), "not repeated on every row"
     for index, row in enumerate(rows):
         # Exact: the CSV carries each float's shortest round-trip text.
         assert float(row["pressure[kPa]"]) == as_json["pressure"]["values"][index]
@@ -56,13 +67,10 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
             float(row["latent_heat_of_vaporization[kJ/kg]"])
             == as_json["latent_heat_of_vaporization"]["values"][index]
         )
-        assert row["meta.output_units"] == "engineering"
-        assert row["property_sources.formulation"] == "IAPWS-95"
     assert [float(row["temperature[degC]"]) for row in rows] == pytest.approx(
         [20, 60.5, 95], abs=1e-9
     )
-    header = next(csv.reader(io.StringIO(response.text)))
-    assert header[0] == "temperature[degC]", "results first, envelope after"
+    assert answer.header[0] == "temperature[degC]", "results first, envelope after"
 
 
 def test_csv_answer_can_be_sent_back_as_a_request(client: TestClient) -> None:
@@ -117,9 +125,9 @@ def test_unitless_columns_take_the_default_unit(client: TestClient) -> None:
         headers={**CSV_IN, **CSV_OUT},
     )
     assert response.status_code == 200, response.text
-    rows = _table(response.text)
-    assert [float(row["temperature[K]"]) for row in rows] == [300.0, 350.0]
-    assert rows[0]["property_sources.formulation"] == "IAPWS-IF97"
+    answer = read_csv_answer(response.text)
+    assert [float(row["temperature[K]"]) for row in answer.rows] == [300.0, 350.0]
+    assert answer.statements["property_sources"][0]["id"] == "iapws-if97"
 
 
 def test_per_row_route_called_once_per_row(client: TestClient) -> None:
