@@ -15,7 +15,14 @@ from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 from operations_support import running_client
 
-from service.api.http.csv_io import CsvError, flatten_answers, parse_csv, prefers_csv, render_csv
+from service.api.http.csv_io import (
+    CsvError,
+    flatten_answers,
+    parse_csv,
+    prefers_csv,
+    render_csv,
+    split_statements,
+)
 
 CSV_IN = {"content-type": "text/csv"}
 CSV_OUT = {"accept": "text/csv"}
@@ -277,3 +284,52 @@ def test_balance_csv_one_case_per_row_matches_json(client: TestClient) -> None:
         assert stored.json()["kind"] == "balances.flash_freeze"
     assert rows[0]["stages.name"] == "cooling | freezing | ice cooling"
     assert len(rows[0]["stages.end_temperature[degC]"].split(" | ")) == 3
+
+
+def test_shared_statements_are_stated_once_and_differing_ones_stay_columns() -> None:
+    shared = {"id": "iapws-95", "release": "IAPWS R6-95(2018)"}
+    answers: list[dict[str, Any]] = [
+        {
+            "mass": {"value": 1.0, "unit": "kg"},
+            "property_sources": [shared],
+            "warnings": [],
+            "meta": {"service_version": "9", "calculation_id": "a"},
+        },
+        {"error": {"status": 422, "field": "mass", "detail": "bad"}},
+        {
+            "mass": {"value": 2.0, "unit": "kg"},
+            "property_sources": [shared],
+            "warnings": [{"code": "w", "message": "m", "indices": None}],
+            "meta": {"service_version": "9", "calculation_id": "b"},
+        },
+    ]
+    stated, remaining = split_statements(answers)
+    assert stated == [("meta.service_version", "9"), ("property_sources", [shared])]
+    header, rows = flatten_answers(remaining)
+    assert "meta.calculation_id" in header, "differs per row: a column"
+    assert "warnings" in header, "always a column: it names its rows"
+    assert not any(name.startswith("property_sources") for name in header)
+    text = render_csv(header, rows, statements=stated).decode()
+    lines = text.splitlines()
+    assert lines[0].startswith("# tripoint CSV answer.")
+    assert lines[1] == '# meta.service_version: "9"'
+    assert lines[2] == '# property_sources: [{"id":"iapws-95","release":"IAPWS R6-95(2018)"}]'
+    assert lines[3].startswith("mass[kg],")
+    read = read_csv_answer(text)
+    assert read.statements["property_sources"] == [shared]
+    assert [row["meta.calculation_id"] for row in read.rows] == ["a", "", "b"]
+
+
+def test_a_csv_answer_is_a_valid_csv_body_again(client: TestClient) -> None:
+    answer = client.post(
+        "/v1/properties/saturation",
+        content="temperature[degC]\n20\n30\n",
+        headers={**CSV_IN, **CSV_OUT},
+    )
+    assert answer.text.startswith("#")
+    table = parse_csv(answer.content)
+    assert table.rows == 2
+    assert table.columns[0].name == "temperature[K]"
+    # No data cell holds the comment character, so comment="#" readers keep every row.
+    data = [line for line in answer.text.splitlines() if not line.startswith("#")]
+    assert len(data) == 3 and not any("#" in line for line in data)

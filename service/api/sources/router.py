@@ -1,8 +1,9 @@
 """GET /v1/sources and /v1/sources/{id}: the statements answers cite by id.
 
 The document is the same for every request to one service version: it carries the
-version and the registry's content hash, and answers with a strong ``ETag`` made from
-that hash (``If-None-Match`` gives 304) and ``Cache-Control`` as the lookups have it.
+version and the registry's content hash, and answers with an ``ETag`` made from that hash
+(weak, because gzip coding changes the bytes but not the content; ``If-None-Match`` gives
+304) and ``Cache-Control`` as the lookups have it.
 """
 
 from __future__ import annotations
@@ -26,6 +27,10 @@ from service.settings import Settings
 
 router = APIRouter(prefix="/v1/sources", tags=["sources"], route_class=TimeLimitedRoute)
 
+_NOT_MODIFIED: dict[int | str, dict[str, Any]] = {
+    304: {"description": "Not modified: `If-None-Match` named the current `ETag`."}
+}
+
 
 def _statement(entry: statements.CitableStatement) -> dict[str, Any]:
     fields = dataclasses.asdict(entry)
@@ -43,7 +48,7 @@ def _document() -> dict[str, Any]:
 
 
 def _tag() -> str:
-    return f'"{statements.content_hash()[:32]}"'
+    return f'W/"{statements.content_hash()[:32]}"'
 
 
 def _cache_headers(request: Request) -> dict[str, str]:
@@ -64,7 +69,7 @@ def _answer(request: Request, content: dict[str, Any]) -> Response:
     "",
     operation_id="get_sources",
     response_model=SourcesPublic,
-    responses=problem_responses(404, 422),
+    responses={**problem_responses(404, 422), **_NOT_MODIFIED},
     openapi_extra=query_parameters(SourcesQuery),
     summary="Every statement answers cite, by id, with its full text",
 )
@@ -93,7 +98,7 @@ async def get_sources(request: Request) -> Response:
     "/{statement_id}",
     operation_id="get_source",
     response_model=StatementPublic,
-    responses=problem_responses(404),
+    responses={**problem_responses(404), **_NOT_MODIFIED},
     summary="One statement answers cite, by its id",
 )
 async def get_source(

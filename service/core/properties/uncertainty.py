@@ -12,14 +12,17 @@ section it comes from (``section``) and how the value got here (``basis``):
   measured in tests/core/test_if97_vs_reference.py; the statement says how.
 
 Verification state (checked 2026-12-03 with the project's search tool, corpora of
-stored web pages, documentation and public repositories): the uncertainty sections of
-IAPWS R6-95(2018), R10-06(2009) and R14-08(2011), and of their companion articles, are
-not stored there (only cover pages, abstracts and the releases' web pages are), so every
-IAPWS-95, R10-06 and R14-08 entry is still ``"from memory"`` and says in its statement
-which document could not be read. :func:`statement_defects` enforces this: an entry
-may claim ``"release text"`` only with a section, table or figure citation, and a
-``"from memory"`` entry must name its missing document. Every IAPWS-IF97 entry is
-``"derived"``. Where the NIST Chemistry WebBook's notes on the IAPWS-95 equation of
+stored web pages, documentation and public repositories, and checked again the same day
+for the release texts of R6-95(2018), R7-97(2012), R10-06(2009), R14-08(2011) and the
+supercooled-water guideline G12-15): the uncertainty sections of IAPWS R6-95(2018),
+R10-06(2009) and R14-08(2011), and of their companion articles, are not stored there
+(only cover pages, abstracts truncated before their uncertainty sentences, and the
+releases' web pages are), so every IAPWS-95, R10-06 and R14-08 entry is still
+``"from memory"`` and says in its statement which document could not be read; ``GET
+/v1/sources`` lists those documents (``missing_documents``). :func:`statement_defects`
+enforces this: an entry may claim ``"release text"`` only with a section, table or figure
+citation, and a ``"from memory"`` entry must name its missing document. Every IAPWS-IF97
+entry is ``"derived"``. Where the NIST Chemistry WebBook's notes on the IAPWS-95 equation of
 state (a secondary source, not the release) give a figure for the same quantity, the
 entry says whether it agrees. Relative uncertainties are fractions (0.00025 means
 0.025 %). IAPWS states its uncertainty estimates as expanded uncertainties with
