@@ -10,8 +10,8 @@ Goals (issue 14, not timed tests):
 Sizes are of the body as sent, without and with gzip (``Accept-Encoding: gzip``; the
 service codes answers of 1 kB or more); the goal is judged on the uncoded body, which is
 what a client without gzip receives (the gzip verdict is printed beside it). The whole
-application runs in-process through ``TestClient`` with records in a temporary SQLite file. Not a test; run alone with
-``.venv/bin/python bench/bench_answer_size.py``.
+application runs in-process through ``TestClient`` with records in a temporary SQLite
+file. Not a test; run alone with ``.venv/bin/python bench/bench_answer_size.py``.
 """
 
 from __future__ import annotations
