@@ -45,7 +45,9 @@ Goals (from the issues):
 - request path (server CPU per request, one keep-alive connection): `/health` <= 2 x a
   bare Starlette route; a one-point saturation lookup <= 1.5 x a raw ASGI floor (query,
   core lookup, orjson); a 10,000-point JSON batch <= 1.3 x the in-process core call plus
-  orjson.
+  orjson;
+- answer size (bytes, not time): a one-temperature saturation lookup <= 1.5 kB by default;
+  a 1,000-row saturation CSV answer <= 300 kB, its statements stated once.
 
 Each script prints "meets" or "MISSES" beside its goal.
 """

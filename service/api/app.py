@@ -43,6 +43,7 @@ from service.api.properties import router as properties
 from service.api.simulations import router as simulations
 from service.api.sizing import router as sizing
 from service.api.solutions import router as solutions
+from service.api.sources import router as sources
 from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
@@ -189,6 +190,7 @@ def create_app(
     app.include_router(calibrations.router)
     app.include_router(sizing.router)
     app.include_router(calculations.router)
+    app.include_router(sources.router)
 
     # Added inner to outer: the last one added sees the request first.
     app.add_middleware(

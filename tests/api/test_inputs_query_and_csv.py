@@ -79,7 +79,10 @@ def test_csv_rows_are_numbered_from_one_in_batch_and_per_row_routes(client: Test
 def test_row_errors_include_answers_the_good_rows(client: TestClient, path: str, body: str) -> None:
     response = client.post(f"{path}?row_errors=include", content=body, headers=_CSV)
     assert response.status_code == 200, response.text
-    lines = response.text.splitlines()
+    # The statements the answered rows share come first, as # lines; then the table.
+    statements = [line for line in response.text.splitlines() if line.startswith("#")]
+    assert any(line.startswith("# property_sources: ") for line in statements)
+    lines = [line for line in response.text.splitlines() if not line.startswith("#")]
     header = lines[0].split(",")
     assert header[-3:] == ["error.status", "error.field", "error.detail"]
     assert len(lines) == 4
@@ -97,7 +100,9 @@ def test_csv_output_units_for_the_whole_request(client: TestClient) -> None:
         "/v1/properties/saturation?output_units=engineering", content=body, headers=_CSV
     )
     assert answer.status_code == 200
-    assert answer.text.splitlines()[0].startswith("temperature[degC],pressure[kPa]")
+    table = [line for line in answer.text.splitlines() if not line.startswith("#")]
+    assert table[0].startswith("temperature[degC],pressure[kPa]")
+    assert '# meta.output_units: "engineering"' in answer.text.splitlines()
     refused = client.post(
         "/v1/properties/saturation?output_units=metric", content=body, headers=_CSV
     )

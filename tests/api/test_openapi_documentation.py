@@ -77,7 +77,12 @@ def test_every_get_query_parameter_is_documented(client: TestClient) -> None:
         "pressure",
         "formulation",
         "output_units",
+        "detail",
     }
+    # `detail` is documented on every route that answers the envelope, GET and POST alike.
+    posted = schema["paths"]["/v1/balances/flash-freeze"]["post"]["parameters"]
+    assert [item["name"] for item in posted] == ["detail"]
+    assert posted[0]["schema"]["enum"] == ["compact", "full"]
     state = schema["paths"]["/v1/properties/state"]["get"]["parameters"]
     assert {item["name"] for item in state if item["required"]} == {"temperature", "pressure"}
     for path, methods in schema["paths"].items():

@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import contextvars
 from typing import Any
 
 import numpy as np
@@ -9,6 +10,7 @@ import orjson
 import pytest
 from fastapi.testclient import TestClient
 
+from service.api.http.detail import begin_detail
 from service.api.http.envelope import envelope
 from service.api.http.responses import FastJSONResponse, NonFiniteResultError
 from service.api.http.units import UnitSet
@@ -44,25 +46,51 @@ def test_non_finite_content_is_refused(name: str, content: Any) -> None:
 
 
 def _reported(relative: float | None) -> ReportedUncertainty:
-    return ReportedUncertainty("pressure", relative, "k = 2", "a statement", "R6-95", "derived")
+    return ReportedUncertainty(
+        "pressure",
+        relative,
+        "k = 2",
+        "a statement",
+        "R6-95",
+        "derived",
+        statement_id="iapws-95.saturation-pressure",
+        coverage_factor=2.0,
+    )
 
 
 def test_envelope_texts_render_as_plain_json() -> None:
     # The envelope's repeated texts are pre-rendered fragments: the document sent must
     # be the plain JSON they stand for.
-    content = envelope(
-        unit_set=UnitSet.SI,
-        assumptions=["Pure water."],
-        sources=[IAPWS_95],
-        uncertainties=[_reported(0.00025), _reported(None)],
-        advisories=[],
-    )
-    sent = orjson.loads(FastJSONResponse(content).body)
-    assert sent["assumptions"] == ["Pure water."]
-    assert sent["property_sources"][0]["formulation"] == "IAPWS-95"
-    assert sent["property_sources"][0]["release"] == IAPWS_95.release
-    assert [item["relative"] for item in sent["uncertainty"]] == [0.00025, None]
-    assert sent["uncertainty"][0]["source"] == "R6-95"
+    def sent_at(detail: str) -> Any:
+        def build() -> dict[str, Any]:
+            begin_detail(detail)
+            return envelope(
+                unit_set=UnitSet.SI,
+                assumptions=["Pure water."],
+                sources=[IAPWS_95],
+                uncertainties=[_reported(0.00025), _reported(None)],
+                advisories=[],
+            )
+
+        # In a context of its own: the detail a request sets does not leak into other tests.
+        return orjson.loads(FastJSONResponse(contextvars.copy_context().run(build)).body)
+
+    compact = sent_at("compact")
+    assert compact["assumptions"] == ["Pure water."]
+    assert compact["reference_state"] == "iapws-triple-point-liquid"
+    assert compact["property_sources"] == [{"id": "iapws-95", "release": IAPWS_95.release}]
+    assert [item["relative"] for item in compact["uncertainty"]] == [0.00025, None]
+    assert compact["uncertainty"][0]["statement_id"] == "iapws-95.saturation-pressure"
+    assert "source" not in compact["uncertainty"][0]
+    assert compact["meta"]["detail"] == "compact"
+
+    full = sent_at("full")
+    assert full["property_sources"][0]["formulation"] == "IAPWS-95"
+    assert full["property_sources"][0]["title"] == IAPWS_95.title
+    assert full["uncertainty"][0]["source"] == "R6-95"
+    assert full["uncertainty"][0]["statement"] == "a statement"
+    assert full["reference_state"].startswith("IAPWS convention")
+    assert full["meta"]["detail"] == "full"
 
 
 @pytest.mark.parametrize("bad", [float("nan"), float("inf")])

@@ -6,17 +6,23 @@ with a published table: what is tested is the CSV wiring, not the formulation.
 
 from __future__ import annotations
 
-import csv
-import io
 from collections.abc import Iterator
 from pathlib import Path
 from typing import Any
 
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 from operations_support import running_client
 
-from service.api.http.csv_io import CsvError, flatten_answers, parse_csv, prefers_csv, render_csv
+from service.api.http.csv_io import (
+    CsvError,
+    flatten_answers,
+    parse_csv,
+    prefers_csv,
+    render_csv,
+    split_statements,
+)
 
 CSV_IN = {"content-type": "text/csv"}
 CSV_OUT = {"accept": "text/csv"}
@@ -29,7 +35,7 @@ def client(tmp_path: Path) -> Iterator[TestClient]:
 
 
 def _table(text: str) -> list[dict[str, str]]:
-    return list(csv.DictReader(io.StringIO(text)))
+    return read_csv_answer(text).rows
 
 
 def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
@@ -39,7 +45,8 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
     response = client.post("/v1/properties/saturation", content=body, headers={**CSV_IN, **CSV_OUT})
     assert response.status_code == 200, response.text
     assert response.headers["content-type"].startswith("text/csv")
-    rows = _table(response.text)
+    answer = read_csv_answer(response.text)
+    rows = answer.rows
     as_json = client.post(
         "/v1/properties/saturation",
         json={
@@ -48,6 +55,17 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
         },
     ).json()
     assert len(rows) == 3
+    # The statements every row shares are stated once, above the header, as JSON.
+    assert answer.statements["meta.output_units"] == "engineering"
+    assert answer.statements["property_sources"] == as_json["property_sources"]
+    assert answer.statements["uncertainty"] == as_json["uncertainty"]
+    assert answer.statements["reference_state"] == as_json["reference_state"]
+    assert answer.statements["assumptions"] == as_json["assumptions"]
+    assert answer.statements["meta.statements"] == as_json["meta"]["statements"]
+    assert not any(
+        name.startswith(("property_sources", "uncertainty", "meta", "assumptions", "reference"))
+        for name in answer.header
+    ), "not repeated on every row"
     for index, row in enumerate(rows):
         # Exact: the CSV carries each float's shortest round-trip text.
         assert float(row["pressure[kPa]"]) == as_json["pressure"]["values"][index]
@@ -56,13 +74,10 @@ def test_csv_batch_in_csv_out_matches_json(client: TestClient) -> None:
             float(row["latent_heat_of_vaporization[kJ/kg]"])
             == as_json["latent_heat_of_vaporization"]["values"][index]
         )
-        assert row["meta.output_units"] == "engineering"
-        assert row["property_sources.formulation"] == "IAPWS-95"
     assert [float(row["temperature[degC]"]) for row in rows] == pytest.approx(
         [20, 60.5, 95], abs=1e-9
     )
-    header = next(csv.reader(io.StringIO(response.text)))
-    assert header[0] == "temperature[degC]", "results first, envelope after"
+    assert answer.header[0] == "temperature[degC]", "results first, envelope after"
 
 
 def test_csv_answer_can_be_sent_back_as_a_request(client: TestClient) -> None:
@@ -117,9 +132,9 @@ def test_unitless_columns_take_the_default_unit(client: TestClient) -> None:
         headers={**CSV_IN, **CSV_OUT},
     )
     assert response.status_code == 200, response.text
-    rows = _table(response.text)
-    assert [float(row["temperature[K]"]) for row in rows] == [300.0, 350.0]
-    assert rows[0]["property_sources.formulation"] == "IAPWS-IF97"
+    answer = read_csv_answer(response.text)
+    assert [float(row["temperature[K]"]) for row in answer.rows] == [300.0, 350.0]
+    assert answer.statements["property_sources"][0]["id"] == "iapws-if97"
 
 
 def test_per_row_route_called_once_per_row(client: TestClient) -> None:
@@ -269,3 +284,52 @@ def test_balance_csv_one_case_per_row_matches_json(client: TestClient) -> None:
         assert stored.json()["kind"] == "balances.flash_freeze"
     assert rows[0]["stages.name"] == "cooling | freezing | ice cooling"
     assert len(rows[0]["stages.end_temperature[degC]"].split(" | ")) == 3
+
+
+def test_shared_statements_are_stated_once_and_differing_ones_stay_columns() -> None:
+    shared = {"id": "iapws-95", "release": "IAPWS R6-95(2018)"}
+    answers: list[dict[str, Any]] = [
+        {
+            "mass": {"value": 1.0, "unit": "kg"},
+            "property_sources": [shared],
+            "warnings": [],
+            "meta": {"service_version": "9", "calculation_id": "a"},
+        },
+        {"error": {"status": 422, "field": "mass", "detail": "bad"}},
+        {
+            "mass": {"value": 2.0, "unit": "kg"},
+            "property_sources": [shared],
+            "warnings": [{"code": "w", "message": "m", "indices": None}],
+            "meta": {"service_version": "9", "calculation_id": "b"},
+        },
+    ]
+    stated, remaining = split_statements(answers)
+    assert stated == [("meta.service_version", "9"), ("property_sources", [shared])]
+    header, rows = flatten_answers(remaining)
+    assert "meta.calculation_id" in header, "differs per row: a column"
+    assert "warnings" in header, "always a column: it names its rows"
+    assert not any(name.startswith("property_sources") for name in header)
+    text = render_csv(header, rows, statements=stated).decode()
+    lines = text.splitlines()
+    assert lines[0].startswith("# tripoint CSV answer.")
+    assert lines[1] == '# meta.service_version: "9"'
+    assert lines[2] == '# property_sources: [{"id":"iapws-95","release":"IAPWS R6-95(2018)"}]'
+    assert lines[3].startswith("mass[kg],")
+    read = read_csv_answer(text)
+    assert read.statements["property_sources"] == [shared]
+    assert [row["meta.calculation_id"] for row in read.rows] == ["a", "", "b"]
+
+
+def test_a_csv_answer_is_a_valid_csv_body_again(client: TestClient) -> None:
+    answer = client.post(
+        "/v1/properties/saturation",
+        content="temperature[degC]\n20\n30\n",
+        headers={**CSV_IN, **CSV_OUT},
+    )
+    assert answer.text.startswith("#")
+    table = parse_csv(answer.content)
+    assert table.rows == 2
+    assert table.columns[0].name == "temperature[K]"
+    # No data cell holds the comment character, so comment="#" readers keep every row.
+    data = [line for line in answer.text.splitlines() if not line.startswith("#")]
+    assert len(data) == 3 and not any("#" in line for line in data)

@@ -83,6 +83,8 @@ _CALIBRATION = "/v1/calibrations/vacuum-chamber"
 _SIZING = "/v1/sizing/vacuum-chamber"
 _RECORD = "/v1/calculations/{calculation_id}"
 _LIST = "/v1/calculations"
+_SOURCES = "/v1/sources"
+_SOURCE = "/v1/sources/{statement_id}"
 
 CASES: list[Case] = [
     # operations routes take no input: a wrong method is the bad request
@@ -485,6 +487,29 @@ CASES: list[Case] = [
     Case("list-limit", "GET", _LIST, 422, "limit", query={"limit": "0"}),
     Case("list-number-as-time", "GET", _LIST, 422, "until", query={"until": "0.5"}),
     Case("list-cursor", "GET", _LIST, 422, "cursor", query={"cursor": "not-a-cursor"}),
+    # the statements answers cite
+    Case("sources-other-version", "GET", _SOURCES, 404, "version", query={"version": "0.0.0"}),
+    Case("sources-unknown-query", "GET", _SOURCES, 422, "kind", query={"kind": "uncertainty"}),
+    Case(
+        "source-unknown",
+        "GET",
+        _SOURCE,
+        404,
+        "statement_id",
+        path="/v1/sources/no-such-statement",
+    ),
+    Case("source-too-long", "GET", _SOURCE, 422, "statement_id", path="/v1/sources/" + "a" * 129),
+    # the detail of an answer, on a GET and a POST route
+    Case("detail-get", "GET", _SAT, 422, "detail", query={"temperature": "300", "detail": "all"}),
+    Case(
+        "detail-post",
+        "POST",
+        _FLASH,
+        422,
+        "detail",
+        query={"detail": "long"},
+        body=_example("post_flash_freeze"),
+    ),
 ]
 
 

@@ -7,12 +7,13 @@ The shapes are those of :mod:`service.api.balances.schemas`: every number is
 from __future__ import annotations
 
 from collections.abc import Iterable
+from dataclasses import replace
 from typing import Any, Final
 
 import numpy as np
 
 from service.api.balances.requests import BalanceInputs
-from service.api.http.envelope import envelope
+from service.api.http.envelope import envelope, uncertainty_output
 from service.api.http.quantities import echo_output, quantity_output
 from service.api.http.units import Dimension, UnitSet
 from service.core.balances import (
@@ -24,6 +25,8 @@ from service.core.balances import (
     PropertyUncertainty,
     StageResult,
 )
+from service.core.balances.uncertainty import EVAPORATED_MASS_UNCERTAINTY
+from service.core.properties.lookups import ReportedUncertainty
 from service.core.properties.phase import FloatArray
 
 __all__ = [
@@ -69,10 +72,6 @@ _TRAJECTORY_FIELDS: Final = (
     ("evaporated_fraction_of_water", Dimension.DIMENSIONLESS),
     ("ice_fraction", Dimension.DIMENSIONLESS),
     ("liquid_fraction", Dimension.DIMENSIONLESS),
-)
-
-_PROPERTY_UNCERTAINTY_SOURCE: Final = (
-    "derived by tripoint from the statements listed (service/core/balances/uncertainty.py)"
 )
 
 
@@ -149,40 +148,33 @@ def _input_uncertainty(
 
 
 def _property_uncertainty(properties: PropertyUncertainty, shape: _Shaper) -> list[dict[str, Any]]:
-    entries: list[dict[str, Any]] = [
-        {
-            "quantity": statement.quantity,
-            "relative": statement.relative,
-            "absolute": None,
-            "coverage": statement.coverage,
-            "statement": statement.statement,
-            "source": statement.section,
-            "basis": statement.basis,
-        }
+    entries = [
+        uncertainty_output(
+            ReportedUncertainty(
+                quantity=statement.quantity,
+                relative=statement.relative,
+                coverage=statement.coverage,
+                statement=statement.statement,
+                source=statement.section,
+                basis=statement.basis,
+                statement_id=statement.statement_id,
+                coverage_factor=statement.coverage_factor,
+            )
+        )
         for statement in properties.statements
     ]
-    missing = (
-        " Not covered by any statement (no contribution counted): "
-        + ", ".join(properties.not_covered)
-        + "."
-        if properties.not_covered
-        else ""
-    )
-    entries.append(
-        {
-            "quantity": "evaporated_mass",
-            "relative": None,
-            "absolute": shape(properties.evaporated_mass, Dimension.MASS),
-            "coverage": "standard (k = 1): the k = 2 statements above halved",
-            "statement": "Standard uncertainty of the evaporated mass from the property "
-            "formulations' own uncertainties: each stage's evaporated mass scales as (heat to "
-            "remove) / (latent heat); contributions of one quantity add over stages, different "
-            "quantities combine in quadrature. Input uncertainties are in `input_uncertainty`."
-            + missing,
-            "source": _PROPERTY_UNCERTAINTY_SOURCE,
-            "basis": "derived",
-        }
-    )
+    evaporated = EVAPORATED_MASS_UNCERTAINTY
+    if properties.not_covered:
+        missing = ", ".join(properties.not_covered)
+        evaporated = replace(
+            evaporated,
+            statement=f"{evaporated.statement} Not covered by any statement (no contribution "
+            f"counted): {missing}.",
+        )
+    entry = uncertainty_output(evaporated, shape(properties.evaporated_mass, Dimension.MASS))
+    if properties.not_covered:
+        entry["not_covered"] = list(properties.not_covered)
+    entries.append(entry)
     return entries
 
 

@@ -27,6 +27,11 @@ TAGS: Final[tuple[tuple[str, str], ...]] = (
     ("calibrations", "Chamber-model fields fitted to a measured run, with intervals."),
     ("drying", "Primary drying of vials or trays: runs over a recipe and design spaces."),
     ("calculations", "Stored answers: fetch one by its id, list them with filters."),
+    (
+        "sources",
+        "The statements answers cite by id: reference state, property sources, uncertainty "
+        "statements, with their full texts (one versioned document).",
+    ),
     ("operations", "Health, readiness and metrics for operators."),
 )
 """Every tag the routes use, with its description (a test checks none is missing)."""

@@ -27,6 +27,15 @@ that apply to it. Lists of objects (stages, sources) keep one column per field w
 items joined by `` | ``; an array that is not the batch (a trajectory) is joined by ``; ``
 in one cell. Problems stay ``application/problem+json``. A per-row CSV request asked for
 JSON gets a JSON array of the answers.
+
+Statements once. The envelope members that are the same on every row (reference state,
+assumptions, property sources, uncertainty, and each ``meta`` member) are not repeated
+per row: they open the answer as ``# name: JSON value`` lines, after one explaining
+``#`` line, before the header (pandas reads the table with ``read_csv(comment="#")``;
+the stdlib ``csv`` reader after skipping lines that start with ``#``). A member that
+differs between rows (the calculation id of each row of a per-row route) stays a column,
+and so does ``warnings``. A CSV answer can be sent back as a request body as it is: the
+``#`` lines before the header are skipped.
 """
 
 from __future__ import annotations
@@ -62,6 +71,7 @@ __all__ = [
     "parse_csv",
     "prefers_csv",
     "render_csv",
+    "split_statements",
 ]
 
 CSV_MEDIA_TYPE = "text/csv"
@@ -240,8 +250,17 @@ def _put(body: dict[str, Any], column: _Column, value: Any) -> None:
     node[column.path[-1]] = value
 
 
+def _without_leading_statements(text: str) -> str:
+    """``text`` less the ``#`` lines before its header (a CSV answer's statements)."""
+    while text.startswith("#"):
+        end = text.find("\n")
+        text = "" if end < 0 else text[end + 1 :]
+    return text
+
+
 def parse_csv(data: bytes) -> CsvTable:
-    """Read a CSV body: UTF-8 (a byte-order mark is fine), comma-separated, header first.
+    """Read a CSV body: UTF-8 (a byte-order mark is fine), comma-separated, header first;
+    ``#`` lines before the header (those of a CSV answer) are skipped.
 
     Raises
     ------
@@ -252,6 +271,7 @@ def parse_csv(data: bytes) -> CsvTable:
         text = data.decode("utf-8-sig")
     except UnicodeDecodeError:
         raise CsvError(400, "the CSV body is not UTF-8 text") from None
+    text = _without_leading_statements(text)
     try:
         lines = [line for line in csv.reader(io.StringIO(text, newline="")) if any(line)]
     except csv.Error as error:
@@ -427,13 +447,95 @@ def flatten_answers(answers: Sequence[dict[str, Any]]) -> tuple[list[str], list[
     return header, rows
 
 
+_PER_ROW = frozenset({"warnings"})
+"""Envelope members that always stay columns: they say which rows they concern."""
+_PREAMBLE_INTRO = (
+    "# tripoint CSV answer. Lines starting with # state, once, what holds for every row "
+    "(name: JSON value); the table follows."
+)
+
+
+def split_statements(
+    answers: Sequence[dict[str, Any]],
+) -> tuple[list[tuple[str, Any]], list[dict[str, Any]]]:
+    """Take out of the answers the envelope members that are the same in all of them.
+
+    The reference state, assumptions, property sources, uncertainty and each ``meta``
+    member are stated once (returned as ``(name, value)`` pairs, ``meta.x`` for a meta
+    member) when every answered row has the same value; a member that differs between
+    answers (a per-row route's calculation ids) stays in them, to become a column.
+    ``warnings`` always stays (each row gets the warnings that apply to it); rows that
+    failed (``row_errors=include``) carry no envelope and do not count.
+    """
+    answered = [answer for answer in answers if "error" not in answer]
+    if not answered:
+        return [], list(answers)
+    candidates: list[tuple[str, ...]] = []
+    for key in _ENVELOPE_ORDER:
+        if key in _PER_ROW or key not in answered[0]:
+            continue
+        if key == "meta" and isinstance(answered[0][key], dict):
+            candidates += [("meta", name) for name in answered[0]["meta"]]
+        else:
+            candidates.append((key,))
+    stated: list[tuple[str, Any]] = []
+    for path in candidates:
+        values = [_member(answer, path) for answer in answered]
+        first = orjson.dumps(values[0])
+        if values[0] is _MISSING or any(orjson.dumps(item) != first for item in values[1:]):
+            continue
+        stated.append((".".join(path), values[0]))
+    taken = {name for name, _ in stated}
+    remaining = []
+    for answer in answers:
+        kept = {key: value for key, value in answer.items() if key not in taken}
+        if isinstance(kept.get("meta"), dict):
+            kept["meta"] = {
+                name: value for name, value in kept["meta"].items() if f"meta.{name}" not in taken
+            }
+            if not kept["meta"]:
+                del kept["meta"]
+        remaining.append(kept)
+    return stated, remaining
+
+
+class _Missing:
+    pass
+
+
+_MISSING: Any = _Missing()
+
+
+def _member(answer: dict[str, Any], path: tuple[str, ...]) -> Any:
+    node: Any = answer
+    for part in path:
+        if not isinstance(node, dict) or part not in node:
+            return _MISSING
+        node = node[part]
+    return node
+
+
 def _table_bytes(answers: list[dict[str, Any]]) -> bytes:
-    return render_csv(*flatten_answers(answers))
+    stated, remaining = split_statements(answers)
+    return render_csv(*flatten_answers(remaining), statements=stated)
 
 
-def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
-    """RFC 4180 text: CRLF line ends, quotes where needed, UTF-8."""
+def render_csv(
+    header: Sequence[str],
+    rows: Sequence[Sequence[str]],
+    statements: Sequence[tuple[str, Any]] = (),
+) -> bytes:
+    """RFC 4180 text: CRLF line ends, quotes where needed, UTF-8.
+
+    ``statements`` (from :func:`split_statements`) go first, one ``# name: JSON`` line
+    each after an explaining line, so that a reader skipping ``#`` lines (pandas
+    ``read_csv(comment="#")``) sees the table alone.
+    """
     buffer = io.StringIO()
+    if statements:
+        buffer.write(_PREAMBLE_INTRO + "\r\n")
+        for name, value in statements:
+            buffer.write(f"# {name}: {orjson.dumps(value).decode()}\r\n")
     writer = csv.writer(buffer, lineterminator="\r\n")
     writer.writerow(header)
     writer.writerows(rows)

@@ -6,6 +6,7 @@ from typing import Annotated
 
 from pydantic import BaseModel, ConfigDict, Field, Strict
 
+from service.api.http.detail import Detail
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -84,27 +85,62 @@ class QuantityOutput(ApiModel):
 
 
 class SourceOut(ApiModel):
-    """A property formulation the answer used."""
+    """A property formulation the answer used: its id and release; with `detail=full`
+    also its name, edition year, title and what tripoint uses it for."""
 
-    formulation: str
-    release: str
-    year: int
-    title: str
-    scope: str
+    id: str = Field(
+        description="Stable id of the source; `GET /v1/sources/{id}` gives its full entry."
+    )
+    release: str = Field(description="The release or publication, with its edition.")
+    formulation: str | None = Field(
+        None, description="Short name of the formulation (`detail=full` only)."
+    )
+    year: int | None = Field(None, description="Year of the edition cited (`detail=full` only).")
+    title: str | None = Field(None, description="Full title of the release (`detail=full` only).")
+    scope: str | None = Field(None, description="What tripoint uses it for (`detail=full` only).")
 
 
 class UncertaintyOut(ApiModel):
-    """A formulation's own stated uncertainty for one quantity."""
+    """A formulation's own stated uncertainty for one quantity, with the id of the
+    statement it rests on; with `detail=full` also the statement's texts."""
 
-    quantity: str = Field(description="Which result it applies to.")
-    relative: float | None = Field(None, description="Relative uncertainty (fraction).")
-    absolute: QuantityOutput | None = Field(None, description="Absolute uncertainty.")
-    coverage: str = Field(description="How the uncertainty is stated (e.g. expanded, k=2).")
-    statement: str = Field(description="The statement it rests on.")
-    source: str = Field(description="Release and section.")
+    quantity: str = Field(description="Which result it applies to (its path in the answer).")
+    relative: float | None = Field(
+        None, description="Relative uncertainty, as a fraction (0.00025 = 0.025 %)."
+    )
+    absolute: QuantityOutput | None = Field(
+        None, description="Absolute uncertainty, in the answer's unit set (where stated)."
+    )
+    coverage_factor: float | None = Field(
+        None,
+        description="Coverage factor of the figure (2: expanded, about 95 %; 1: standard "
+        "uncertainty); null where the statement gives none (comparisons).",
+    )
     basis: str = Field(
         description="How the figure was obtained: `release text`, `from memory` (recalled, "
-        "awaiting verification against the release) or `derived` (computed by tripoint)."
+        "awaiting verification against the release), `derived` (computed by tripoint) or "
+        "`comparison` (tripoint's tests against outside references); empty where no "
+        "statement covers the states."
+    )
+    statement_id: str = Field(
+        description="Id of the statement it rests on; `GET /v1/sources/{id}` gives its text, "
+        "release and section."
+    )
+    coverage: str | None = Field(
+        None, description="How the uncertainty is stated, in words (`detail=full` only)."
+    )
+    statement: str | None = Field(
+        None,
+        description="The statement it rests on, with anything only this answer knows "
+        "(`detail=full` only).",
+    )
+    source: str | None = Field(
+        None, description="Release and section, or how it was derived (`detail=full` only)."
+    )
+    not_covered: list[str] | None = Field(
+        None,
+        description="Parts of the calculation no statement covers (e.g. a supercooled stage); "
+        "they add nothing to the figure.",
     )
 
 
@@ -119,7 +155,7 @@ class WarningOut(ApiModel):
 class Meta(ApiModel):
     """Where and when the answer was made."""
 
-    service_version: str
+    service_version: str = Field(description="Version of the service that made the answer.")
     calculation_id: str | None = Field(
         None,
         description="Id of the stored record of this answer (`GET /v1/calculations/{id}`); "
@@ -133,15 +169,35 @@ class Meta(ApiModel):
         description="UTC time of the calculation, ISO 8601.",
         json_schema_extra={"format": "date-time"},
     )
-    output_units: UnitSet
+    output_units: UnitSet = Field(description="Unit set of the answer's quantities.")
+    detail: Detail = Field(
+        Detail.COMPACT,
+        description="How much of its statements the answer spells out (the `detail` query "
+        "parameter): `compact` cites them by id, `full` adds their texts.",
+    )
+    statements: str | None = Field(
+        None,
+        description="Where every id in this answer resolves: the versioned sources document "
+        "of this service version (`/v1/sources?version=...`).",
+    )
 
 
 class Envelope(ApiModel):
     """Carried by every calculation response."""
 
-    reference_state: str = Field(description="Zero of energy and entropy for all phases.")
-    assumptions: list[str]
-    property_sources: list[SourceOut]
-    uncertainty: list[UncertaintyOut]
-    warnings: list[WarningOut]
-    meta: Meta
+    reference_state: str = Field(
+        description="Zero of energy and entropy for all phases: its id "
+        "(`iapws-triple-point-liquid`, resolved by `GET /v1/sources/{id}`); with "
+        "`detail=full`, the full statement."
+    )
+    assumptions: list[str] = Field(description="The modelling assumptions of this answer.")
+    property_sources: list[SourceOut] = Field(
+        description="The property formulations the answer used."
+    )
+    uncertainty: list[UncertaintyOut] = Field(
+        description="The formulations' stated uncertainties of the answer's quantities."
+    )
+    warnings: list[WarningOut] = Field(
+        description="Things the caller should know about the result."
+    )
+    meta: Meta = Field(description="Where and when the answer was made.")

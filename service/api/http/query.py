@@ -18,6 +18,8 @@ from fastapi import Request
 from fastapi.exceptions import RequestValidationError
 from pydantic import BaseModel, ValidationError
 
+from service.api.http.detail import DETAIL_PARAMETER
+
 __all__ = ["query_parameters", "read_query"]
 
 QueryModel = TypeVar("QueryModel", bound=BaseModel)
@@ -27,6 +29,8 @@ def read_query(request: Request, model: type[QueryModel]) -> QueryModel:
     """Validate the request's query string with ``model``.
 
     A parameter given twice takes its last value, as FastAPI's own query parameters do.
+    ``detail``, which every answering route takes, is the route class's
+    (:mod:`service.api.http.detail`), not the model's.
 
     Raises
     ------
@@ -34,7 +38,9 @@ def read_query(request: Request, model: type[QueryModel]) -> QueryModel:
         Each error located at ``("query", field)``.
     """
     try:
-        return model.model_validate(dict(request.query_params))
+        query = dict(request.query_params)
+        query.pop(DETAIL_PARAMETER, None)
+        return model.model_validate(query)
     except ValidationError as error:
         raise RequestValidationError(
             [{**item, "loc": ("query", *item["loc"])} for item in error.errors()]

@@ -26,6 +26,7 @@ from service import __version__
 from service.api.http.observability import Metrics
 from service.api.http.problems import FieldError, ProblemError
 from service.api.http.responses import NonFiniteResultError, check_finite
+from service.core.statements import source_by_id
 from service.records import CalculationRecord, RecordStore, StoreUnavailableError
 
 __all__ = ["NOT_STORED_WARNING", "RecordKeeper", "record_calculation"]
@@ -90,7 +91,7 @@ class RecordKeeper:
             result=stored,
             service_version=str(meta.get("service_version") or __version__),
             formulations=[
-                {"formulation": source.get("formulation"), "release": source.get("release")}
+                {"formulation": _formulation(source), "release": source.get("release")}
                 for source in sources
                 if isinstance(source, dict)
             ],
@@ -209,6 +210,14 @@ def record_calculation(
     key_id = getattr(request.state, "api_key_id", None)
     keeper.record(kind=kind, inputs=sent, result=result, key_id=key_id)
     return result
+
+
+def _formulation(source: Mapping[str, Any]) -> Any:
+    """A cited source's formulation name: given with ``detail=full``, else by its id."""
+    if source.get("formulation"):
+        return source["formulation"]
+    known = source_by_id(str(source.get("id", "")))
+    return None if known is None else known.formulation
 
 
 _EXTREME = (1.0e-12, 1.0e12)

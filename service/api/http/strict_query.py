@@ -10,6 +10,8 @@ request also starts its notes of the units its fields were sent in
 
 from __future__ import annotations
 
+import types
+import typing
 from collections.abc import Callable, Coroutine
 from typing import Any
 
@@ -18,6 +20,13 @@ from fastapi.exceptions import RequestValidationError
 from fastapi.routing import APIRoute
 
 from service.api.http.body_media import check_body_media_type
+from service.api.http.detail import (
+    DETAIL_PARAMETER,
+    begin_detail,
+    detail_parameter,
+    invalid_detail,
+)
+from service.api.http.models import Envelope
 from service.api.http.sent_units import begin_request
 
 __all__ = ["StrictQueryRoute"]
@@ -26,7 +35,24 @@ Handler = Callable[[Request], Coroutine[Any, Any, Response]]
 
 
 class StrictQueryRoute(APIRoute):
-    """An :class:`APIRoute` answering 422 for undeclared query parameters."""
+    """An :class:`APIRoute` answering 422 for undeclared query parameters.
+
+    A route whose answer carries the envelope (its response model extends
+    :class:`~service.api.http.models.Envelope`) also takes ``detail``
+    (:mod:`service.api.http.detail`), read here for the whole request.
+    """
+
+    def __init__(self, path: str, endpoint: Callable[..., Any], **kwargs: Any) -> None:
+        super().__init__(path, endpoint, **kwargs)
+        if self.answers_envelope:
+            extra = dict(self.openapi_extra or {})
+            extra["parameters"] = [*extra.get("parameters", []), detail_parameter()]
+            self.openapi_extra = extra
+
+    @property
+    def answers_envelope(self) -> bool:
+        """Whether the answers carry the envelope (and the route takes ``detail``)."""
+        return _carries_envelope(self.response_model)
 
     @property
     def declared_query(self) -> frozenset[str]:
@@ -44,9 +70,14 @@ class StrictQueryRoute(APIRoute):
         handler = self.inner_handler()
         declared = self.declared_query
         takes_body = self.body_field is not None
+        takes_detail = self.answers_envelope
 
         async def checked(request: Request) -> Response:
             begin_request()
+            if takes_detail:
+                detail = request.query_params.get(DETAIL_PARAMETER)
+                if not begin_detail(detail):
+                    raise RequestValidationError([invalid_detail(str(detail))])
             if takes_body:
                 check_body_media_type(request, _taken(request))
             if request.scope.get("query_string"):
@@ -58,6 +89,15 @@ class StrictQueryRoute(APIRoute):
             return await handler(request)
 
         return checked
+
+
+def _carries_envelope(model: Any) -> bool:
+    """Whether answers of ``model`` (a class, or a union of classes) carry the envelope."""
+    if isinstance(model, type):
+        return issubclass(model, Envelope)
+    if typing.get_origin(model) in (typing.Union, types.UnionType):
+        return any(_carries_envelope(member) for member in typing.get_args(model))
+    return False
 
 
 def _unknown(name: str, declared: frozenset[str], method: str) -> dict[str, Any]:

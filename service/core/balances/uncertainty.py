@@ -33,10 +33,12 @@ from numpy.typing import ArrayLike
 
 from service.core.balances.sweeps import field_value, replace_field
 from service.core.errors import InvalidInputError, OutOfRangeError, TripointError
+from service.core.properties.lookups import ReportedUncertainty
 from service.core.properties.phase import FloatArray
 from service.core.properties.uncertainty import StatedUncertainty, stated_uncertainty
 
 __all__ = [
+    "EVAPORATED_MASS_UNCERTAINTY",
     "INPUT_METHOD",
     "InputUncertainty",
     "PropertyUncertainty",
@@ -54,6 +56,26 @@ _COVERAGE_FACTOR: Final = 2.0
 """IAPWS statements are expanded uncertainties with k = 2."""
 
 CaseT = TypeVar("CaseT")
+
+EVAPORATED_MASS_UNCERTAINTY: Final = ReportedUncertainty(
+    quantity="evaporated_mass",
+    relative=None,
+    coverage="standard (k = 1): the k = 2 statements above halved",
+    statement=(
+        "Standard uncertainty of the evaporated mass from the property formulations' own "
+        "uncertainties: each stage's evaporated mass scales as (heat to remove) / (latent "
+        "heat); contributions of one quantity add over stages, different quantities "
+        "combine in quadrature. Input uncertainties are in `input_uncertainty`."
+    ),
+    source=(
+        "derived by tripoint from the statements listed (service/core/balances/uncertainty.py)"
+    ),
+    basis="derived",
+    statement_id="balances.evaporated-mass",
+    coverage_factor=1.0,
+)
+"""What a balance answer states beside its evaporated mass's property uncertainty (the
+absolute value is the answer's; stages no statement covers are named in the answer)."""
 
 
 @dataclass(frozen=True)

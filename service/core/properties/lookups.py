@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import functools
 import math
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Final, Generic, Literal, TypeVar
 
 import numpy as np
@@ -45,6 +45,7 @@ from service.core.properties.sublimation import (
 from service.core.properties.uncertainty import StatedUncertainty, stated_uncertainty, statement_at
 
 __all__ = [
+    "NOT_STATED",
     "ConstantValues",
     "Lookup",
     "ReportedUncertainty",
@@ -73,7 +74,10 @@ class ReportedUncertainty:
     """A formulation's stated uncertainty for one returned quantity over a request.
 
     ``relative`` is the largest stated relative uncertainty over the request's states,
-    or ``None`` where no statement covers them.
+    or ``None`` where no statement covers them. ``statement_id`` names the statement in
+    the registry of citable statements (:mod:`service.core.statements`), which holds
+    its full text; ``statement`` may add to that text what only this answer knows.
+    ``coverage_factor`` is the coverage factor of ``relative`` (``None``: not stated).
     """
 
     quantity: str
@@ -82,6 +86,25 @@ class ReportedUncertainty:
     statement: str
     source: str
     basis: str
+    statement_id: str = field(kw_only=True)
+    coverage_factor: float | None = field(kw_only=True)
+
+
+NOT_STATED: Final = ReportedUncertainty(
+    quantity="",
+    relative=None,
+    coverage="not stated",
+    statement=(
+        "No uncertainty statement of the formulation covers every state asked (the "
+        "answer's full detail names the first state outside the statements' ranges); no "
+        "uncertainty is reported for this quantity."
+    ),
+    source="",
+    basis="",
+    statement_id="uncertainty-not-stated",
+    coverage_factor=None,
+)
+"""What an answer cites where no statement covers its states (its template)."""
 
 
 @dataclass(frozen=True)
@@ -157,6 +180,8 @@ def _reported(name: str, statement: StatedUncertainty) -> ReportedUncertainty:
         statement=statement.statement,
         source=statement.section,
         basis=statement.basis,
+        statement_id=statement.statement_id,
+        coverage_factor=statement.coverage_factor,
     )
 
 
@@ -168,6 +193,8 @@ def _not_stated(name: str, formulation: str, error: OutOfRangeError) -> Reported
         statement=f"No uncertainty statement of {formulation} covers every state asked: {error}",
         source="",
         basis="",
+        statement_id=NOT_STATED.statement_id,
+        coverage_factor=None,
     )
 
 

@@ -43,6 +43,9 @@ class PropertySource:
         Full title of the release.
     scope : str
         What tripoint uses it for, in one sentence.
+    source_id : str
+        Stable id by which compact answers cite it and ``GET /v1/sources`` resolves it
+        (lower case, digits, ``-`` and ``.``).
     """
 
     formulation: str
@@ -50,6 +53,7 @@ class PropertySource:
     year: int
     title: str
     scope: str
+    source_id: str
 
     def citation(self) -> str:
         """One-line citation, e.g. for logs and response metadata."""
@@ -68,6 +72,7 @@ IAPWS_95: Final = PropertySource(
         "Liquid water and water vapor (Helmholtz free energy), saturation states by "
         "the phase-equilibrium condition; reference formulation of tripoint."
     ),
+    source_id="iapws-95",
 )
 
 IAPWS_IF97: Final = PropertySource(
@@ -82,6 +87,7 @@ IAPWS_IF97: Final = PropertySource(
         "Fast explicit liquid (region 1), vapor (region 2) and saturation-line "
         "(region 4) properties, 273.15 K to 1073.15 K, up to 100 MPa."
     ),
+    source_id="iapws-if97",
 )
 
 ICE_IH: Final = PropertySource(
@@ -90,6 +96,7 @@ ICE_IH: Final = PropertySource(
     year=2009,
     title="Revised Release on the Equation of State 2006 for H2O Ice Ih",
     scope="Properties of ice Ih (Gibbs free energy), 0 K to 273.16 K, up to 210 MPa.",
+    source_id="iapws-06-ice-ih",
 )
 
 MELTING_AND_SUBLIMATION: Final = PropertySource(
@@ -101,6 +108,7 @@ MELTING_AND_SUBLIMATION: Final = PropertySource(
         "of Ordinary Water Substance"
     ),
     scope="Sublimation pressure of ice Ih (50 K to 273.16 K) and melting pressure of ice Ih.",
+    source_id="iapws-08-melting-sublimation",
 )
 
 SATURATION_AUXILIARY: Final = PropertySource(
@@ -112,6 +120,7 @@ SATURATION_AUXILIARY: Final = PropertySource(
         "Simple correlations of saturation pressure and saturated densities, used only "
         "as starting values for the IAPWS-95 phase-equilibrium solve."
     ),
+    source_id="iapws-sr1-86-saturation",
 )
 
 LOW_TEMPERATURE_VAPOR: Final = PropertySource(
@@ -123,6 +132,7 @@ LOW_TEMPERATURE_VAPOR: Final = PropertySource(
         "Correction to the IAPWS-95 ideal-gas part for vapor from 50 K to 130 K (sublimation "
         "states of cold ice)."
     ),
+    source_id="iapws-95-low-temperature-vapor",
 )
 
 ALL_SOURCES: Final[tuple[PropertySource, ...]] = (

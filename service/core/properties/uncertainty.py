@@ -12,14 +12,17 @@ section it comes from (``section``) and how the value got here (``basis``):
   measured in tests/core/test_if97_vs_reference.py; the statement says how.
 
 Verification state (checked 2026-12-03 with the project's search tool, corpora of
-stored web pages, documentation and public repositories): the uncertainty sections of
-IAPWS R6-95(2018), R10-06(2009) and R14-08(2011), and of their companion articles, are
-not stored there (only cover pages, abstracts and the releases' web pages are), so every
-IAPWS-95, R10-06 and R14-08 entry is still ``"from memory"`` and says in its statement
-which document could not be read. :func:`statement_defects` enforces this: an entry
-may claim ``"release text"`` only with a section, table or figure citation, and a
-``"from memory"`` entry must name its missing document. Every IAPWS-IF97 entry is
-``"derived"``. Where the NIST Chemistry WebBook's notes on the IAPWS-95 equation of
+stored web pages, documentation and public repositories, and checked again the same day
+for the release texts of R6-95(2018), R7-97(2012), R10-06(2009), R14-08(2011) and the
+supercooled-water guideline G12-15): the uncertainty sections of IAPWS R6-95(2018),
+R10-06(2009) and R14-08(2011), and of their companion articles, are not stored there
+(only cover pages, abstracts truncated before their uncertainty sentences, and the
+releases' web pages are), so every IAPWS-95, R10-06 and R14-08 entry is still
+``"from memory"`` and says in its statement which document could not be read; ``GET
+/v1/sources`` lists those documents (``missing_documents``). :func:`statement_defects`
+enforces this: an entry may claim ``"release text"`` only with a section, table or figure
+citation, and a ``"from memory"`` entry must name its missing document. Every IAPWS-IF97
+entry is ``"derived"``. Where the NIST Chemistry WebBook's notes on the IAPWS-95 equation of
 state (a secondary source, not the release) give a figure for the same quantity, the
 entry says whether it agrees. Relative uncertainties are fractions (0.00025 means
 0.025 %). IAPWS states its uncertainty estimates as expanded uncertainties with
@@ -31,7 +34,7 @@ from __future__ import annotations
 
 import functools
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 from typing import Final, Literal
 
 import numpy as np
@@ -53,6 +56,7 @@ __all__ = [
     "StatedUncertainty",
     "UncertaintyLookup",
     "covered_quantities",
+    "missing_document",
     "stated_uncertainty",
     "statement_at",
     "statement_defects",
@@ -68,6 +72,7 @@ _K2_DERIVED: Final = (
     "k = 2 (expanded, about 95 %) assumed, as for the entries it is derived from; a "
     "tripoint derivation, not a release statement"
 )
+_COVERAGE_FACTOR: Final = 2.0
 _NOT_FOUND: Final = "Release text not found:"
 _CITATION: Final = re.compile(r"\b(section|sec\.|table|figure|fig\.)\s*\d", re.IGNORECASE)
 _AMBIENT_PRESSURE_LIMIT: Final = 1.0e6  # Pa; "ambient pressure" statements are not used above
@@ -97,6 +102,10 @@ class StatedUncertainty:
         How the value got into this table (see module docstring).
     maximum_pressure : float or None
         Highest pressure the statement covers, Pa; ``None`` if not limited.
+    statement_id : str
+        Stable id by which compact answers cite it (``GET /v1/sources`` resolves it).
+    coverage_factor : float
+        Coverage factor of ``relative`` as a number (2 for the expanded k = 2 values).
     """
 
     formulation: str
@@ -109,6 +118,8 @@ class StatedUncertainty:
     section: str
     basis: Basis
     maximum_pressure: float | None = None
+    statement_id: str = field(kw_only=True)
+    coverage_factor: float = field(default=_COVERAGE_FACTOR, kw_only=True)
 
 
 @dataclass(frozen=True)
@@ -187,6 +198,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"{_R6_95_NOT_FOUND} {_WEBBOOK} also state 0.025 % in vapor pressure.",
         _IAPWS95_SECTION,
         "from memory",
+        statement_id="iapws-95.saturation-pressure",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -201,6 +213,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "saturated liquid density, larger than the value used here.",
         _IAPWS95_SECTION,
         "from memory",
+        statement_id="iapws-95.saturated-liquid-density.273-373-k",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -215,6 +228,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "critical point.",
         _IAPWS95_SECTION,
         "from memory",
+        statement_id="iapws-95.saturated-liquid-density.373-623-k",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -229,6 +243,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "used here.",
         _IAPWS95_SECTION,
         "from memory",
+        statement_id="iapws-95.saturated-vapor-density",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -243,6 +258,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         _IAPWS95_SECTION,
         "from memory",
         _AMBIENT_PRESSURE_LIMIT,
+        statement_id="iapws-95.liquid-density",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -256,6 +272,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "liquid, rising in the critical region and at high pressures.",
         _IAPWS95_SECTION,
         "from memory",
+        statement_id="iapws-95.liquid-isobaric-heat-capacity",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -270,6 +287,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "to that of p_s (an approximation).",
         _IAPWS95_DERIVED_SECTION,
         "derived",
+        statement_id="iapws-95.enthalpy-of-vaporization",
     ),
     StatedUncertainty(
         IAPWS_95.formulation,
@@ -283,6 +301,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "(conservative while h' >= 0, i.e. from the triple point up).",
         _IAPWS95_DERIVED_SECTION,
         "derived",
+        statement_id="iapws-95.vapor-enthalpy",
     ),
     # ----------------------------------------------------------------- IAPWS-IF97
     StatedUncertainty(
@@ -296,6 +315,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "|Eq. 30 - IAPWS-95| deviation, 0.0176 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.saturation-pressure",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -308,6 +328,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "IAPWS-95 deviation at saturation up to 373.15 K, 0.0016 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.saturated-liquid-density.273-373-k",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -320,6 +341,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "IAPWS-95 deviation at saturation, 0.0031 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.saturated-liquid-density.373-623-k",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -332,6 +354,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "IAPWS-95 deviation at saturation, 0.042 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.saturated-vapor-density",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -346,6 +369,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         _IF97_SECTION,
         "derived",
         _AMBIENT_PRESSURE_LIMIT,
+        statement_id="iapws-if97.liquid-density",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -358,6 +382,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "IAPWS-95 deviation along the saturation line, 0.15 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.liquid-isobaric-heat-capacity",
     ),
     StatedUncertainty(
         IAPWS_IF97.formulation,
@@ -370,6 +395,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         "measured IF97 - IAPWS-95 deviation of h'' - h', 0.034 %, added linearly.",
         _IF97_SECTION,
         "derived",
+        statement_id="iapws-if97.enthalpy-of-vaporization",
     ),
     # ----------------------------------------------------------------- R10-06 ice Ih
     StatedUncertainty(
@@ -383,6 +409,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
+        statement_id="iapws-06-ice-ih.ice-density",
     ),
     StatedUncertainty(
         ICE_IH.formulation,
@@ -395,6 +422,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
+        statement_id="iapws-06-ice-ih.ice-isobaric-heat-capacity",
     ),
     StatedUncertainty(
         ICE_IH.formulation,
@@ -408,6 +436,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
+        statement_id="iapws-06-ice-ih.ice-enthalpy",
     ),
     StatedUncertainty(
         ICE_IH.formulation,
@@ -420,6 +449,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"0.1 %, recalled with low confidence. {_R10_06_NOT_FOUND}",
         _ICE_SECTION,
         "from memory",
+        statement_id="iapws-06-ice-ih.enthalpy-of-sublimation",
     ),
     # ----------------------------------------------------------------- R14-08 curves
     StatedUncertainty(
@@ -434,6 +464,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"low confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
+        statement_id="iapws-08-melting-sublimation.sublimation-pressure.190-273-k",
     ),
     StatedUncertainty(
         MELTING_AND_SUBLIMATION.formulation,
@@ -446,6 +477,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"percent; 5 % is used, recalled with low confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
+        statement_id="iapws-08-melting-sublimation.sublimation-pressure.50-190-k",
     ),
     StatedUncertainty(
         MELTING_AND_SUBLIMATION.formulation,
@@ -459,6 +491,7 @@ STATEMENTS: Final[tuple[StatedUncertainty, ...]] = (
         f"confidence. {_R14_08_NOT_FOUND}",
         _CURVES_SECTION,
         "from memory",
+        statement_id="iapws-08-melting-sublimation.melting-pressure",
     ),
 )
 """Every uncertainty statement tripoint knows, in lookup order."""
@@ -509,6 +542,25 @@ def statement_defects(entry: StatedUncertainty) -> tuple[str, ...]:
     elif not entry.section.startswith("derived"):
         defects.append("a derived entry's section must say how it was derived")
     return tuple(defects)
+
+
+def missing_document(entry: StatedUncertainty) -> str | None:
+    """Which document a ``"from memory"`` entry could not be read from (its statement's
+    sentence after ``"Release text not found:"``); ``None`` for other entries.
+
+    Examples
+    --------
+    >>> missing_document(STATEMENTS[0]).startswith("the uncertainty section of IAPWS R6-95")
+    True
+    """
+    if entry.basis != "from memory":
+        return None
+    at = entry.statement.find(_NOT_FOUND)
+    if at < 0:
+        return None
+    rest = entry.statement[at + len(_NOT_FOUND) :].strip()
+    end = rest.find(").")
+    return rest if end < 0 else rest[: end + 1]
 
 
 def covered_quantities() -> tuple[tuple[str, str], ...]:

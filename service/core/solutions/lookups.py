@@ -35,6 +35,8 @@ from service.core.validation import finite_array
 
 __all__ = [
     "SEAWATER_SOURCE",
+    "SOLUTION_SOURCES",
+    "SOLUTION_UNCERTAINTIES",
     "FreezeConcentrationLimit",
     "IceFractionStates",
     "ice_fraction_lookup",
@@ -50,6 +52,7 @@ SEAWATER_SOURCE: Final = PropertySource(
         "Saline part of the Gibbs function of seawater (TEOS-10), 0-120 g/kg: freezing "
         "temperature, brine salinity, water activity and enthalpy of seawater."
     ),
+    source_id="iapws-08-seawater",
 )
 
 _PITZER_SOURCE: Final = PropertySource(
@@ -61,6 +64,7 @@ _PITZER_SOURCE: Final = PropertySource(
         "electrolytes 8: high-temperature properties of NaCl(aq) (J. Phys. Chem. 81, 1822)"
     ),
     scope="Water activity of aqueous sodium chloride to the ice-hydrohalite eutectic.",
+    source_id="pitzer-sodium-chloride",
 )
 
 _NORRISH_SOURCE: Final = PropertySource(
@@ -73,6 +77,7 @@ _NORRISH_SOURCE: Final = PropertySource(
         "sugars and polyols (J. Food Technol. 15, 59)"
     ),
     scope="Water activity of aqueous sugars and polyols.",
+    source_id="norrish-sugars-polyols",
 )
 
 _IDEAL_SOURCE: Final = PropertySource(
@@ -81,6 +86,7 @@ _IDEAL_SOURCE: Final = PropertySource(
     year=1887,
     title="Ideal-solution water activity a_w = x_w with a van 't Hoff factor",
     scope="Water activity of a solution without activity coefficients (comparison model).",
+    source_id="ideal-solution",
 )
 
 _FOOD_SOURCE: Final = PropertySource(
@@ -93,7 +99,84 @@ _FOOD_SOURCE: Final = PropertySource(
         "initial freezing point, one ideal effective solute (as in ASHRAE Handbook - "
         "Refrigeration (2010), ch. 19; from memory)."
     ),
+    source_id="schwartzberg-food-freezing",
 )
+
+FOOD_ICE_FRACTION_UNCERTAINTY: Final = ReportedUncertainty(
+    quantity="ice_fraction",
+    relative=None,
+    coverage="as compared",
+    statement=(
+        "As good as the initial freezing point given: 0.1 K in it moves the ice "
+        "fraction at -10 degC by about 1 % of the freezable water. The exact "
+        "IAPWS ice equilibrium agrees with Schwartzberg's closed form within "
+        "1.2 % to -30 degC (tests); no comparison with measured foods was made."
+    ),
+    source="tests/core/solutions/test_foods.py",
+    basis="comparison",
+    statement_id="schwartzberg-food-freezing.ice-fraction",
+    coverage_factor=None,
+)
+SEAWATER_FREEZING_POINT_UNCERTAINTY: Final = ReportedUncertainty(
+    quantity="freezing_point",
+    relative=None,
+    coverage="as compared",
+    statement=(
+        "Agrees with TEOS-10's gsw library (IAPWS-09 water) within 0.1 mK from 0 "
+        "to 120 g/kg; the release's own uncertainty of freezing temperatures is "
+        "a few mK (R13-08, from memory)."
+    ),
+    source="IAPWS R13-08; gsw 3.6 comparison in the tests",
+    basis="comparison",
+    statement_id="iapws-08-seawater.freezing-point",
+    coverage_factor=None,
+)
+SOLUTE_FREEZING_POINT_UNCERTAINTY: Final = ReportedUncertainty(
+    quantity="freezing_point",
+    relative=None,
+    coverage="as compared",
+    statement=(
+        "Compared with handbook freezing-point tables (CRC Handbook, "
+        "Concentrative properties of aqueous solutions; ASHRAE Fundamentals, "
+        "secondary coolants; values from memory): sodium chloride within 0.05 K "
+        "to 5 %, 0.15 K to 15 %, 0.6 K at the eutectic; sucrose 0.2 K to 50 %; "
+        "glucose and fructose 0.05 K to 10 %, 0.5 K at 30 %; glycerol 0.05 K "
+        "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %."
+    ),
+    source="tests/reference/test_aqueous_freezing_points.py",
+    basis="comparison",
+    statement_id="solutions.named-solute-freezing-point",
+    coverage_factor=None,
+)
+IDEAL_FREEZING_POINT_UNCERTAINTY: Final = ReportedUncertainty(
+    quantity="freezing_point",
+    relative=None,
+    coverage="as compared",
+    statement=(
+        "The ideal solution has no activity coefficient: for sodium chloride "
+        "its onset is about 0.18 K too deep at 3.5 %, and the error grows with "
+        "concentration."
+    ),
+    source="tests/reference/test_aqueous_freezing_points.py",
+    basis="comparison",
+    statement_id="ideal-solution.freezing-point",
+    coverage_factor=None,
+)
+SOLUTION_SOURCES: Final[tuple[PropertySource, ...]] = (
+    SEAWATER_SOURCE,
+    _PITZER_SOURCE,
+    _NORRISH_SOURCE,
+    _IDEAL_SOURCE,
+    _FOOD_SOURCE,
+)
+"""Every source the solution models cite, for the registry of citable statements."""
+SOLUTION_UNCERTAINTIES: Final[tuple[ReportedUncertainty, ...]] = (
+    FOOD_ICE_FRACTION_UNCERTAINTY,
+    SEAWATER_FREEZING_POINT_UNCERTAINTY,
+    SOLUTE_FREEZING_POINT_UNCERTAINTY,
+    IDEAL_FREEZING_POINT_UNCERTAINTY,
+)
+"""The uncertainty statements the ice-fraction lookup can cite."""
 
 _FOOD_ASSUMPTIONS: Final = (
     "Food: bound water (0.4 kg per kg of protein) never freezes and counts as liquid water "
@@ -279,21 +362,7 @@ def ice_fraction_lookup(
             sources.MELTING_AND_SUBLIMATION,
         )
         assumptions: tuple[str, ...] = (*_ASSUMPTIONS, *_FOOD_ASSUMPTIONS)
-        uncertainties = [
-            ReportedUncertainty(
-                quantity="ice_fraction",
-                relative=None,
-                coverage="as compared",
-                statement=(
-                    "As good as the initial freezing point given: 0.1 K in it moves the ice "
-                    "fraction at -10 degC by about 1 % of the freezable water. The exact "
-                    "IAPWS ice equilibrium agrees with Schwartzberg's closed form within "
-                    "1.2 % to -30 degC (tests); no comparison with measured foods was made."
-                ),
-                source="tests/core/solutions/test_foods.py",
-                basis="comparison",
-            )
-        ]
+        uncertainties = [FOOD_ICE_FRACTION_UNCERTAINTY]
     elif absolute_salinity is not None:
         sea = seawater_freezing(absolute_salinity, t, pressure)
         ice, water = (
@@ -310,20 +379,7 @@ def ice_fraction_lookup(
             sources.MELTING_AND_SUBLIMATION,
         )
         assumptions = (*_ASSUMPTIONS, *_SEAWATER_ASSUMPTIONS)
-        uncertainties = [
-            ReportedUncertainty(
-                quantity="freezing_point",
-                relative=None,
-                coverage="as compared",
-                statement=(
-                    "Agrees with TEOS-10's gsw library (IAPWS-09 water) within 0.1 mK from 0 "
-                    "to 120 g/kg; the release's own uncertainty of freezing temperatures is "
-                    "a few mK (R13-08, from memory)."
-                ),
-                source="IAPWS R13-08; gsw 3.6 comparison in the tests",
-                basis="comparison",
-            )
-        ]
+        uncertainties = [SEAWATER_FREEZING_POINT_UNCERTAINTY]
     else:
         assert solute_name is not None
         if solute_name == "seawater":
@@ -345,25 +401,9 @@ def ice_fraction_lookup(
         used = (*used, sources.MELTING_AND_SUBLIMATION)
         assumptions = _ASSUMPTIONS
         uncertainties = [
-            ReportedUncertainty(
-                quantity="freezing_point",
-                relative=None,
-                coverage="as compared",
-                statement=(
-                    "Compared with handbook freezing-point tables (CRC Handbook, "
-                    "Concentrative properties of aqueous solutions; ASHRAE Fundamentals, "
-                    "secondary coolants; values from memory): sodium chloride within 0.05 K "
-                    "to 5 %, 0.15 K to 15 %, 0.6 K at the eutectic; sucrose 0.2 K to 50 %; "
-                    "glucose and fructose 0.05 K to 10 %, 0.5 K at 30 %; glycerol 0.05 K "
-                    "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %."
-                    if chosen.model != "ideal"
-                    else "The ideal solution has no activity coefficient: for sodium chloride "
-                    "its onset is about 0.18 K too deep at 3.5 %, and the error grows with "
-                    "concentration."
-                ),
-                source="tests/reference/test_aqueous_freezing_points.py",
-                basis="comparison",
-            )
+            SOLUTE_FREEZING_POINT_UNCERTAINTY
+            if chosen.model != "ideal"
+            else IDEAL_FREEZING_POINT_UNCERTAINTY
         ]
         glass = FREEZE_CONCENTRATION_DATA.get(chosen.name)
         if glass is not None:

@@ -8,14 +8,13 @@ outside the project; each names its source beside the case.
 
 from __future__ import annotations
 
-import csv
-import io
 import json
 import math
 from typing import Any
 
 import numpy as np
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 from iapws import IAPWS95
 from iapws._iapws import _Ice
@@ -198,8 +197,9 @@ def test_flash_freeze_every_option(client: TestClient) -> None:
     assert any("borosilicate" in item for item in body["assumptions"])
     assert {w["code"] for w in body["warnings"]} >= {"metastable"}
     # the supercooled stage has no uncertainty statement: the derived entry says so
-    derived = [u for u in body["uncertainty"] if u["basis"] == "derived" and u["absolute"]]
-    assert "supercooled cooling" in derived[0]["statement"]
+    derived = [u for u in body["uncertainty"] if u["basis"] == "derived" and u.get("absolute")]
+    assert derived[0]["statement_id"] == "balances.evaporated-mass"
+    assert derived[0]["not_covered"] == ["supercooled cooling"]
 
 
 def test_flash_freeze_heat_gain_as_power_equals_energy(client: TestClient) -> None:
@@ -564,8 +564,13 @@ def test_csv_one_case_per_row(client: TestClient) -> None:
         EVAPORATIVE, content=text, headers={"content-type": "text/csv", "accept": "text/csv"}
     )
     assert response.status_code == 200, response.text
-    rows = list(csv.DictReader(io.StringIO(response.text)))
+    answer = read_csv_answer(response.text)
+    rows = answer.rows
     assert len(rows) == 2
+    # Statements the rows share are stated once, above the table; ids differ per row.
+    assert answer.statements["reference_state"] == "iapws-triple-point-liquid"
+    assert len({row["meta.calculation_id"] for row in rows}) == 2
+    assert not any(name.startswith("property_sources") for name in answer.header)
     single = _post(client, EVAPORATIVE, LETTUCE)
     assert float(rows[0]["evaporated_mass[kg]"]) == pytest.approx(
         single["evaporated_mass"]["value"], rel=1e-12

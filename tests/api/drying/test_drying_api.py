@@ -73,8 +73,8 @@ def test_run_answers_series_events_drying_time_and_envelope(client: TestClient) 
     assert series["dried_layer_thickness"]["values"][-1] == pytest.approx(3.0 / 0.35, rel=1e-9)
     assert abs(body["ice_balance"]["relative_residual"]["value"]) < 1e-8
     assert body["equipment_rate_limit"]["unit"] == "kg/h"
-    formulations = {source["formulation"] for source in body["property_sources"]}
-    assert {"IAPWS-95"} <= formulations and len(formulations) == 3
+    formulations = {source["id"] for source in body["property_sources"]}
+    assert {"iapws-95"} <= formulations and len(formulations) == 3
     assert any("Pikal" in reference for reference in body["model_references"])
     assert any("Quasi-steady" in text for text in body["assumptions"])
     quantities = {item["quantity"] for item in body["uncertainty"]}

@@ -30,12 +30,16 @@ PHASE_KEYS = {
 
 def _check_envelope(body: dict[str, Any]) -> None:
     assert body.keys() >= ENVELOPE_KEYS
-    assert "triple point" in body["reference_state"]
+    # Compact by default: the reference state and sources by id, resolved by /v1/sources.
+    assert body["reference_state"] == "iapws-triple-point-liquid"
     assert body["property_sources"], "every answer names its formulations"
     for source in body["property_sources"]:
         assert source["release"].startswith("IAPWS")
+        assert source["id"].startswith("iapws-")
+    assert body["meta"]["detail"] == "compact"
+    assert body["meta"]["statements"].startswith("/v1/sources?version=")
     # A lookup is not stored: no calculation id that would lead nowhere; its request id.
-    assert body["meta"]["calculation_id"] is None
+    assert "calculation_id" not in body["meta"]
     assert body["meta"]["request_id"]
     assert body["meta"]["service_version"]
 
@@ -88,7 +92,39 @@ def test_saturation_get_with_celsius(client: TestClient) -> None:
     assert body["liquid"].keys() == PHASE_KEYS
     assert body["vapor"].keys() == PHASE_KEYS
     assert body["latent_heat_of_vaporization"]["value"] == pytest.approx(2_256_400, rel=1e-4)
-    assert body["property_sources"][0]["formulation"] == "IAPWS-95"
+    assert body["property_sources"][0]["id"] == "iapws-95"
+
+
+def test_saturation_full_detail_spells_the_statements_out(client: TestClient) -> None:
+    full = client.get(
+        "/v1/properties/saturation", params={"temperature": "100 degC", "detail": "full"}
+    ).json()
+    assert "triple point" in full["reference_state"]
+    assert full["property_sources"][0]["formulation"] == "IAPWS-95"
+    assert "Formulation 1995" in full["property_sources"][0]["title"]
+    pressure = next(item for item in full["uncertainty"] if item["quantity"] == "pressure")
+    assert pressure["statement_id"] == "iapws-95.saturation-pressure"
+    assert "0.025 %" in pressure["statement"]
+    assert pressure["source"].startswith("IAPWS R6-95(2018)")
+    assert full["meta"]["detail"] == "full"
+    compact = client.get("/v1/properties/saturation", params={"temperature": "100 degC"}).json()
+    assert compact["pressure"] == full["pressure"], "the detail changes the texts only"
+    assert {item["statement_id"]: item["relative"] for item in compact["uncertainty"]} == {
+        item["statement_id"]: item["relative"] for item in full["uncertainty"]
+    }
+    assert "statement" not in compact["uncertainty"][0]
+
+
+def test_detail_outside_the_choices_is_a_422(client: TestClient) -> None:
+    response = client.get(
+        "/v1/properties/saturation", params={"temperature": "20 degC", "detail": "verbose"}
+    )
+    assert response.status_code == 422
+    assert response.json()["errors"][0]["field"] == "detail"
+    posted = client.post(
+        "/v1/properties/saturation?detail=verbose", json={"temperature": "20 degC"}
+    )
+    assert posted.status_code == 422
 
 
 def test_saturation_by_pressure_engineering_units(client: TestClient) -> None:
@@ -141,7 +177,7 @@ def test_saturation_if97_named_in_sources(client: TestClient) -> None:
     body = client.get(
         "/v1/properties/saturation", params={"temperature": "300", "formulation": "IAPWS-IF97"}
     ).json()
-    assert body["property_sources"][0]["formulation"] == "IAPWS-IF97"
+    assert body["property_sources"][0]["id"] == "iapws-if97"
     # IAPWS R7-97(2012) Table 35: p_s(300 K) = 0.353658941e-2 MPa.
     assert body["pressure"]["value"] == pytest.approx(3536.58941, rel=1e-8)
 
@@ -152,8 +188,8 @@ def test_sublimation_get(client: TestClient) -> None:
     body = response.json()
     _check_envelope(body)
     assert body["ice"].keys() == PHASE_KEYS
-    formulations = {source["formulation"] for source in body["property_sources"]}
-    assert "IAPWS-95" in formulations and len(formulations) == 3
+    formulations = {source["id"] for source in body["property_sources"]}
+    assert "iapws-95" in formulations and len(formulations) == 3
     # Ice vapor pressure at -20 degC about 103.2 Pa (IAPWS R14-08 eq. 6; from memory).
     assert body["pressure"]["value"] == pytest.approx(103.24, rel=2e-3)
 

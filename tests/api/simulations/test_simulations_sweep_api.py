@@ -7,12 +7,11 @@ tolerances), whether the pool or the request thread computes them.
 from __future__ import annotations
 
 import copy
-import csv
-import io
 from collections.abc import Iterator
 from typing import Any
 
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 
 from service.api.app import create_app
@@ -89,7 +88,7 @@ def test_sweep_as_csv_has_one_row_per_case(client: TestClient) -> None:
     response = client.post(PATH, json=_sweep(), headers={"Accept": "text/csv"})
     assert response.status_code == 200, response.text
     assert response.headers["content-type"].startswith("text/csv")
-    rows = list(csv.DictReader(io.StringIO(response.text)))
+    rows = read_csv_answer(response.text).rows
     assert len(rows) == 3
     assert [float(row["inputs.pump.nominal_speed[m3/s]"]) for row in rows] == pytest.approx(
         [speed / 3600.0 for speed in SPEEDS]

@@ -6,6 +6,7 @@ from typing import Any
 
 import gsw
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 
 URL = "/v1/properties/ice-fraction"
@@ -94,9 +95,13 @@ def test_csv_batch(client: TestClient) -> None:
         URL, content=body, headers={"content-type": "text/csv", "accept": "text/csv"}
     )
     assert response.status_code == 200, response.text
-    lines = response.text.strip().splitlines()
-    assert len(lines) == 3
-    assert any(name.startswith("ice_fraction") for name in lines[0].split(","))
+    answer = read_csv_answer(response.text)
+    assert len(answer.rows) == 2
+    assert any(name.startswith("ice_fraction") for name in answer.header)
+    # The batch's statements are stated once, above the table, not on each row.
+    assert answer.statements["property_sources"][0]["id"] == "iapws-08-seawater"
+    assert answer.statements["uncertainty"][0]["statement_id"] == "iapws-08-seawater.freezing-point"
+    assert not any(name.startswith(("uncertainty", "meta")) for name in answer.header)
 
 
 @pytest.mark.parametrize(

@@ -196,6 +196,7 @@ _GOOD_RELEASE_TEXT = StatedUncertainty(
     "Vapor pressure: 0.025 %.",
     "IAPWS R6-95(2018), Section 6",
     "release text",
+    statement_id="iapws-95.saturation-pressure",
 )
 
 

@@ -1,0 +1,1 @@
+"""/v1/sources: every statement an answer cites, by id, in one versioned document."""
