@@ -12,7 +12,7 @@ import binascii
 import contextlib
 import threading
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
@@ -26,6 +26,7 @@ from sqlalchemy import (
     create_engine,
     delete,
     event,
+    exists,
     insert,
     or_,
     select,
@@ -33,9 +34,16 @@ from sqlalchemy import (
 )
 from sqlalchemy.engine import make_url
 from sqlalchemy.exc import SQLAlchemyError
+from sqlalchemy.schema import CreateColumn
 from sqlalchemy.sql.elements import ColumnElement
 
-from service.records.tables import SCHEMA_VERSION, calculations, metadata, schema_version
+from service.records.tables import (
+    SCHEMA_VERSION,
+    calculation_tags,
+    calculations,
+    metadata,
+    schema_version,
+)
 
 __all__ = [
     "CalculationRecord",
@@ -52,8 +60,30 @@ JsonObject = dict[str, Any]
 _POSTGRESQL_SCHEMA_LOCK = 7_311_502_170
 """Advisory-lock number held while one replica creates or migrates the tables."""
 
-_MIGRATIONS: dict[int, Callable[[Connection], None]] = {}
-"""Step ``n`` takes a database from version ``n - 1`` to ``n``; none yet (version 1)."""
+
+def _table_name(connection: Connection) -> str:
+    """The calculations table's quoted name, in the schema the store is kept in."""
+    preparer = connection.dialect.identifier_preparer
+    translate = connection.get_execution_options().get("schema_translate_map") or {}
+    schema = translate.get(None)
+    name = preparer.quote(calculations.name)
+    return f"{preparer.quote_schema(schema)}.{name}" if schema else name
+
+
+def _add_labels_and_headline(connection: Connection) -> None:
+    """Version 2: the ``label``, ``tags`` and ``headline`` columns (null in older records)
+    and the label index. The tag table is new, so ``create_all`` has made it already."""
+    table = _table_name(connection)
+    for column in (calculations.c.label, calculations.c.tags, calculations.c.headline):
+        definition = CreateColumn(column).compile(dialect=connection.dialect)
+        connection.execute(text(f"ALTER TABLE {table} ADD COLUMN {definition}"))
+    for index in calculations.indexes:
+        if index.name == "ix_tripoint_calculations_label_created_at":
+            index.create(connection)
+
+
+_MIGRATIONS: dict[int, Callable[[Connection], None]] = {2: _add_labels_and_headline}
+"""Step ``n`` takes a database from version ``n - 1`` to ``n``."""
 
 _SUMMARY_COLUMNS = (
     calculations.c.calculation_id,
@@ -61,6 +91,9 @@ _SUMMARY_COLUMNS = (
     calculations.c.created_at,
     calculations.c.service_version,
     calculations.c.key_id,
+    calculations.c.label,
+    calculations.c.tags,
+    calculations.c.headline,
 )
 
 
@@ -85,6 +118,9 @@ class RecordSummary:
     created_at: datetime
     service_version: str
     key_id: str | None
+    label: str | None = None
+    tags: tuple[str, ...] = ()
+    headline: JsonObject | None = None
 
 
 @dataclass(frozen=True)
@@ -93,7 +129,10 @@ class CalculationRecord:
 
     ``formulations`` lists the property formulations used, each as
     ``{"formulation": ..., "release": ...}``. ``key_id`` is a digest of the API key (never the
-    key), or None when keys are off.
+    key), or None when keys are off. ``label`` and ``tags`` are the client's own names for
+    the record (checked by the HTTP layer; tags are kept in their order, without repeats);
+    ``headline`` a few key numbers of the result that a listing shows. Records written
+    before schema version 2 have none of these three.
     """
 
     calculation_id: str
@@ -104,11 +143,21 @@ class CalculationRecord:
     service_version: str
     formulations: list[JsonObject]
     key_id: str | None
+    label: str | None = None
+    tags: tuple[str, ...] = ()
+    headline: JsonObject | None = None
 
     def summary(self) -> RecordSummary:
         """The listing view of this record."""
         return RecordSummary(
-            self.calculation_id, self.kind, self.created_at, self.service_version, self.key_id
+            self.calculation_id,
+            self.kind,
+            self.created_at,
+            self.service_version,
+            self.key_id,
+            self.label,
+            self.tags,
+            self.headline,
         )
 
 
@@ -118,6 +167,11 @@ class RecordPage:
 
     items: list[RecordSummary]
     next_cursor: str | None
+
+
+def _tags_of(value: Any) -> tuple[str, ...]:
+    """The tags column as read: a list, or null in a record written before version 2."""
+    return tuple(str(tag) for tag in value) if isinstance(value, list) else ()
 
 
 def _json_text(value: Any) -> str:
@@ -261,7 +315,9 @@ class RecordStore:
                     f"the record tables are at schema version {version}, newer than this "
                     f"service's {SCHEMA_VERSION}; upgrade the service"
                 )
-            for step in range(version + 1, SCHEMA_VERSION + 1):
+            # Tables that create_all has just made (version 0) are at SCHEMA_VERSION already.
+            first = SCHEMA_VERSION + 1 if version == 0 else version + 1
+            for step in range(first, SCHEMA_VERSION + 1):
                 migrate = _MIGRATIONS.get(step)
                 if migrate is not None:
                     migrate(connection)
@@ -313,10 +369,19 @@ class RecordStore:
             "service_version": record.service_version,
             "formulations": record.formulations,
             "key_id": record.key_id,
+            "label": record.label,
+            "tags": list(dict.fromkeys(record.tags)),
+            "headline": record.headline,
         }
+        tags = [
+            {"calculation_id": record.calculation_id, "tag": tag}
+            for tag in dict.fromkeys(record.tags)
+        ]
         try:
             with self._writes, self._engine.begin() as connection:
                 connection.execute(insert(calculations).values(**row))
+                if tags:
+                    connection.execute(insert(calculation_tags), tags)
         except SQLAlchemyError as error:
             raise StoreUnavailableError(_describe(error)) from None
 
@@ -345,6 +410,9 @@ class RecordStore:
             service_version=row["service_version"],
             formulations=row["formulations"],
             key_id=row["key_id"],
+            label=row["label"],
+            tags=_tags_of(row["tags"]),
+            headline=row["headline"],
         )
 
     def list_records(
@@ -352,6 +420,8 @@ class RecordStore:
         *,
         kind: str | None = None,
         key_id: str | None = None,
+        label: str | None = None,
+        tags: Sequence[str] = (),
         since: datetime | None = None,
         until: datetime | None = None,
         limit: int = 100,
@@ -361,8 +431,11 @@ class RecordStore:
 
         Parameters
         ----------
-        kind, key_id
-            Keep only records of this kind / made with this key id.
+        kind, key_id, label
+            Keep only records of this kind / made with this key id / with this label
+            (exactly).
+        tags
+            Keep only records carrying every one of these tags.
         since, until
             Keep records created at or after ``since`` and before ``until`` (aware datetimes).
         limit
@@ -383,6 +456,15 @@ class RecordStore:
             conditions.append(calculations.c.kind == kind)
         if key_id is not None:
             conditions.append(calculations.c.key_id == key_id)
+        if label is not None:
+            conditions.append(calculations.c.label == label)
+        for tag in dict.fromkeys(tags):
+            conditions.append(
+                exists().where(
+                    calculation_tags.c.calculation_id == calculations.c.calculation_id,
+                    calculation_tags.c.tag == tag,
+                )
+            )
         if since is not None:
             conditions.append(calculations.c.created_at >= since)
         if until is not None:
@@ -417,6 +499,9 @@ class RecordStore:
                 row["created_at"],
                 row["service_version"],
                 row["key_id"],
+                row["label"],
+                _tags_of(row["tags"]),
+                row["headline"],
             )
             for row in rows[:limit]
         ]
@@ -431,6 +516,12 @@ class RecordStore:
         self.ensure_schema()
         try:
             with self._writes, self._engine.begin() as connection:
+                expired = select(calculations.c.calculation_id).where(
+                    calculations.c.created_at < older_than
+                )
+                connection.execute(
+                    delete(calculation_tags).where(calculation_tags.c.calculation_id.in_(expired))
+                )
                 result = connection.execute(
                     delete(calculations).where(calculations.c.created_at < older_than)
                 )
