@@ -13,6 +13,7 @@ from collections.abc import Iterator
 from concurrent.futures import ThreadPoolExecutor
 from datetime import UTC, datetime, timedelta
 from pathlib import Path
+from typing import Any
 
 import pytest
 from operations_support import POSTGRES_URL, postgres_schema
@@ -68,7 +69,7 @@ def _record(
     key_id: str | None = "0123456789ab",
     label: str | None = None,
     tags: tuple[str, ...] = (),
-    headline: dict[str, object] | None = None,
+    headline: dict[str, Any] | None = None,
 ) -> CalculationRecord:
     return CalculationRecord(
         calculation_id=str(uuid.uuid4()),

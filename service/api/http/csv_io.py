@@ -53,10 +53,12 @@ from service.core.deadline import set_deadline
 
 __all__ = [
     "CSV_MEDIA_TYPE",
+    "CSV_RESPONSE_TYPE",
     "CsvAdapter",
     "CsvError",
     "CsvRoute",
     "CsvTable",
+    "answer_csv",
     "document_csv",
     "flatten_answers",
     "parse_csv",
@@ -65,7 +67,9 @@ __all__ = [
 ]
 
 CSV_MEDIA_TYPE = "text/csv"
-_CSV_RESPONSE_TYPE = "text/csv; charset=utf-8; header=present"
+CSV_RESPONSE_TYPE = "text/csv; charset=utf-8; header=present"
+"""Content type of every CSV answer."""
+_CSV_RESPONSE_TYPE = CSV_RESPONSE_TYPE
 _HEADER = re.compile(
     r"^(?P<path>[A-Za-z_][A-Za-z0-9_]*(?:\.[A-Za-z_][A-Za-z0-9_]*)*)\s*(?:\[(?P<unit>[^\]]*)\])?$"
 )
@@ -429,6 +433,12 @@ def flatten_answers(answers: Sequence[dict[str, Any]]) -> tuple[list[str], list[
 
 def _table_bytes(answers: list[dict[str, Any]]) -> bytes:
     return render_csv(*flatten_answers(answers))
+
+
+def answer_csv(answer: dict[str, Any], part: str | None = None) -> bytes:
+    """One JSON answer as the CSV its route answers for ``Accept: text/csv`` (only its
+    ``part`` member when the route's :attr:`CsvRoute.answer_part` names one)."""
+    return _table_bytes([answer if part is None else _part_of(answer, part)])
 
 
 def render_csv(header: Sequence[str], rows: Sequence[Sequence[str]]) -> bytes:
