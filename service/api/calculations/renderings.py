@@ -13,9 +13,11 @@ from dataclasses import dataclass
 from typing import Any, Final
 
 from service.api.calculations.schemas import RecordKind
+from service.api.drying.plots import plot_stored_design_space, plot_stored_primary_drying
 from service.api.http.csv_io import CSV_MEDIA_TYPE, answer_csv
 from service.api.http.negotiation import JSON_MEDIA_TYPE
 from service.api.simulations.plots import PLOT_MEDIA_TYPES, PlotFormat, plot_stored_simulation
+from service.api.sizing.plots import plot_stored_design_curve
 from service.records import CalculationRecord
 
 __all__ = ["Rendering", "media_types_of", "render"]
@@ -46,14 +48,21 @@ _RENDERINGS: Final[dict[RecordKind, Rendering]] = {
     RecordKind.VACUUM_CHAMBER: Rendering(csv=True, csv_part="series", plot=_simulation_plot),
     # A sweep has no series: its CSV is the whole answer, one row per case; no plot.
     RecordKind.VACUUM_CHAMBER_SWEEP: Rendering(csv=True, csv_part="series"),
-    RecordKind.PRIMARY_DRYING: Rendering(csv=True, csv_part="series"),
-    RecordKind.PRIMARY_DRYING_DESIGN_SPACE: Rendering(csv=True, csv_part="cells"),
+    RecordKind.PRIMARY_DRYING: Rendering(
+        csv=True, csv_part="series", plot=plot_stored_primary_drying
+    ),
+    RecordKind.PRIMARY_DRYING_DESIGN_SPACE: Rendering(
+        csv=True, csv_part="cells", plot=plot_stored_design_space
+    ),
+    # The calibration plot draws the fitted model's whole run, which its answer does not
+    # hold (only the fitted values at the readings): JSON only.
     RecordKind.VACUUM_CHAMBER_CALIBRATION: Rendering(),
-    RecordKind.VACUUM_CHAMBER_SIZING: Rendering(),
+    RecordKind.VACUUM_CHAMBER_SIZING: Rendering(plot=plot_stored_design_curve),
 }
 """Per kind, as its route: the balances, simulations and design spaces speak CSV
-(``CSV_ROUTES``); the plots drawn again from a stored answer so far are the chamber
-simulation's."""
+(``CSV_ROUTES``); the chamber simulation, the primary-drying run and design space and the
+sizing draw their plots again from the stored answer (and, for the critical temperature,
+target time or field unit, the stored request)."""
 
 ALL_MEDIA_TYPES: Final = (JSON_MEDIA_TYPE, CSV_MEDIA_TYPE, *PLOT_MEDIA_TYPES.values())
 """Every media type a stored record may be answered in, JSON first."""

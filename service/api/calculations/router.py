@@ -120,9 +120,10 @@ _STORED_RESPONSES: dict[int | str, dict[str, Any]] = {
         "description": "The record as JSON by default. By `Accept`, the stored answer as its "
         "route answered it: `text/csv` for the balances, simulations and design spaces (the "
         "same columns the route sent), a plot (`image/svg+xml`, `image/png`) for a chamber "
-        "simulation, drawn again from the stored numbers; `X-Calculation-ID` names the "
-        "record. A type the record's kind was never answered in is a 406 naming the types "
-        "it has.",
+        "simulation, a primary-drying run or design space and a sizing, drawn again from the "
+        "stored numbers; `X-Calculation-ID` names the record. A type the record's kind was "
+        "never answered in (a plot of a balance or sweep; CSV or a plot of a calibration) "
+        "is a 406 naming the types it has.",
         "content": {
             CSV_MEDIA_TYPE: {"schema": {"type": "string"}},
             "image/svg+xml": {"schema": {"type": "string"}},

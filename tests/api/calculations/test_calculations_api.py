@@ -56,6 +56,18 @@ def test_record_carries_the_key_id_never_the_key(tmp_path: Path) -> None:
     assert KEY.encode() not in database
 
 
+def test_record_of_a_kind_this_version_does_not_type_is_json_only(tmp_path: Path) -> None:
+    with running_client(tmp_path) as client:
+        answer = _recorded(client, {"temperature": 300.0})
+        address = f"/v1/calculations/{answer['meta']['calculation_id']}"
+        as_json = client.get(address)
+        as_csv = client.get(address, headers={"Accept": "text/csv"})
+    assert as_json.status_code == 200
+    assert as_json.json()["kind"] == "testing.recorded"
+    assert as_csv.status_code == 406
+    assert "testing.recorded" in as_csv.json()["detail"]
+
+
 def test_unknown_calculation_is_404(tmp_path: Path) -> None:
     with running_client(tmp_path) as client:
         response = client.get("/v1/calculations/00000000-0000-0000-0000-000000000000")
