@@ -28,6 +28,7 @@ from sqlalchemy import (
     event,
     exists,
     insert,
+    inspect,
     or_,
     select,
     text,
@@ -61,25 +62,35 @@ _POSTGRESQL_SCHEMA_LOCK = 7_311_502_170
 """Advisory-lock number held while one replica creates or migrates the tables."""
 
 
-def _table_name(connection: Connection) -> str:
-    """The calculations table's quoted name, in the schema the store is kept in."""
-    preparer = connection.dialect.identifier_preparer
+def _schema_of(connection: Connection) -> str | None:
+    """The schema the store's tables are kept in (None: the default search path)."""
     translate = connection.get_execution_options().get("schema_translate_map") or {}
-    schema = translate.get(None)
-    name = preparer.quote(calculations.name)
-    return f"{preparer.quote_schema(schema)}.{name}" if schema else name
+    schema: str | None = translate.get(None)
+    return schema
 
 
 def _add_labels_and_headline(connection: Connection) -> None:
     """Version 2: the ``label``, ``tags`` and ``headline`` columns (null in older records)
-    and the label index. The tag table is new, so ``create_all`` has made it already."""
-    table = _table_name(connection)
+    and the label index. The tag table is new, so ``create_all`` has made it already.
+
+    Each part is added only where missing: SQLite runs DDL outside the transaction, so a
+    start stopped half-way leaves some of them in place for the next start to complete.
+    """
+    schema = _schema_of(connection)
+    preparer = connection.dialect.identifier_preparer
+    table = preparer.quote(calculations.name)
+    if schema:
+        table = f"{preparer.quote_schema(schema)}.{table}"
+    present = {
+        column["name"] for column in inspect(connection).get_columns(calculations.name, schema)
+    }
     for column in (calculations.c.label, calculations.c.tags, calculations.c.headline):
-        definition = CreateColumn(column).compile(dialect=connection.dialect)
-        connection.execute(text(f"ALTER TABLE {table} ADD COLUMN {definition}"))
+        if column.name not in present:
+            definition = CreateColumn(column).compile(dialect=connection.dialect)
+            connection.execute(text(f"ALTER TABLE {table} ADD COLUMN {definition}"))
     for index in calculations.indexes:
         if index.name == "ix_tripoint_calculations_label_created_at":
-            index.create(connection)
+            index.create(connection, checkfirst=True)
 
 
 _MIGRATIONS: dict[int, Callable[[Connection], None]] = {2: _add_labels_and_headline}

@@ -405,3 +405,27 @@ def test_version_1_database_is_upgraded_in_place(version_1_target: tuple[str, st
     finally:
         upgraded.drop_tables()
         upgraded.close()
+
+
+def test_upgrade_stopped_half_way_on_sqlite_is_completed(tmp_path: Path) -> None:
+    # SQLite runs DDL outside the transaction: a start that stopped after adding one column
+    # leaves version 1 with that column; the next start adds the rest.
+    url = f"sqlite:///{tmp_path / 'half.sqlite3'}"
+    engine = create_engine(url)
+    old = _version_1_tables()
+    with engine.begin() as connection:
+        old.create_all(connection)
+        connection.execute(insert(old.tables["tripoint_schema_version"]).values(version=1))
+        connection.exec_driver_sql(
+            "ALTER TABLE tripoint_calculations ADD COLUMN label VARCHAR(100)"
+        )
+    engine.dispose()
+    upgraded = RecordStore(url)
+    try:
+        upgraded.ensure_schema()
+        assert upgraded.schema_version() == SCHEMA_VERSION
+        record = _record(label="complete", tags=("a",), headline={"n": 2})
+        upgraded.add(record)
+        assert upgraded.get(record.calculation_id) == record
+    finally:
+        upgraded.close()
