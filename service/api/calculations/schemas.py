@@ -39,6 +39,8 @@ from service.api.simulations.schemas import (
 from service.api.sizing.schemas import VacuumChamberSizingCreate, VacuumChamberSizingPublic
 
 __all__ = [
+    "KIND_DESCRIPTION",
+    "STORED_MODELS",
     "CalculationListPublic",
     "CalculationPublic",
     "CalculationSummaryPublic",
@@ -227,11 +229,3 @@ class CalculationListPublic(ApiModel):
         description="Pass as `cursor` for the next page; null on the last page (the "
         '`Link: <...>; rel="next"` header of the answer holds the whole next-page address).'
     )
-
-
-def stored_kind(value: str) -> RecordKind | None:
-    """The kind of a stored record, or None for one this version does not type."""
-    try:
-        return RecordKind(value)
-    except ValueError:
-        return None

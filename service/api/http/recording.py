@@ -59,6 +59,8 @@ def _headline_entry(node: Any) -> tuple[bool, Any]:
     """(kept, value) of one headline candidate: a quantity, a short text, a flag, a count."""
     if isinstance(node, dict) and "unit" in node and ("value" in node or "values" in node):
         values = node.get("values")
+        if values is not None:
+            values = _plain_json(values)  # a batch may still be a numpy array here
         if isinstance(values, list):
             return len(values) <= HEADLINE_VALUES, {"values": values, "unit": node["unit"]}
         return True, {"value": node.get("value"), "unit": node["unit"]}

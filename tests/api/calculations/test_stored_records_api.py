@@ -121,6 +121,14 @@ def test_flash_freeze_headline_is_the_answer_numbers(client: TestClient) -> None
         assert shown == _quantity(answer[name])
 
 
+def test_flash_freeze_sweep_headline_holds_every_case(client: TestClient) -> None:
+    example = _example("flash-freeze-initial-temperature-sweep")
+    answer = _post(client, example).json()
+    headline = _record(client, answer["meta"]["calculation_id"])["headline"]
+    assert headline["final_temperature"] == _quantity(answer["final_temperature"])
+    assert len(headline["final_temperature"]["values"]) > 1
+
+
 def test_simulation_headline_is_its_summary(client: TestClient) -> None:
     example = _example("chamber-bread-rack-vacuum-cooler")
     answer = _post(client, example).json()

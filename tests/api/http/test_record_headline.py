@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+import numpy as np
+
 from service.api.http.recording import HEADLINE_VALUES, headline
 
 _ANSWER = {
@@ -52,3 +54,10 @@ def test_missing_paths_long_batches_and_lists_are_left_out() -> None:
         },
     )
     assert picked == {}
+
+
+def test_a_batch_still_held_as_an_array_is_kept_as_numbers() -> None:
+    answer = {"ice_mass": {"values": np.array([0.25, 0.5]), "unit": "kg"}}
+    assert headline(answer, {"ice_mass": "ice_mass"}) == {
+        "ice_mass": {"values": [0.25, 0.5], "unit": "kg"}
+    }
