@@ -6,13 +6,12 @@ call, imported on first use); the format is chosen by the simulations' negotiati
 
 from __future__ import annotations
 
-import io
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass
 from typing import Any, Protocol
 
 from service.api.http.units import Dimension, number_to_si
-from service.api.simulations.plots import PlotFormat, stored_number
+from service.api.simulations.plots import PlotFormat, figure_bytes, stored_number
 from service.api.sizing.requests import FieldUnit, read_sizing
 from service.api.sizing.schemas import VacuumChamberSizingCreate
 from service.core.sizing import SizingResult
@@ -159,7 +158,4 @@ def plot_design_curve(
     axis.grid(True, which="both", alpha=0.3)
     axis.legend(loc="upper right", fontsize="small")
     figure.suptitle("Sizing: design curve")
-    buffer = io.BytesIO()
-    metadata = {"Date": None} if kind == "svg" else None
-    figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
-    return buffer.getvalue()
+    return figure_bytes(figure, kind)  # as every plot: no date, fixed SVG ids, text as text

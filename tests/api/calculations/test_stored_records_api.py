@@ -218,6 +218,7 @@ _AGAIN = [
     ("primary-drying-design-space-vial-batch", "image/svg+xml"),
     ("primary-drying-design-space-vial-batch", "text/csv"),
     ("sizing-bakery-pump-for-five-minutes", "image/png"),
+    ("sizing-bakery-pump-for-five-minutes", "image/svg+xml"),
 ]
 
 
