@@ -12,7 +12,7 @@ import binascii
 import contextlib
 import threading
 import time
-from collections.abc import Callable
+from collections.abc import Callable, Sequence
 from dataclasses import dataclass
 from datetime import UTC, datetime
 from pathlib import Path
@@ -26,16 +26,25 @@ from sqlalchemy import (
     create_engine,
     delete,
     event,
+    exists,
     insert,
+    inspect,
     or_,
     select,
     text,
 )
 from sqlalchemy.engine import make_url
 from sqlalchemy.exc import SQLAlchemyError
+from sqlalchemy.schema import CreateColumn
 from sqlalchemy.sql.elements import ColumnElement
 
-from service.records.tables import SCHEMA_VERSION, calculations, metadata, schema_version
+from service.records.tables import (
+    SCHEMA_VERSION,
+    calculation_tags,
+    calculations,
+    metadata,
+    schema_version,
+)
 
 __all__ = [
     "CalculationRecord",
@@ -52,8 +61,40 @@ JsonObject = dict[str, Any]
 _POSTGRESQL_SCHEMA_LOCK = 7_311_502_170
 """Advisory-lock number held while one replica creates or migrates the tables."""
 
-_MIGRATIONS: dict[int, Callable[[Connection], None]] = {}
-"""Step ``n`` takes a database from version ``n - 1`` to ``n``; none yet (version 1)."""
+
+def _schema_of(connection: Connection) -> str | None:
+    """The schema the store's tables are kept in (None: the default search path)."""
+    translate = connection.get_execution_options().get("schema_translate_map") or {}
+    schema: str | None = translate.get(None)
+    return schema
+
+
+def _add_labels_and_headline(connection: Connection) -> None:
+    """Version 2: the ``label``, ``tags`` and ``headline`` columns (null in older records)
+    and the label index. The tag table is new, so ``create_all`` has made it already.
+
+    Each part is added only where missing: SQLite runs DDL outside the transaction, so a
+    start stopped half-way leaves some of them in place for the next start to complete.
+    """
+    schema = _schema_of(connection)
+    preparer = connection.dialect.identifier_preparer
+    table = preparer.quote(calculations.name)
+    if schema:
+        table = f"{preparer.quote_schema(schema)}.{table}"
+    present = {
+        column["name"] for column in inspect(connection).get_columns(calculations.name, schema)
+    }
+    for column in (calculations.c.label, calculations.c.tags, calculations.c.headline):
+        if column.name not in present:
+            definition = CreateColumn(column).compile(dialect=connection.dialect)
+            connection.execute(text(f"ALTER TABLE {table} ADD COLUMN {definition}"))
+    for index in calculations.indexes:
+        if index.name == "ix_tripoint_calculations_label_created_at":
+            index.create(connection, checkfirst=True)
+
+
+_MIGRATIONS: dict[int, Callable[[Connection], None]] = {2: _add_labels_and_headline}
+"""Step ``n`` takes a database from version ``n - 1`` to ``n``."""
 
 _SUMMARY_COLUMNS = (
     calculations.c.calculation_id,
@@ -61,6 +102,9 @@ _SUMMARY_COLUMNS = (
     calculations.c.created_at,
     calculations.c.service_version,
     calculations.c.key_id,
+    calculations.c.label,
+    calculations.c.tags,
+    calculations.c.headline,
 )
 
 
@@ -85,6 +129,9 @@ class RecordSummary:
     created_at: datetime
     service_version: str
     key_id: str | None
+    label: str | None = None
+    tags: tuple[str, ...] = ()
+    headline: JsonObject | None = None
 
 
 @dataclass(frozen=True)
@@ -93,7 +140,10 @@ class CalculationRecord:
 
     ``formulations`` lists the property formulations used, each as
     ``{"formulation": ..., "release": ...}``. ``key_id`` is a digest of the API key (never the
-    key), or None when keys are off.
+    key), or None when keys are off. ``label`` and ``tags`` are the client's own names for
+    the record (checked by the HTTP layer; tags are kept in their order, without repeats);
+    ``headline`` a few key numbers of the result that a listing shows. Records written
+    before schema version 2 have none of these three.
     """
 
     calculation_id: str
@@ -104,11 +154,21 @@ class CalculationRecord:
     service_version: str
     formulations: list[JsonObject]
     key_id: str | None
+    label: str | None = None
+    tags: tuple[str, ...] = ()
+    headline: JsonObject | None = None
 
     def summary(self) -> RecordSummary:
         """The listing view of this record."""
         return RecordSummary(
-            self.calculation_id, self.kind, self.created_at, self.service_version, self.key_id
+            self.calculation_id,
+            self.kind,
+            self.created_at,
+            self.service_version,
+            self.key_id,
+            self.label,
+            self.tags,
+            self.headline,
         )
 
 
@@ -118,6 +178,11 @@ class RecordPage:
 
     items: list[RecordSummary]
     next_cursor: str | None
+
+
+def _tags_of(value: Any) -> tuple[str, ...]:
+    """The tags column as read: a list, or null in a record written before version 2."""
+    return tuple(str(tag) for tag in value) if isinstance(value, list) else ()
 
 
 def _json_text(value: Any) -> str:
@@ -261,7 +326,9 @@ class RecordStore:
                     f"the record tables are at schema version {version}, newer than this "
                     f"service's {SCHEMA_VERSION}; upgrade the service"
                 )
-            for step in range(version + 1, SCHEMA_VERSION + 1):
+            # Tables that create_all has just made (version 0) are at SCHEMA_VERSION already.
+            first = SCHEMA_VERSION + 1 if version == 0 else version + 1
+            for step in range(first, SCHEMA_VERSION + 1):
                 migrate = _MIGRATIONS.get(step)
                 if migrate is not None:
                     migrate(connection)
@@ -313,10 +380,19 @@ class RecordStore:
             "service_version": record.service_version,
             "formulations": record.formulations,
             "key_id": record.key_id,
+            "label": record.label,
+            "tags": list(dict.fromkeys(record.tags)),
+            "headline": record.headline,
         }
+        tags = [
+            {"calculation_id": record.calculation_id, "tag": tag}
+            for tag in dict.fromkeys(record.tags)
+        ]
         try:
             with self._writes, self._engine.begin() as connection:
                 connection.execute(insert(calculations).values(**row))
+                if tags:
+                    connection.execute(insert(calculation_tags), tags)
         except SQLAlchemyError as error:
             raise StoreUnavailableError(_describe(error)) from None
 
@@ -345,6 +421,9 @@ class RecordStore:
             service_version=row["service_version"],
             formulations=row["formulations"],
             key_id=row["key_id"],
+            label=row["label"],
+            tags=_tags_of(row["tags"]),
+            headline=row["headline"],
         )
 
     def list_records(
@@ -352,6 +431,8 @@ class RecordStore:
         *,
         kind: str | None = None,
         key_id: str | None = None,
+        label: str | None = None,
+        tags: Sequence[str] = (),
         since: datetime | None = None,
         until: datetime | None = None,
         limit: int = 100,
@@ -361,8 +442,11 @@ class RecordStore:
 
         Parameters
         ----------
-        kind, key_id
-            Keep only records of this kind / made with this key id.
+        kind, key_id, label
+            Keep only records of this kind / made with this key id / with this label
+            (exactly).
+        tags
+            Keep only records carrying every one of these tags.
         since, until
             Keep records created at or after ``since`` and before ``until`` (aware datetimes).
         limit
@@ -383,6 +467,15 @@ class RecordStore:
             conditions.append(calculations.c.kind == kind)
         if key_id is not None:
             conditions.append(calculations.c.key_id == key_id)
+        if label is not None:
+            conditions.append(calculations.c.label == label)
+        for tag in dict.fromkeys(tags):
+            conditions.append(
+                exists().where(
+                    calculation_tags.c.calculation_id == calculations.c.calculation_id,
+                    calculation_tags.c.tag == tag,
+                )
+            )
         if since is not None:
             conditions.append(calculations.c.created_at >= since)
         if until is not None:
@@ -417,6 +510,9 @@ class RecordStore:
                 row["created_at"],
                 row["service_version"],
                 row["key_id"],
+                row["label"],
+                _tags_of(row["tags"]),
+                row["headline"],
             )
             for row in rows[:limit]
         ]
@@ -431,6 +527,12 @@ class RecordStore:
         self.ensure_schema()
         try:
             with self._writes, self._engine.begin() as connection:
+                expired = select(calculations.c.calculation_id).where(
+                    calculations.c.created_at < older_than
+                )
+                connection.execute(
+                    delete(calculation_tags).where(calculation_tags.c.calculation_id.in_(expired))
+                )
                 result = connection.execute(
                     delete(calculations).where(calculations.c.created_at < older_than)
                 )

@@ -510,6 +510,26 @@ CASES: list[Case] = [
         query={"detail": "long"},
         body=_example("post_flash_freeze"),
     ),
+    Case("list-kind-unknown", "GET", _LIST, 422, "kind", query={"kind": "flash-freeze"}),
+    Case("list-tag-with-space", "GET", _LIST, 422, "tag", query={"tag": "two words"}),
+    Case("list-label-too-long", "GET", _LIST, 422, "label", query={"label": "x" * 101}),
+    # label and tags of a recorded request
+    Case(
+        "flash-tag-with-space",
+        "POST",
+        _FLASH,
+        422,
+        "tags",
+        body=_spoiled("post_flash_freeze", "tags", ["two words"]),
+    ),
+    Case(
+        "flash-label-line-break",
+        "POST",
+        _FLASH,
+        422,
+        "label",
+        body=_spoiled("post_flash_freeze", "label", "run\n7"),
+    ),
 ]
 
 

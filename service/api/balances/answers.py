@@ -30,7 +30,9 @@ from service.core.properties.lookups import ReportedUncertainty
 from service.core.properties.phase import FloatArray
 
 __all__ = [
+    "EVAPORATIVE_COOLING_HEADLINE",
     "EVAPORATIVE_COOLING_UNCERTAIN_OUTPUTS",
+    "FLASH_FREEZE_HEADLINE",
     "FLASH_FREEZE_UNCERTAIN_OUTPUTS",
     "evaporation_stage",
     "evaporative_cooling_answer",
@@ -339,3 +341,20 @@ def evaporative_cooling_answer(
         ),
         **_envelope(result, inputs, properties, unit_set, shape),
     }
+
+
+FLASH_FREEZE_HEADLINE: Final = {
+    "final_temperature": "final_temperature",
+    "ice_mass": "ice_mass",
+    "evaporated_mass": "evaporated_mass",
+    "final_pressure": "final_pressure",
+}
+"""What a listing of stored calculations shows of a flash-freeze answer (name: path)."""
+
+EVAPORATIVE_COOLING_HEADLINE: Final = {
+    "evaporated_mass": "evaporated_mass",
+    "heat_removed": "heat_removed",
+    "start_pressure": "start_pressure",
+    "final_pressure": "final_pressure",
+}
+"""What a listing of stored calculations shows of an evaporative-cooling answer."""

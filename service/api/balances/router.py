@@ -13,7 +13,9 @@ from typing import Any, TypeVar
 from fastapi import APIRouter, Request
 
 from service.api.balances.answers import (
+    EVAPORATIVE_COOLING_HEADLINE,
     EVAPORATIVE_COOLING_UNCERTAIN_OUTPUTS,
+    FLASH_FREEZE_HEADLINE,
     FLASH_FREEZE_UNCERTAIN_OUTPUTS,
     evaporation_stage,
     evaporative_cooling_answer,
@@ -32,7 +34,7 @@ from service.api.balances.schemas import (
 )
 from service.api.http.limits import TimeLimitedRoute, check_batch_size
 from service.api.http.problems import FieldError, ProblemError, problem_responses
-from service.api.http.recording import record_calculation
+from service.api.http.recording import headline, record_calculation
 from service.api.http.responses import FastJSONResponse
 from service.api.http.units import Dimension
 from service.core.balances import (
@@ -116,7 +118,15 @@ def post_flash_freeze(request: Request, body: FlashFreezeCreate) -> Any:
         _propagate(flash_freeze, inputs, FLASH_FREEZE_UNCERTAIN_OUTPUTS),
         property_uncertainty_of_evaporation(result.stages),
     )
-    return FastJSONResponse(record_calculation(request, "balances.flash_freeze", body, answer))
+    return FastJSONResponse(
+        record_calculation(
+            request,
+            "balances.flash_freeze",
+            body,
+            answer,
+            headline(answer, FLASH_FREEZE_HEADLINE),
+        )
+    )
 
 
 @router.post(
@@ -149,5 +159,11 @@ def post_evaporative_cooling(request: Request, body: EvaporativeCoolingCreate) -
         ),
     )
     return FastJSONResponse(
-        record_calculation(request, "balances.evaporative_cooling", body, answer)
+        record_calculation(
+            request,
+            "balances.evaporative_cooling",
+            body,
+            answer,
+            headline(answer, EVAPORATIVE_COOLING_HEADLINE),
+        )
     )

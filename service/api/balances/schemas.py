@@ -14,6 +14,7 @@ from typing import Literal
 from pydantic import Field
 
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.record_labels import RecordLabels
 from service.api.http.units import UnitSet
 from service.core.balances import FreezingPointBasis
 
@@ -148,7 +149,7 @@ class SoluteInput(ApiModel):
     )
 
 
-class FlashFreezeCreate(ApiModel):
+class FlashFreezeCreate(RecordLabels):
     """Water (or a watery load) at an initial temperature in a chamber whose vapor is
     removed as it forms: it cools by its own evaporation, freezes, and, with
     `final_ice_temperature`, the ice keeps cooling by sublimation."""
@@ -410,7 +411,7 @@ class DissolvedSolidsInput(ApiModel):
     )
 
 
-class EvaporativeCoolingCreate(ApiModel):
+class EvaporativeCoolingCreate(RecordLabels):
     """A moist product cooled under vacuum from one temperature to another by its own
     evaporation. Give `specific_heat` or `composition`, not both."""
 

@@ -8,15 +8,22 @@ from typing import Annotated, Any
 
 from fastapi import APIRouter, Path, Query, Request
 from pydantic import BeforeValidator
+from starlette.responses import Response
 
+from service.api.calculations.renderings import media_types_of, render
 from service.api.calculations.schemas import (
+    KIND_DESCRIPTION,
     CalculationListPublic,
     CalculationPublic,
-    CalculationSummaryPublic,
+    RecordKind,
 )
+from service.api.http.csv_io import CSV_MEDIA_TYPE, CSV_RESPONSE_TYPE
 from service.api.http.limits import RecordRoute
+from service.api.http.negotiation import JSON_MEDIA_TYPE, choose_media_type, not_acceptable
 from service.api.http.problems import FieldError, ProblemError, problem_responses
+from service.api.http.record_labels import MAX_TAGS, Label, Tag
 from service.api.http.recording import RecordKeeper
+from service.api.http.responses import FastJSONResponse
 from service.records import InvalidCursorError, RecordSummary, StoreUnavailableError
 
 router = APIRouter(prefix="/v1/calculations", tags=["calculations"], route_class=RecordRoute)
@@ -82,22 +89,59 @@ def _own_key_only(request: Request) -> str | None:
     return key_id
 
 
+def _time_text(moment: datetime) -> str:
+    """ISO 8601 in UTC with ``Z``, as pydantic writes an aware time."""
+    return moment.astimezone(UTC).isoformat().replace("+00:00", "Z")
+
+
 def _summary(item: RecordSummary) -> dict[str, Any]:
     return {
         "calculation_id": item.calculation_id,
         "kind": item.kind,
-        "created_at": item.created_at,
+        "created_at": _time_text(item.created_at),
         "service_version": item.service_version,
         "key_id": item.key_id,
+        "label": item.label,
+        "tags": list(item.tags),
+        "headline": item.headline or {},
     }
+
+
+def _next_link(request: Request, cursor: str) -> str:
+    """The ``Link`` header of a page that has a next one (RFC 8288): this request's path
+    and query with the cursor replaced, as a reference relative to the request."""
+    following = request.url.include_query_params(cursor=cursor)
+    target = following.path + (f"?{following.query}" if following.query else "")
+    return f'<{target}>; rel="next"'
+
+
+_STORED_RESPONSES: dict[int | str, dict[str, Any]] = {
+    200: {
+        "description": "The record as JSON by default. By `Accept`, the stored answer as its "
+        "route answered it: `text/csv` for the balances, simulations and design spaces (the "
+        "same columns the route sent), a plot (`image/svg+xml`, `image/png`) for a chamber "
+        "simulation, a primary-drying run or design space and a sizing, drawn again from the "
+        "stored numbers; `X-Calculation-ID` names the record. A type the record's kind was "
+        "never answered in (a plot of a balance or sweep; CSV or a plot of a calibration) "
+        "is a 406 naming the types it has.",
+        "content": {
+            CSV_MEDIA_TYPE: {"schema": {"type": "string"}},
+            "image/svg+xml": {"schema": {"type": "string"}},
+            "image/png": {"schema": {"type": "string", "format": "binary"}},
+        },
+    },
+    **problem_responses(404, 406, 503),
+}
+
+_VARY = {"Vary": "Accept"}
 
 
 @router.get(
     "/{calculation_id}",
     operation_id="get_calculation",
     response_model=CalculationPublic,
-    responses=problem_responses(404, 503),
-    summary="One stored calculation: inputs, answer, versions",
+    responses=_STORED_RESPONSES,
+    summary="One stored calculation: inputs, answer, versions; or its CSV or plot again",
 )
 def get_calculation(
     request: Request,
@@ -106,7 +150,11 @@ def get_calculation(
     ],
 ) -> Any:
     """The record of one balance or simulation answer: the inputs as sent, the answer as
-    returned, the service and formulation versions, the time and the API key id."""
+    returned, the service and formulation versions, the time, the API key id, the label,
+    tags and headline. `inputs` and `result` follow the request and answer models of the
+    route named by `kind` (records stored by an older `service_version` follow that
+    version's models). By `Accept`, the stored answer again as CSV or as a plot where its
+    route answered so."""
     try:
         record = _keeper(request).store.get(calculation_id)
     except StoreUnavailableError as error:
@@ -122,26 +170,88 @@ def get_calculation(
             f"No calculation {calculation_id!r} is stored: the id is wrong, the record was "
             "removed after the retention period, or its answer said it was not stored.",
             [FieldError(field="calculation_id", message="not found", value=calculation_id)],
+            headers=_VARY,
         )
-    return {
-        **_summary(record.summary()),
-        "formulations": record.formulations,
-        "inputs": record.inputs,
-        "result": record.result,
-    }
+    accept = request.headers.get("accept")
+    available = media_types_of(record.kind)
+    chosen = choose_media_type(accept, available)
+    if chosen is None:
+        refused = not_acceptable(accept, available)
+        refused.detail = f"A record of kind {record.kind}: {refused.detail}"
+        refused.headers = _VARY
+        raise refused
+    if chosen != JSON_MEDIA_TYPE:
+        try:
+            body = render(record, chosen)
+        except (KeyError, TypeError, ValueError):
+            raise _not_renderable(record.kind, chosen, available) from None
+        return Response(
+            body,
+            media_type=CSV_RESPONSE_TYPE if chosen == CSV_MEDIA_TYPE else chosen,
+            headers={"X-Calculation-ID": record.calculation_id, **_VARY},
+        )
+    return FastJSONResponse(
+        {
+            **_summary(record.summary()),
+            "formulations": record.formulations,
+            "inputs": record.inputs,
+            "result": record.result,
+        },
+        headers=_VARY,
+    )
+
+
+def _not_renderable(kind: str, media_type: str, available: tuple[str, ...]) -> ProblemError:
+    """A stored answer of another shape (an older version's) that cannot be drawn again."""
+    return ProblemError(
+        406,
+        "not-acceptable",
+        "No acceptable media type",
+        f"This record of kind {kind} was stored in a shape this version cannot render as "
+        f"{media_type}; ask for {JSON_MEDIA_TYPE}.",
+        [FieldError(field="Accept", message=f"cannot render {media_type}", value=media_type)],
+        headers=_VARY,
+    )
 
 
 @router.get(
     "",
     operation_id="list_calculations",
     response_model=CalculationListPublic,
-    responses=problem_responses(422, 503),
+    responses={
+        200: {
+            "description": "One page, newest first. When there is a next page, the "
+            '`Link: <...>; rel="next"` header gives its address (RFC 8288) and '
+            "`next_cursor` its cursor.",
+            "headers": {
+                "Link": {
+                    "description": 'The next page, as `<address>; rel="next"`; absent on '
+                    "the last page.",
+                    "schema": {"type": "string"},
+                }
+            },
+        },
+        **problem_responses(422, 503),
+    },
     summary="Stored calculations, newest first, filtered and paged",
 )
 def list_calculations(
     request: Request,
-    kind: Annotated[str | None, Query(description="Only this kind.")] = None,
+    kind: Annotated[
+        RecordKind | None, Query(description=f"Only this kind. {KIND_DESCRIPTION}")
+    ] = None,
     key_id: Annotated[str | None, Query(description="Only those made with this key id.")] = None,
+    label: Annotated[
+        Label | None, Query(description="Only those whose request gave exactly this `label`.")
+    ] = None,
+    tag: Annotated[
+        list[Tag] | None,
+        Query(
+            max_length=MAX_TAGS,
+            description=f"Only those carrying this tag; repeat it (up to {MAX_TAGS} times) "
+            "for the records carrying every one of them.",
+        ),
+    ] = None,
     since: Annotated[
         IsoTime | None,
         Query(description="Only those made at or after this time (ISO 8601; no offset = UTC)."),
@@ -155,17 +265,20 @@ def list_calculations(
         str | None, Query(max_length=200, description="`next_cursor` of the previous page.")
     ] = None,
 ) -> Any:
-    """Summaries (id, kind, time, versions, key id) of stored calculations. Fetch one with
+    """Summaries (id, kind, time, versions, key id, label, tags and a few key numbers of
+    the answer) of stored calculations. Fetch one with
     `GET /v1/calculations/{calculation_id}` for its inputs and answer."""
     own = _own_key_only(request)
     if own is not None:
         if key_id is not None and key_id != own:
-            return CalculationListPublic(items=[], next_cursor=None)
+            return FastJSONResponse({"items": [], "next_cursor": None})
         key_id = own
     try:
         page = _keeper(request).store.list_records(
-            kind=kind,
+            kind=None if kind is None else kind.value,
             key_id=key_id,
+            label=label,
+            tags=tag or (),
             since=_aware(since, "since"),
             until=_aware(until, "until"),
             limit=limit,
@@ -181,7 +294,8 @@ def list_calculations(
         ) from None
     except StoreUnavailableError as error:
         raise _unavailable(error) from None
-    return CalculationListPublic(
-        items=[CalculationSummaryPublic(**_summary(item)) for item in page.items],
-        next_cursor=page.next_cursor,
+    headers = {} if page.next_cursor is None else {"Link": _next_link(request, page.next_cursor)}
+    return FastJSONResponse(
+        {"items": [_summary(item) for item in page.items], "next_cursor": page.next_cursor},
+        headers=headers,
     )

@@ -14,7 +14,7 @@ from service.core.calibration import CalibrationResult, ParameterEstimate, Serie
 from service.core.simulation import VacuumChamberCase
 from service.core.simulation.case_fields import CASE_FIELDS
 
-__all__ = ["calibration_answer", "fitted_case_body"]
+__all__ = ["calibration_answer", "calibration_headline", "fitted_case_body"]
 
 _SI_UNIT_TEXT = {
     Dimension.VOLUME: "m3",
@@ -158,4 +158,20 @@ def calibration_answer(
             uncertainties=simulation.property_uncertainties,
             advisories=result.warnings,
         ),
+    }
+
+
+def calibration_headline(answer: dict[str, Any]) -> dict[str, Any]:
+    """What a listing of stored calculations shows of a calibration: each estimated field's
+    value (by its path), whether the fit converged and its reduced chi-square."""
+    picked = {
+        str(item["parameter"]): {"value": item["value"]["value"], "unit": item["value"]["unit"]}
+        for item in answer.get("estimates", [])
+        if isinstance(item.get("value"), dict)
+    }
+    fit = answer.get("fit", {})
+    return {
+        **picked,
+        "converged": fit.get("converged"),
+        "reduced_chi_square": fit.get("reduced_chi_square"),
     }

@@ -12,7 +12,7 @@ from typing import Any
 from fastapi import APIRouter, Request
 from starlette.responses import Response
 
-from service.api.calibrations.answers import calibration_answer
+from service.api.calibrations.answers import calibration_answer, calibration_headline
 from service.api.calibrations.plots import plot_calibration
 from service.api.calibrations.requests import read_calibration
 from service.api.calibrations.schemas import (
@@ -65,7 +65,9 @@ def post_vacuum_chamber_calibration(request: Request, body: VacuumChamberCalibra
         confidence=body.confidence,
     )
     answer = calibration_answer(result, body, inputs.notes)
-    answer = record_calculation(request, "calibrations.vacuum_chamber", body, answer)
+    answer = record_calculation(
+        request, "calibrations.vacuum_chamber", body, answer, calibration_headline(answer)
+    )
     kind = plot_format_for(request.headers.get("accept"))
     if kind is not None:
         return Response(

@@ -19,6 +19,7 @@ from service.api.http.models import (
     QuantityInput,
     QuantityOutput,
 )
+from service.api.http.record_labels import RecordLabels
 from service.api.simulations.schemas import VacuumChamberSimulationCreate
 
 __all__ = [
@@ -86,7 +87,7 @@ class EstimateInput(ApiModel):
     )
 
 
-class VacuumChamberCalibrationCreate(ApiModel):
+class VacuumChamberCalibrationCreate(RecordLabels):
     """A chamber case, a measured run of it and the fields to estimate."""
 
     case: VacuumChamberSimulationCreate = Field(

@@ -18,7 +18,13 @@ from service.core.drying import (
 )
 from service.core.properties.phase import FloatArray
 
-__all__ = ["STATE_DIMENSIONS", "design_space_answer", "primary_drying_answer"]
+__all__ = [
+    "DESIGN_SPACE_HEADLINE",
+    "PRIMARY_DRYING_HEADLINE",
+    "STATE_DIMENSIONS",
+    "design_space_answer",
+    "primary_drying_answer",
+]
 
 STATE_DIMENSIONS: Final[tuple[tuple[str, Dimension], ...]] = (
     ("time", Dimension.TIME),
@@ -219,3 +225,21 @@ def design_space_answer(result: DesignSpaceResult, unit_set: UnitSet) -> dict[st
             advisories=(),
         ),
     }
+
+
+PRIMARY_DRYING_HEADLINE: Final = {
+    "end_reason": "summary.end_reason",
+    "drying_time": "summary.drying_time",
+    "maximum_front_temperature": "summary.maximum_front_temperature",
+    "time_above_critical_temperature": "summary.time_above_critical_temperature",
+}
+"""What a listing of stored calculations shows of a primary-drying run (name: path)."""
+
+DESIGN_SPACE_HEADLINE: Final = {
+    "fastest_shelf_temperature": "fastest.shelf_temperature",
+    "fastest_chamber_pressure": "fastest.chamber_pressure",
+    "fastest_drying_time": "fastest.drying_time",
+    "critical_temperature": "critical_temperature",
+}
+"""What a listing shows of a design space: its fastest safe setting (left out when no
+setting is safe) and the critical temperature."""

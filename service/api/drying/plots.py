@@ -4,15 +4,31 @@ the format is chosen by :func:`service.api.simulations.plots.plot_format_for`.""
 
 from __future__ import annotations
 
-from typing import Final
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from typing import Any, Final, Protocol
 
 import numpy as np
 
+from service.api.drying.requests import read_primary_drying
+from service.api.drying.schemas import PrimaryDryingSimulationCreate
 from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
-from service.api.simulations.plots import PlotFormat, display_unit, figure_bytes, mark_events
+from service.api.simulations.plots import (
+    PlotFormat,
+    display_unit,
+    figure_bytes,
+    mark_events,
+    stored_number,
+    stored_values,
+)
 from service.core.drying import DesignSpaceResult, PrimaryDryingResult
 
-__all__ = ["plot_design_space", "plot_primary_drying"]
+__all__ = [
+    "plot_design_space",
+    "plot_primary_drying",
+    "plot_stored_design_space",
+    "plot_stored_primary_drying",
+]
 
 _EVENT_LABELS: Final = {
     "primary-drying-ends": "dry",
@@ -27,7 +43,99 @@ _EVENT_LABELS: Final = {
 _HOUR: Final = 3600.0
 
 
-def plot_primary_drying(result: PrimaryDryingResult, unit_set: UnitSet, kind: PlotFormat) -> bytes:
+class _RunSeries(Protocol):
+    @property
+    def time(self) -> np.ndarray: ...
+    @property
+    def shelf_temperature(self) -> np.ndarray: ...
+    @property
+    def front_temperature(self) -> np.ndarray: ...
+    @property
+    def bottom_temperature(self) -> np.ndarray: ...
+    @property
+    def batch_sublimation_rate(self) -> np.ndarray: ...
+
+
+class _Event(Protocol):
+    @property
+    def name(self) -> str: ...
+    @property
+    def time(self) -> float: ...
+
+
+class DryingRunTrace(Protocol):
+    """What the run plot draws (SI): a :class:`PrimaryDryingResult`, or a stored answer
+    read back (:func:`plot_stored_primary_drying`)."""
+
+    @property
+    def series(self) -> _RunSeries: ...
+    @property
+    def events(self) -> Sequence[_Event]: ...
+    @property
+    def critical_temperature(self) -> float: ...
+    @property
+    def equipment_rate_limit(self) -> np.ndarray | None: ...
+
+
+@dataclass(frozen=True)
+class _StoredRunSeries:
+    time: np.ndarray
+    shelf_temperature: np.ndarray
+    front_temperature: np.ndarray
+    bottom_temperature: np.ndarray
+    batch_sublimation_rate: np.ndarray
+
+
+@dataclass(frozen=True)
+class _StoredEvent:
+    name: str
+    time: float
+
+
+@dataclass(frozen=True)
+class _StoredRun:
+    series: _StoredRunSeries
+    events: tuple[_StoredEvent, ...]
+    critical_temperature: float
+    equipment_rate_limit: np.ndarray | None
+
+
+def plot_stored_primary_drying(
+    inputs: Mapping[str, Any], answer: Mapping[str, Any], kind: PlotFormat
+) -> bytes:
+    """The plot of :func:`plot_primary_drying` drawn again from a stored run: the series,
+    events and equipment limit of the answer, the critical temperature of the request.
+
+    Raises
+    ------
+    KeyError, ValueError, pydantic.ValidationError
+        The record lacks a member the plot needs (a record of another shape).
+    """
+    case = read_primary_drying(PrimaryDryingSimulationCreate.model_validate(inputs))
+    series = answer["series"]
+    temperature, rate = Dimension.TEMPERATURE, Dimension.MASS_FLOW
+    limit = answer.get("equipment_rate_limit")
+    stored = _StoredRun(
+        series=_StoredRunSeries(
+            time=stored_values(series["time"], Dimension.TIME),
+            shelf_temperature=stored_values(series["shelf_temperature"], temperature),
+            front_temperature=stored_values(series["front_temperature"], temperature),
+            bottom_temperature=stored_values(series["bottom_temperature"], temperature),
+            batch_sublimation_rate=stored_values(series["batch_sublimation_rate"], rate),
+        ),
+        events=tuple(
+            _StoredEvent(str(event["name"]), stored_number(event["time"], Dimension.TIME))
+            for event in answer["events"]
+        ),
+        critical_temperature=case.critical_temperature,
+        equipment_rate_limit=None if limit is None else stored_values(limit, rate),
+    )
+    return plot_primary_drying(stored, UnitSet(answer["meta"]["output_units"]), kind)
+
+
+def plot_primary_drying(
+    result: DryingRunTrace | PrimaryDryingResult, unit_set: UnitSet, kind: PlotFormat
+) -> bytes:
     """Temperatures (shelf, ice front, vial bottom, critical) and the batch sublimation rate
     (with the equipment limit) against time in hours, events marked."""
     from matplotlib.figure import Figure
@@ -93,7 +201,90 @@ def _hour_levels(hours: np.ndarray) -> list[float]:
     return levels or [shortest * 1.5]
 
 
-def plot_design_space(result: DesignSpaceResult, unit_set: UnitSet, kind: PlotFormat) -> bytes:
+class DesignSpaceTrace(Protocol):
+    """What the design-space plot draws (SI): a :class:`DesignSpaceResult`, or a stored
+    answer read back (:func:`plot_stored_design_space`)."""
+
+    @property
+    def chamber_pressures(self) -> np.ndarray: ...
+    @property
+    def shelf_temperatures(self) -> np.ndarray: ...
+    @property
+    def front_temperature(self) -> np.ndarray: ...
+    @property
+    def critical_temperature(self) -> float: ...
+    @property
+    def safe(self) -> np.ndarray: ...
+    @property
+    def drying_time(self) -> np.ndarray | None: ...
+    @property
+    def batch_sublimation_rate(self) -> np.ndarray: ...
+    @property
+    def equipment_rate_limit(self) -> np.ndarray | None: ...
+    @property
+    def fastest(self) -> tuple[int, int] | None: ...
+
+
+@dataclass(frozen=True)
+class _StoredDesignSpace:
+    chamber_pressures: np.ndarray
+    shelf_temperatures: np.ndarray
+    front_temperature: np.ndarray
+    critical_temperature: float
+    safe: np.ndarray
+    drying_time: np.ndarray | None
+    batch_sublimation_rate: np.ndarray
+    equipment_rate_limit: np.ndarray | None
+    fastest: tuple[int, int] | None
+
+
+def _stored_grid(quantity: Any, dimension: Dimension, shape: tuple[int, int]) -> np.ndarray:
+    """A stored grid (``values`` nested shelf x pressure, null where nothing sublimes)."""
+    if not isinstance(quantity, Mapping):
+        raise ValueError("the stored answer lacks a grid the plot needs")
+    flat = np.ravel(np.array(quantity["values"], dtype=object))
+    return stored_values({"values": list(flat), "unit": quantity["unit"]}, dimension).reshape(shape)
+
+
+def plot_stored_design_space(
+    _inputs: Mapping[str, Any], answer: Mapping[str, Any], kind: PlotFormat
+) -> bytes:
+    """The plot of :func:`plot_design_space` drawn again from a stored design space.
+
+    Raises
+    ------
+    KeyError, ValueError
+        The answer lacks a member the plot needs (a record of another shape).
+    """
+    shelves = stored_values(answer["shelf_temperatures"], Dimension.TEMPERATURE)
+    pressures = stored_values(answer["chamber_pressures"], Dimension.PRESSURE)
+    shape = (shelves.size, pressures.size)
+    drying_time = answer.get("drying_time")
+    limit = answer.get("equipment_rate_limit")
+    fastest = answer.get("fastest")
+    stored = _StoredDesignSpace(
+        chamber_pressures=pressures,
+        shelf_temperatures=shelves,
+        front_temperature=_stored_grid(answer["front_temperature"], Dimension.TEMPERATURE, shape),
+        critical_temperature=stored_number(answer["critical_temperature"], Dimension.TEMPERATURE),
+        safe=np.array(answer["safe"], dtype=bool).reshape(shape),
+        drying_time=None
+        if drying_time is None
+        else _stored_grid(drying_time, Dimension.TIME, shape),
+        batch_sublimation_rate=_stored_grid(
+            answer["batch_sublimation_rate"], Dimension.MASS_FLOW, shape
+        ),
+        equipment_rate_limit=None if limit is None else stored_values(limit, Dimension.MASS_FLOW),
+        fastest=None
+        if fastest is None
+        else (int(fastest["shelf_index"]), int(fastest["pressure_index"])),
+    )
+    return plot_design_space(stored, UnitSet(answer["meta"]["output_units"]), kind)
+
+
+def plot_design_space(
+    result: DesignSpaceTrace | DesignSpaceResult, unit_set: UnitSet, kind: PlotFormat
+) -> bytes:
     """Chamber pressure x shelf temperature: labelled contours of the ice-front temperature
     and of the drying time (or the batch sublimation rate at a stated thickness), the
     critical-temperature line, the equipment-limit line, the safe region shaded and the

@@ -15,7 +15,12 @@ from typing import Any
 from fastapi import APIRouter, Request
 from starlette.responses import Response
 
-from service.api.drying.answers import design_space_answer, primary_drying_answer
+from service.api.drying.answers import (
+    DESIGN_SPACE_HEADLINE,
+    PRIMARY_DRYING_HEADLINE,
+    design_space_answer,
+    primary_drying_answer,
+)
 from service.api.drying.plots import plot_design_space, plot_primary_drying
 from service.api.drying.requests import read_design_space, read_primary_drying
 from service.api.drying.schemas import (
@@ -26,7 +31,7 @@ from service.api.drying.schemas import (
 )
 from service.api.http.limits import TimeLimitedRoute
 from service.api.http.problems import problem_responses
-from service.api.http.recording import record_calculation
+from service.api.http.recording import headline, record_calculation
 from service.api.http.responses import FastJSONResponse
 from service.api.simulations.plots import PLOT_MEDIA_TYPES, PlotFormat, plot_format_for
 from service.core.drying import primary_drying_design_space, simulate_primary_drying
@@ -75,7 +80,13 @@ def post_primary_drying_simulation(request: Request, body: PrimaryDryingSimulati
     case = read_primary_drying(body)
     result = simulate_primary_drying(case)
     answer = primary_drying_answer(result, body.output_units)
-    record_calculation(request, "simulations.primary_drying", body, answer)
+    record_calculation(
+        request,
+        "simulations.primary_drying",
+        body,
+        answer,
+        headline(answer, PRIMARY_DRYING_HEADLINE),
+    )
     return _answer(
         request, answer, lambda kind: plot_primary_drying(result, body.output_units, kind)
     )
@@ -95,5 +106,11 @@ def post_primary_drying_design_space(request: Request, body: PrimaryDryingDesign
     case = read_design_space(body)
     result = primary_drying_design_space(case)
     answer = design_space_answer(result, body.output_units)
-    record_calculation(request, "design_spaces.primary_drying", body, answer)
+    record_calculation(
+        request,
+        "design_spaces.primary_drying",
+        body,
+        answer,
+        headline(answer, DESIGN_SPACE_HEADLINE),
+    )
     return _answer(request, answer, lambda kind: plot_design_space(result, body.output_units, kind))

@@ -13,6 +13,7 @@ from typing import Literal
 from pydantic import Field
 
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.record_labels import RecordLabels
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -173,7 +174,7 @@ class EquipmentLimitPointInput(ApiModel):
     )
 
 
-class _DryingInputs(ApiModel):
+class _DryingInputs(RecordLabels):
     load: DryingLoadInput = Field(description="The containers and their frozen fill.")
     vial_heat_transfer: VialHeatTransferInput = Field(
         description="The three constants of K_v(P_c), measured for the container and dryer."

@@ -62,10 +62,12 @@ from service.core.deadline import set_deadline
 
 __all__ = [
     "CSV_MEDIA_TYPE",
+    "CSV_RESPONSE_TYPE",
     "CsvAdapter",
     "CsvError",
     "CsvRoute",
     "CsvTable",
+    "answer_csv",
     "document_csv",
     "flatten_answers",
     "parse_csv",
@@ -75,7 +77,9 @@ __all__ = [
 ]
 
 CSV_MEDIA_TYPE = "text/csv"
-_CSV_RESPONSE_TYPE = "text/csv; charset=utf-8; header=present"
+CSV_RESPONSE_TYPE = "text/csv; charset=utf-8; header=present"
+"""Content type of every CSV answer."""
+_CSV_RESPONSE_TYPE = CSV_RESPONSE_TYPE
 _HEADER = re.compile(
     r"^(?P<path>[A-Za-z_][A-Za-z0-9_]*(?:\.[A-Za-z_][A-Za-z0-9_]*)*)\s*(?:\[(?P<unit>[^\]]*)\])?$"
 )
@@ -518,6 +522,12 @@ def _member(answer: dict[str, Any], path: tuple[str, ...]) -> Any:
 def _table_bytes(answers: list[dict[str, Any]]) -> bytes:
     stated, remaining = split_statements(answers)
     return render_csv(*flatten_answers(remaining), statements=stated)
+
+
+def answer_csv(answer: dict[str, Any], part: str | None = None) -> bytes:
+    """One JSON answer as the CSV its route answers for ``Accept: text/csv`` (only its
+    ``part`` member when the route's :attr:`CsvRoute.answer_part` names one)."""
+    return _table_bytes([answer if part is None else _part_of(answer, part)])
 
 
 def render_csv(

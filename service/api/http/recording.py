@@ -25,14 +25,25 @@ from pydantic import BaseModel
 from service import __version__
 from service.api.http.observability import Metrics
 from service.api.http.problems import FieldError, ProblemError
+from service.api.http.record_labels import labels_of
 from service.api.http.responses import NonFiniteResultError, check_finite
 from service.core.statements import source_by_id
 from service.records import CalculationRecord, RecordStore, StoreUnavailableError
 
-__all__ = ["NOT_STORED_WARNING", "RecordKeeper", "record_calculation"]
+__all__ = [
+    "HEADLINE_VALUES",
+    "NOT_STORED_WARNING",
+    "RecordKeeper",
+    "headline",
+    "record_calculation",
+]
 
 NOT_STORED_WARNING = "record-not-stored"
 """Warning code an answer carries when its calculation record could not be stored."""
+
+HEADLINE_VALUES = 20
+"""A headline quantity of a batch or sweep is kept up to this many values; a longer one
+is left out of the headline (the record still holds it)."""
 
 _RETENTION_INTERVAL_SECONDS = 3600.0
 _log = logging.getLogger("tripoint.records")
@@ -43,6 +54,47 @@ def _plain_json(value: Any) -> Any:
     return orjson.loads(
         orjson.dumps(value, option=orjson.OPT_SERIALIZE_NUMPY | orjson.OPT_NON_STR_KEYS)
     )
+
+
+def _headline_entry(node: Any) -> tuple[bool, Any]:
+    """(kept, value) of one headline candidate: a quantity, a short text, a flag, a count."""
+    if isinstance(node, dict) and "unit" in node and ("value" in node or "values" in node):
+        values = node.get("values")
+        if values is not None:
+            values = _plain_json(values)  # a batch may still be a numpy array here
+        if isinstance(values, list):
+            return len(values) <= HEADLINE_VALUES, {"values": values, "unit": node["unit"]}
+        return True, {"value": node.get("value"), "unit": node["unit"]}
+    if node is None or isinstance(node, str | bool | int | float):
+        return True, node
+    return False, None
+
+
+def headline(answer: Mapping[str, Any], paths: Mapping[str, str]) -> dict[str, Any]:
+    """The headline of an answer: for each name, the member at its dotted path.
+
+    Quantities keep ``value``/``values`` and ``unit`` (their uncertainty stays in the
+    record); texts, flags and numbers are kept as they are. A path the answer lacks, a
+    member of another shape, or a batch longer than :data:`HEADLINE_VALUES` is left out.
+    """
+    picked: dict[str, Any] = {}
+    for name, path in paths.items():
+        node: Any = answer
+        for part in path.split("."):
+            node = node.get(part) if isinstance(node, Mapping) else None
+        kept, value = _headline_entry(node)
+        if kept and (node is not None or _has_path(answer, path)):
+            picked[name] = value
+    return picked
+
+
+def _has_path(answer: Mapping[str, Any], path: str) -> bool:
+    node: Any = answer
+    for part in path.split("."):
+        if not isinstance(node, Mapping) or part not in node:
+            return False
+        node = node[part]
+    return True
 
 
 def _created_at(meta: Mapping[str, Any]) -> datetime:
@@ -74,7 +126,15 @@ class RecordKeeper:
         self.metrics = metrics
 
     def record(
-        self, *, kind: str, inputs: Mapping[str, Any], result: dict[str, Any], key_id: str | None
+        self,
+        *,
+        kind: str,
+        inputs: Mapping[str, Any],
+        result: dict[str, Any],
+        key_id: str | None,
+        label: str | None = None,
+        tags: tuple[str, ...] = (),
+        headline: Mapping[str, Any] | None = None,
     ) -> None:
         """Store one answer; on failure warn in ``result`` or raise a 503, per the policy."""
         meta = result.get("meta")
@@ -96,6 +156,9 @@ class RecordKeeper:
                 if isinstance(source, dict)
             ],
             key_id=key_id,
+            label=label,
+            tags=tags,
+            headline=None if headline is None else _plain_json(dict(headline)),
         )
         try:
             self.store.add(record)
@@ -165,6 +228,7 @@ def record_calculation(
     kind: str,
     inputs: BaseModel | Mapping[str, Any],
     result: dict[str, Any],
+    headline: Mapping[str, Any] | None = None,
 ) -> dict[str, Any]:
     """Store the calculation record of one answer and return the answer.
 
@@ -183,6 +247,13 @@ def record_calculation(
         plain mapping.
     result
         The answer, with ``meta.calculation_id`` and ``property_sources``.
+    headline
+        A few key numbers of the answer (``{"value", "unit"}`` quantities or short
+        texts), shown by the listing without reading the whole result; each resource's
+        ``answers.py`` picks them for its kind.
+
+    The record also keeps the request's ``label`` and ``tags``
+    (:class:`service.api.http.record_labels.RecordLabels`).
 
     Returns
     -------
@@ -208,7 +279,16 @@ def record_calculation(
     if isinstance(meta, dict) and not meta.get("calculation_id"):
         meta["calculation_id"] = str(uuid.uuid4())  # the id of the record stored now
     key_id = getattr(request.state, "api_key_id", None)
-    keeper.record(kind=kind, inputs=sent, result=result, key_id=key_id)
+    label, tags = labels_of(inputs)
+    keeper.record(
+        kind=kind,
+        inputs=sent,
+        result=result,
+        key_id=key_id,
+        label=label,
+        tags=tags,
+        headline=headline,
+    )
     return result
 
 

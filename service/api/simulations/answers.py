@@ -18,7 +18,14 @@ from service.core.simulation import (
 )
 from service.core.simulation.case_fields import CASE_FIELDS, case_field_value
 
-__all__ = ["FIELD_DIMENSIONS", "STATE_DIMENSIONS", "simulation_answer", "sweep_answer"]
+__all__ = [
+    "FIELD_DIMENSIONS",
+    "SIMULATION_HEADLINE",
+    "STATE_DIMENSIONS",
+    "SWEEP_HEADLINE",
+    "simulation_answer",
+    "sweep_answer",
+]
 
 FIELD_DIMENSIONS: Final[dict[str, Dimension]] = {
     "m3": Dimension.VOLUME,
@@ -294,3 +301,21 @@ def simulation_answer(
             advisories=result.warnings,
         ),
     }
+
+
+SIMULATION_HEADLINE: Final = {
+    "end_reason": "summary.end_reason",
+    "time_to_target": "summary.target_time",
+    "final_temperature": "summary.final_temperature",
+    "evaporated_mass": "summary.evaporated_mass",
+    "end_time": "summary.end_time",
+}
+"""What a listing of stored calculations shows of a simulation answer (name: path)."""
+
+SWEEP_HEADLINE: Final = {
+    "cases": "cases",
+    "time_to_target": "summary.target_time",
+    "final_temperature": "summary.final_temperature",
+}
+"""What a listing shows of a sweep: its size and, for up to 20 cases, each case's times
+to target and final temperatures."""

@@ -7,13 +7,20 @@ is safe in worker threads and needs no display. matplotlib is imported on first 
 from __future__ import annotations
 
 import io
-from collections.abc import Sequence
-from typing import Any, Final, Literal
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass
+from typing import Any, Final, Literal, Protocol
 
 import numpy as np
 
 from service.api.http.negotiation import choose_media_type
-from service.api.http.units import Dimension, UnitSet, convert_from_si, output_unit
+from service.api.http.units import (
+    Dimension,
+    UnitSet,
+    convert_from_si,
+    convert_to_si,
+    output_unit,
+)
 from service.core.simulation import VacuumChamberResult
 
 __all__ = [
@@ -24,6 +31,9 @@ __all__ = [
     "mark_events",
     "plot_format_for",
     "plot_simulation",
+    "plot_stored_simulation",
+    "stored_number",
+    "stored_values",
 ]
 
 PlotFormat = Literal["svg", "png"]
@@ -84,8 +94,169 @@ def _clock(seconds: float) -> str:
     return f"{seconds:.3g} s"
 
 
+class _Series(Protocol):
+    @property
+    def time(self) -> np.ndarray: ...
+    @property
+    def total_pressure(self) -> np.ndarray: ...
+    @property
+    def air_pressure(self) -> np.ndarray: ...
+    @property
+    def vapor_pressure(self) -> np.ndarray: ...
+    @property
+    def product_vapor_pressure(self) -> np.ndarray: ...
+    @property
+    def product_temperature(self) -> np.ndarray: ...
+
+
+class _Event(Protocol):
+    @property
+    def name(self) -> str: ...
+    @property
+    def time(self) -> float: ...
+
+
+class _Check(Protocol):
+    @property
+    def time(self) -> float: ...
+    @property
+    def temperature_limit(self) -> float: ...
+    @property
+    def met(self) -> bool: ...
+
+
+class _Summary(Protocol):
+    @property
+    def end_reason(self) -> str: ...
+    @property
+    def end_time(self) -> float: ...
+    @property
+    def final_temperature(self) -> float: ...
+    @property
+    def evaporated_mass(self) -> float: ...
+
+
+class SimulationTrace(Protocol):
+    """What the simulation plot draws (SI): a :class:`VacuumChamberResult`, or a stored
+    answer read back (:func:`plot_stored_simulation`)."""
+
+    @property
+    def series(self) -> _Series: ...
+    @property
+    def events(self) -> Sequence[_Event]: ...
+    @property
+    def schedule(self) -> Sequence[_Check]: ...
+    @property
+    def summary(self) -> _Summary: ...
+
+
+def stored_values(quantity: Any, dimension: Dimension) -> np.ndarray:
+    """The SI numbers of a stored ``{"values"|"value", "unit"}`` (null as NaN)."""
+    if not isinstance(quantity, Mapping):
+        raise ValueError("the stored answer lacks a quantity the plot needs")
+    raw = quantity.get("values", [quantity.get("value")])
+    numbers = np.array([np.nan if item is None else item for item in raw], dtype=np.float64)
+    return convert_to_si(numbers, quantity.get("unit"), dimension, field="result")
+
+
+def stored_number(quantity: Any, dimension: Dimension) -> float:
+    """The SI number of a stored ``{"value", "unit"}`` (null as NaN)."""
+    return float(stored_values(quantity, dimension)[0])
+
+
+@dataclass(frozen=True)
+class _StoredSeries:
+    time: np.ndarray
+    total_pressure: np.ndarray
+    air_pressure: np.ndarray
+    vapor_pressure: np.ndarray
+    product_vapor_pressure: np.ndarray
+    product_temperature: np.ndarray
+
+
+@dataclass(frozen=True)
+class _StoredEvent:
+    name: str
+    time: float
+
+
+@dataclass(frozen=True)
+class _StoredCheck:
+    time: float
+    temperature_limit: float
+    met: bool
+
+
+@dataclass(frozen=True)
+class _StoredSummary:
+    end_reason: str
+    end_time: float
+    final_temperature: float
+    evaporated_mass: float
+
+
+@dataclass(frozen=True)
+class _StoredSimulation:
+    series: _StoredSeries
+    events: tuple[_StoredEvent, ...]
+    schedule: tuple[_StoredCheck, ...]
+    summary: _StoredSummary
+
+
+def _stored_simulation(answer: Mapping[str, Any]) -> _StoredSimulation:
+    series = answer["series"]
+    pressure, temperature, time = Dimension.PRESSURE, Dimension.TEMPERATURE, Dimension.TIME
+    summary = answer["summary"]
+    return _StoredSimulation(
+        series=_StoredSeries(
+            time=stored_values(series["time"], time),
+            total_pressure=stored_values(series["total_pressure"], pressure),
+            air_pressure=stored_values(series["air_pressure"], pressure),
+            vapor_pressure=stored_values(series["vapor_pressure"], pressure),
+            product_vapor_pressure=stored_values(series["product_vapor_pressure"], pressure),
+            product_temperature=stored_values(series["product_temperature"], temperature),
+        ),
+        events=tuple(
+            _StoredEvent(str(event["name"]), stored_number(event["time"], time))
+            for event in answer["events"]
+        ),
+        schedule=tuple(
+            _StoredCheck(
+                stored_number(check["time"], time),
+                stored_number(check["temperature_limit"], temperature),
+                bool(check["met"]),
+            )
+            for check in answer["schedule"]
+        ),
+        summary=_StoredSummary(
+            end_reason=str(summary["end_reason"]),
+            end_time=stored_number(summary["end_time"], time),
+            final_temperature=stored_number(summary["final_temperature"], temperature),
+            evaporated_mass=stored_number(summary["evaporated_mass"], Dimension.MASS),
+        ),
+    )
+
+
+def plot_stored_simulation(answer: Mapping[str, Any], kind: PlotFormat) -> bytes:
+    """The plot of :func:`plot_simulation` drawn again from a stored simulation answer (in
+    the answer's ``meta.output_units``, its calculation id in the title).
+
+    Raises
+    ------
+    KeyError, ValueError
+        The answer lacks a member the plot needs (a record of another shape).
+    """
+    meta = answer["meta"]
+    return plot_simulation(
+        _stored_simulation(answer),
+        UnitSet(meta["output_units"]),
+        kind,
+        meta.get("calculation_id"),
+    )
+
+
 def plot_simulation(
-    result: VacuumChamberResult,
+    result: SimulationTrace | VacuumChamberResult,
     unit_set: UnitSet,
     kind: PlotFormat,
     calculation_id: str | None = None,
@@ -96,7 +267,7 @@ def plot_simulation(
     Parameters
     ----------
     result
-        A simulation result.
+        A simulation result (or a stored answer read back in SI).
     unit_set
         Units of the pressure and temperature axes.
     kind
@@ -287,7 +458,8 @@ def figure_bytes(figure: Any, kind: PlotFormat) -> bytes:
 
     buffer = io.BytesIO()
     metadata = {"Date": None} if kind == "svg" else None
-    # svg.fonttype "none": text stays text (searchable, selectable), not glyph paths.
-    with matplotlib.rc_context({"svg.fonttype": "none"}):
+    # svg.fonttype "none": text stays text (searchable, selectable), not glyph paths; a
+    # fixed svg.hashsalt makes the element ids (otherwise random) the same on every call.
+    with matplotlib.rc_context({"svg.fonttype": "none", "svg.hashsalt": "tripoint"}):
         figure.savefig(buffer, format=kind, metadata=metadata, dpi=100)
     return buffer.getvalue()

@@ -16,9 +16,14 @@ from service.api.http.csv_io import CSV_MEDIA_TYPE
 from service.api.http.limits import TimeLimitedRoute
 from service.api.http.negotiation import JSON_MEDIA_TYPE, choose_media_type, not_acceptable
 from service.api.http.problems import problem_responses
-from service.api.http.recording import record_calculation
+from service.api.http.recording import headline, record_calculation
 from service.api.http.responses import FastJSONResponse
-from service.api.simulations.answers import simulation_answer, sweep_answer
+from service.api.simulations.answers import (
+    SIMULATION_HEADLINE,
+    SWEEP_HEADLINE,
+    simulation_answer,
+    sweep_answer,
+)
 from service.api.simulations.plots import PLOT_MEDIA_TYPES, plot_format_for, plot_simulation
 from service.api.simulations.requests import read_vacuum_chamber_sweep
 from service.api.simulations.schemas import (
@@ -69,11 +74,23 @@ def post_vacuum_chamber_simulation(request: Request, body: VacuumChamberSimulati
     results = simulate_vacuum_chambers(cases, settings.simulation_workers)
     if swept:
         sweep = sweep_answer(results, cases, swept, body.output_units, notes)
-        record_calculation(request, "simulations.vacuum_chamber_sweep", body, sweep)
+        record_calculation(
+            request,
+            "simulations.vacuum_chamber_sweep",
+            body,
+            sweep,
+            headline(sweep, SWEEP_HEADLINE),
+        )
         return FastJSONResponse(sweep)
     result = results[0]
     answer = simulation_answer(result, body.output_units, notes)
-    record_calculation(request, "simulations.vacuum_chamber", body, answer)
+    record_calculation(
+        request,
+        "simulations.vacuum_chamber",
+        body,
+        answer,
+        headline(answer, SIMULATION_HEADLINE),
+    )
     kind = plot_format_for(accept)
     if kind is not None:
         return Response(

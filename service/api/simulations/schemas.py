@@ -14,6 +14,7 @@ from pydantic import Field
 
 from service.api.balances.schemas import CompanionInput, CompositionInput, SoluteInput
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.record_labels import RecordLabels
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -331,7 +332,7 @@ class ScheduleLimitInput(ApiModel):
     temperature: QuantityInput = Field(description=_described("Limit. Default unit K."))
 
 
-class VacuumChamberSimulationCreate(ApiModel):
+class VacuumChamberSimulationCreate(RecordLabels):
     """A vacuum chamber with pump, optional condenser and a product, simulated over time."""
 
     chamber: ChamberInput = Field(

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from typing import Any
+from typing import Any, Final
 
 from service.api.http.envelope import envelope
 from service.api.http.quantities import scalar_output
@@ -11,7 +11,7 @@ from service.api.simulations.answers import simulation_answer
 from service.api.sizing.requests import FieldUnit
 from service.core.sizing import MARGIN_FACTOR, DesignPoint, SizingResult
 
-__all__ = ["sizing_answer"]
+__all__ = ["SIZING_HEADLINE", "sizing_answer"]
 
 _SIMULATION_PARTS = (
     "summary",
@@ -70,3 +70,12 @@ def sizing_answer(
             advisories=(*result.warnings, *forward.warnings),
         ),
     }
+
+
+SIZING_HEADLINE: Final = {
+    "find": "find",
+    "solution": "solution",
+    "time_to_target": "time_to_target",
+    "at_bracket_end": "at_bracket_end",
+}
+"""What a listing of stored calculations shows of a sizing answer (name: path)."""

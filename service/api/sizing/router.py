@@ -14,10 +14,10 @@ from starlette.responses import Response
 
 from service.api.http.limits import TimeLimitedRoute
 from service.api.http.problems import problem_responses
-from service.api.http.recording import record_calculation
+from service.api.http.recording import headline, record_calculation
 from service.api.http.responses import FastJSONResponse
 from service.api.simulations.plots import PLOT_MEDIA_TYPES, plot_format_for
-from service.api.sizing.answers import sizing_answer
+from service.api.sizing.answers import SIZING_HEADLINE, sizing_answer
 from service.api.sizing.plots import plot_design_curve
 from service.api.sizing.requests import case_errors_in_request, read_sizing
 from service.api.sizing.schemas import VacuumChamberSizingCreate, VacuumChamberSizingPublic
@@ -57,7 +57,9 @@ def post_vacuum_chamber_sizing(request: Request, body: VacuumChamberSizingCreate
     with case_errors_in_request():
         result = size_vacuum_chamber(sizing)
     answer = sizing_answer(result, unit, body.case.output_units, notes)
-    record_calculation(request, "sizing.vacuum_chamber", body, answer)
+    record_calculation(
+        request, "sizing.vacuum_chamber", body, answer, headline(answer, SIZING_HEADLINE)
+    )
     kind = plot_format_for(request.headers.get("accept"))
     if kind is not None:
         return Response(

@@ -12,6 +12,7 @@ from typing import Literal
 from pydantic import Field
 
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.record_labels import RecordLabels
 from service.api.simulations.schemas import (
     ChamberStatesOut,
     EquipmentChecksOut,
@@ -57,7 +58,7 @@ class SizingBracketInput(ApiModel):
     upper: QuantityInput = Field(description=f"Above `lower`. {_ONE_VALUE}")
 
 
-class VacuumChamberSizingCreate(ApiModel):
+class VacuumChamberSizingCreate(RecordLabels):
     """Solve one field of a chamber simulation for a cooling target."""
 
     case: VacuumChamberSimulationCreate = Field(

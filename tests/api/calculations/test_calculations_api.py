@@ -11,7 +11,7 @@ from fastapi.testclient import TestClient
 from operations_support import KEY, POSTGRES_URL, postgres_schema, running_client
 
 from service.api.http.security import key_id
-from service.records import RecordStore
+from service.records import SCHEMA_VERSION, RecordStore
 
 AUTH = {"Authorization": f"Bearer {KEY}"}
 
@@ -56,6 +56,18 @@ def test_record_carries_the_key_id_never_the_key(tmp_path: Path) -> None:
     assert KEY.encode() not in database
 
 
+def test_record_of_a_kind_this_version_does_not_type_is_json_only(tmp_path: Path) -> None:
+    with running_client(tmp_path) as client:
+        answer = _recorded(client, {"temperature": 300.0})
+        address = f"/v1/calculations/{answer['meta']['calculation_id']}"
+        as_json = client.get(address)
+        as_csv = client.get(address, headers={"Accept": "text/csv"})
+    assert as_json.status_code == 200
+    assert as_json.json()["kind"] == "testing.recorded"
+    assert as_csv.status_code == 406
+    assert "testing.recorded" in as_csv.json()["detail"]
+
+
 def test_unknown_calculation_is_404(tmp_path: Path) -> None:
     with running_client(tmp_path) as client:
         response = client.get("/v1/calculations/00000000-0000-0000-0000-000000000000")
@@ -77,7 +89,9 @@ def test_listing_filters_and_pages(tmp_path: Path) -> None:
         third = client.get(
             "/v1/calculations", params={"limit": 2, "cursor": second["next_cursor"]}
         ).json()
-        none_of_kind = client.get("/v1/calculations", params={"kind": "balances.other"}).json()
+        none_of_kind = client.get(
+            "/v1/calculations", params={"kind": "balances.flash_freeze"}
+        ).json()
         future = client.get("/v1/calculations", params={"since": "2999-01-01T00:00:00"}).json()
         past = client.get("/v1/calculations", params={"until": "2000-01-01T00:00:00Z"}).json()
     listed = [item["calculation_id"] for page in (first, second, third) for item in page["items"]]
@@ -89,7 +103,14 @@ def test_listing_filters_and_pages(tmp_path: Path) -> None:
         "created_at",
         "service_version",
         "key_id",
+        "label",
+        "tags",
+        "headline",
     }
+    # The stand-in route gives no headline, and its body model no label or tags.
+    assert first["items"][0]["label"] is None
+    assert first["items"][0]["tags"] == []
+    assert first["items"][0]["headline"] == {}
     assert none_of_kind["items"] == []
     assert future["items"] == []
     assert past["items"] == []
@@ -102,13 +123,17 @@ def test_listing_filters_and_pages(tmp_path: Path) -> None:
         pytest.param({"limit": 0}, "limit", id="limit-zero"),
         pytest.param({"limit": 5000}, "limit", id="limit-too-big"),
         pytest.param({"since": "yesterday"}, "since", id="since-not-a-time"),
+        pytest.param({"kind": "balances.other"}, "kind", id="kind-unknown"),
+        pytest.param({"label": ""}, "label", id="label-empty"),
+        pytest.param({"tag": "not a tag"}, "tag", id="tag-with-space"),
+        pytest.param({"tag": [f"t{n}" for n in range(11)]}, "tag", id="too-many-tags"),
     ],
 )
 def test_bad_listing_parameters_are_422(tmp_path: Path, params: dict[str, Any], field: str) -> None:
     with running_client(tmp_path) as client:
         response = client.get("/v1/calculations", params=params)
     assert response.status_code == 422
-    assert response.json()["errors"][0]["field"] == field
+    assert response.json()["errors"][0]["field"].split(".")[0] == field  # tag.0: the first
 
 
 class _BrokenStore(RecordStore):
@@ -165,7 +190,7 @@ def test_ready_when_store_answers(tmp_path: Path) -> None:
         response = client.get("/ready")
     assert response.status_code == 200
     assert response.json()["status"] == "ready"
-    assert response.json()["records_schema_version"] == 1
+    assert response.json()["records_schema_version"] == SCHEMA_VERSION == 2
 
 
 def test_records_on_postgresql_through_the_api(tmp_path: Path) -> None:
