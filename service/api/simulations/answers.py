@@ -238,8 +238,13 @@ def sweep_answer(
     }
 
 
-_INTERIOR_STATES: Final = ("core_temperature", "surface_temperature")
-"""Fields of :class:`ChamberStates` set only with the interior model (K; omitted without)."""
+_OPTIONAL_STATES: Final[tuple[tuple[str, Dimension], ...]] = (
+    ("core_temperature", Dimension.TEMPERATURE),
+    ("surface_temperature", Dimension.TEMPERATURE),
+    ("air_flux_ratio", Dimension.DIMENSIONLESS),
+)
+"""Fields of :class:`ChamberStates` that only some runs have (the interior model's
+temperatures; the air's flux ratio of a kinetic run's series), omitted where None."""
 
 
 def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict[str, Any]:
@@ -247,12 +252,10 @@ def _states(states: ChamberStates, unit_set: UnitSet, *, as_array: bool) -> dict
         name: quantity_output(getattr(states, name), dimension, unit_set, as_array=as_array)
         for name, dimension in STATE_DIMENSIONS
     }
-    for name in _INTERIOR_STATES:
+    for name, dimension in _OPTIONAL_STATES:
         values = getattr(states, name)
-        if values is not None:  # omitted for the uniform product
-            answer[name] = quantity_output(
-                values, Dimension.TEMPERATURE, unit_set, as_array=as_array
-            )
+        if values is not None:
+            answer[name] = quantity_output(values, dimension, unit_set, as_array=as_array)
     return answer
 
 

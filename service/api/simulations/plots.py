@@ -107,6 +107,14 @@ class _Series(Protocol):
     def product_vapor_pressure(self) -> np.ndarray: ...
     @property
     def product_temperature(self) -> np.ndarray: ...
+    @property
+    def core_temperature(self) -> np.ndarray | None: ...
+    @property
+    def surface_temperature(self) -> np.ndarray | None: ...
+    @property
+    def condenser_load(self) -> np.ndarray: ...
+    @property
+    def air_flux_ratio(self) -> np.ndarray | None: ...
 
 
 class _Event(Protocol):
@@ -123,6 +131,13 @@ class _Check(Protocol):
     def temperature_limit(self) -> float: ...
     @property
     def met(self) -> bool: ...
+    @property
+    def applies_to(self) -> str: ...
+
+
+class _Checks(Protocol):
+    @property
+    def trap_refrigeration_capacity(self) -> float | None: ...
 
 
 class _Summary(Protocol):
@@ -134,6 +149,8 @@ class _Summary(Protocol):
     def final_temperature(self) -> float: ...
     @property
     def evaporated_mass(self) -> float: ...
+    @property
+    def final_core_temperature(self) -> float | None: ...
 
 
 class SimulationTrace(Protocol):
@@ -148,6 +165,8 @@ class SimulationTrace(Protocol):
     def schedule(self) -> Sequence[_Check]: ...
     @property
     def summary(self) -> _Summary: ...
+    @property
+    def checks(self) -> _Checks | None: ...
 
 
 def stored_values(quantity: Any, dimension: Dimension) -> np.ndarray:
@@ -164,6 +183,18 @@ def stored_number(quantity: Any, dimension: Dimension) -> float:
     return float(stored_values(quantity, dimension)[0])
 
 
+def _stored_optional(quantity: Any, dimension: Dimension) -> np.ndarray | None:
+    """:func:`stored_values` of a member the answer omits where the run has none."""
+    return None if quantity is None else stored_values(quantity, dimension)
+
+
+def _stored_optional_number(quantity: Any, dimension: Dimension) -> float | None:
+    """:func:`stored_number` of a member that may be absent or null."""
+    if quantity is None or (isinstance(quantity, Mapping) and quantity.get("value") is None):
+        return None
+    return stored_number(quantity, dimension)
+
+
 @dataclass(frozen=True)
 class _StoredSeries:
     time: np.ndarray
@@ -172,6 +203,10 @@ class _StoredSeries:
     vapor_pressure: np.ndarray
     product_vapor_pressure: np.ndarray
     product_temperature: np.ndarray
+    condenser_load: np.ndarray
+    core_temperature: np.ndarray | None
+    surface_temperature: np.ndarray | None
+    air_flux_ratio: np.ndarray | None
 
 
 @dataclass(frozen=True)
@@ -185,6 +220,12 @@ class _StoredCheck:
     time: float
     temperature_limit: float
     met: bool
+    applies_to: str
+
+
+@dataclass(frozen=True)
+class _StoredChecks:
+    trap_refrigeration_capacity: float | None
 
 
 @dataclass(frozen=True)
@@ -193,6 +234,7 @@ class _StoredSummary:
     end_time: float
     final_temperature: float
     evaporated_mass: float
+    final_core_temperature: float | None
 
 
 @dataclass(frozen=True)
@@ -201,6 +243,7 @@ class _StoredSimulation:
     events: tuple[_StoredEvent, ...]
     schedule: tuple[_StoredCheck, ...]
     summary: _StoredSummary
+    checks: _StoredChecks | None
 
 
 def _stored_simulation(answer: Mapping[str, Any]) -> _StoredSimulation:
@@ -215,6 +258,10 @@ def _stored_simulation(answer: Mapping[str, Any]) -> _StoredSimulation:
             vapor_pressure=stored_values(series["vapor_pressure"], pressure),
             product_vapor_pressure=stored_values(series["product_vapor_pressure"], pressure),
             product_temperature=stored_values(series["product_temperature"], temperature),
+            condenser_load=stored_values(series["condenser_load"], Dimension.POWER),
+            core_temperature=_stored_optional(series.get("core_temperature"), temperature),
+            surface_temperature=_stored_optional(series.get("surface_temperature"), temperature),
+            air_flux_ratio=_stored_optional(series.get("air_flux_ratio"), Dimension.DIMENSIONLESS),
         ),
         events=tuple(
             _StoredEvent(str(event["name"]), stored_number(event["time"], time))
@@ -225,6 +272,7 @@ def _stored_simulation(answer: Mapping[str, Any]) -> _StoredSimulation:
                 stored_number(check["time"], time),
                 stored_number(check["temperature_limit"], temperature),
                 bool(check["met"]),
+                str(check.get("applies_to", "")),
             )
             for check in answer["schedule"]
         ),
@@ -233,6 +281,16 @@ def _stored_simulation(answer: Mapping[str, Any]) -> _StoredSimulation:
             end_time=stored_number(summary["end_time"], time),
             final_temperature=stored_number(summary["final_temperature"], temperature),
             evaporated_mass=stored_number(summary["evaporated_mass"], Dimension.MASS),
+            final_core_temperature=_stored_optional_number(
+                summary.get("final_core_temperature"), temperature
+            ),
+        ),
+        checks=None
+        if answer.get("checks") is None
+        else _StoredChecks(
+            _stored_optional_number(
+                answer["checks"].get("trap_refrigeration_capacity"), Dimension.POWER
+            )
         ),
     )
 
@@ -395,7 +453,9 @@ _TRAP_LIMIT_BAND: Final = 1e-9
 """Relative: the trap governs where its load is within this of its refrigeration capacity."""
 
 
-def _shade_limits(axis: Any, time: np.ndarray, result: VacuumChamberResult) -> None:
+def _shade_limits(
+    axis: Any, time: np.ndarray, result: SimulationTrace | VacuumChamberResult
+) -> None:
     """Shade the times when the trap's refrigeration capacity or the diffusion of vapor
     through the air (kinetic evaporation) governs, with a legend entry each."""
     series = result.series

@@ -419,6 +419,12 @@ class ChamberStatesOut(ApiModel):
         description="At the surface of the product's items, with `product.interior`; omitted "
         "without (SI: K).",
     )
+    air_flux_ratio: QuantityOutput | None = Field(
+        None,
+        description="Kinetic evaporation only: the evaporation flux with the air's resistance "
+        "over the surface (kinetic) flux alone; below 0.5 the diffusion of vapor through the "
+        "air governs. Omitted in the equilibrium mode and in event states (dimensionless).",
+    )
 
 
 class SimulationEventOut(ApiModel):
