@@ -30,12 +30,19 @@ from collections.abc import Callable, MutableMapping, Sequence
 from pathlib import Path
 from typing import Any
 
-import httpx
-import numpy as np
-import orjson
-from loopback import running_server
-
 _FOLDER = Path(__file__).resolve().parent
+# This checkout's service package, whatever else the environment has installed (an editable
+# install may point at another checkout); the servers started below inherit it too.
+sys.path.insert(0, str(_FOLDER.parent))
+os.environ["PYTHONPATH"] = os.pathsep.join(
+    [str(_FOLDER.parent), *filter(None, [os.environ.get("PYTHONPATH")])]
+)
+
+import httpx  # noqa: E402
+import numpy as np  # noqa: E402
+import orjson  # noqa: E402
+from loopback import running_server  # noqa: E402
+
 _FLOOR = [sys.executable, str(_FOLDER / "floor_servers.py")]
 _RUNS = 3
 _TICKS = os.sysconf("SC_CLK_TCK")
