@@ -167,7 +167,8 @@ def _profile() -> None:
             await run(1000)
             profiler.disable()
             text = io.StringIO()
-            stats = pstats.Stats(profiler, stream=text).sort_stats("cumulative")
+            order = os.environ.get("TRIPOINT_BENCH_SORT", "cumulative")
+            stats = pstats.Stats(profiler, stream=text).sort_stats(order)
             stats.print_stats(40)
             print(text.getvalue())
 

@@ -20,7 +20,7 @@ from fastapi.routing import APIRoute
 from service.api.http.body_media import check_body_media_type
 from service.api.http.sent_units import begin_request
 
-__all__ = ["StrictQueryRoute"]
+__all__ = ["StrictQueryRoute", "begin_checked_request"]
 
 Handler = Callable[[Request], Coroutine[Any, Any, Response]]
 
@@ -46,18 +46,30 @@ class StrictQueryRoute(APIRoute):
         takes_body = self.body_field is not None
 
         async def checked(request: Request) -> Response:
-            begin_request()
-            if takes_body:
-                check_body_media_type(request, _taken(request))
-            if request.scope.get("query_string"):
-                unknown = [name for name in request.query_params if name not in declared]
-                if unknown:
-                    raise RequestValidationError(
-                        [_unknown(name, declared, request.method) for name in unknown]
-                    )
+            begin_checked_request(request, declared, takes_body=takes_body)
             return await handler(request)
 
         return checked
+
+
+def begin_checked_request(request: Request, declared: frozenset[str], *, takes_body: bool) -> None:
+    """What every route does before its handler: start the request's unit notes, refuse a
+    body that is not JSON (or CSV where the path takes it) and undeclared query parameters.
+
+    Raises
+    ------
+    RequestValidationError
+        For each query parameter not in ``declared``.
+    """
+    begin_request()
+    if takes_body:
+        check_body_media_type(request, _taken(request))
+    if request.scope.get("query_string"):
+        unknown = [name for name in request.query_params if name not in declared]
+        if unknown:
+            raise RequestValidationError(
+                [_unknown(name, declared, request.method) for name in unknown]
+            )
 
 
 def _unknown(name: str, declared: frozenset[str], method: str) -> dict[str, Any]:
