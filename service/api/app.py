@@ -5,7 +5,7 @@ from __future__ import annotations
 import asyncio
 import contextlib
 import logging
-from collections.abc import AsyncIterator, Sequence
+from collections.abc import AsyncIterator, Collection, Sequence
 from typing import Any
 
 import anyio.to_thread
@@ -161,6 +161,7 @@ def create_app(
     *,
     store: RecordStore | None = None,
     csv_routes: Sequence[CsvRoute] = CSV_ROUTES,
+    direct_routes: Collection[str] = DIRECT_ROUTES,
 ) -> FastAPI:
     """Build the ASGI application.
 
@@ -172,6 +173,8 @@ def create_app(
         Calculation-record store; ``None`` opens ``settings.database_url``.
     csv_routes
         Routes that speak CSV (tests add their own).
+    direct_routes
+        GET routes served past the router (tests compare the two paths with none).
     """
     settings = settings or get_settings()
     app = FastAPI(
@@ -212,7 +215,7 @@ def create_app(
     app.add_middleware(
         DirectRoutes,
         routes=lambda: app.routes,
-        paths=DIRECT_ROUTES,
+        paths=direct_routes,
         exception_handlers=lambda: app.exception_handlers,
     )
     app.add_middleware(

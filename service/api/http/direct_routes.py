@@ -96,8 +96,8 @@ class DirectRoutes:
     Parameters
     ----------
     routes
-        Returns the application's routes (called once, on the first request, when every
-        router is included).
+        Returns the application's routes (called once, at startup or on the first request,
+        when every router is included).
     paths
         The route paths served directly.
     exception_handlers
@@ -145,7 +145,9 @@ class DirectRoutes:
         return table
 
     async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
-        if scope["type"] == "http" and scope["method"] == "GET":
+        if scope["type"] == "lifespan" and self._table is None:
+            self._build()  # at startup, so that a path that does not qualify stops it
+        elif scope["type"] == "http" and scope["method"] == "GET":
             table = self._table if self._table is not None else self._build()
             direct = table.get(get_route_path(scope))
             if direct is not None:
