@@ -13,9 +13,9 @@ from __future__ import annotations
 import re
 from collections.abc import Iterator
 
+import httpx2 as _httpx  # the HTTP client starlette's TestClient runs on
 import pytest
 from fastapi.testclient import TestClient
-from httpx import Response
 from operations_support import KEY
 
 from service.api.app import DIRECT_ROUTES, create_app
@@ -77,7 +77,7 @@ def _without_time(body: bytes) -> bytes:
     return _TIME.sub(b"<time>", body)
 
 
-def _headers(answer: Response) -> list[tuple[str, str]]:
+def _headers(answer: _httpx.Response) -> list[tuple[str, str]]:
     """The header fields; a gzip-coded answer's length depends on its clock, so not it."""
     coded = answer.headers.get("content-encoding") == "gzip"
     return sorted(
@@ -98,7 +98,7 @@ def clients(settings: Settings) -> Iterator[tuple[TestClient, TestClient]]:
 
 def _send(
     client: TestClient, method: str, path: str, headers: dict[str, str], number: int
-) -> Response:
+) -> _httpx.Response:
     request_id = f"direct-route-case-{number}"
     sent = {"x-request-id": request_id, "accept-encoding": "identity", **headers}
     return client.request(method, path, headers=sent)
