@@ -13,6 +13,7 @@ from __future__ import annotations
 from collections.abc import Callable, Coroutine
 from typing import Any
 
+import orjson
 from fastapi import Request, Response
 from fastapi.exceptions import RequestValidationError
 from fastapi.routing import APIRoute
@@ -21,6 +22,11 @@ from service.api.http.body_media import check_body_media_type
 from service.api.http.sent_units import begin_request
 
 __all__ = ["StrictQueryRoute", "begin_checked_request"]
+
+_DIGITS_AS_ZERO = bytes(0x30 if 0x30 <= byte <= 0x39 else 0x20 for byte in range(256))
+"""A ``bytes.translate`` table: every digit to ``0``, anything else to a space."""
+_LONG_DIGIT_RUN = b"0" * 19
+"""19 digits: the shortest integer literal that may fall outside 64 bits."""
 
 Handler = Callable[[Request], Coroutine[Any, Any, Response]]
 
@@ -47,9 +53,32 @@ class StrictQueryRoute(APIRoute):
 
         async def checked(request: Request) -> Response:
             begin_checked_request(request, declared, takes_body=takes_body)
+            if takes_body:
+                await read_json_body(request)
             return await handler(request)
 
         return checked
+
+
+async def read_json_body(request: Request) -> None:
+    """Parse the request's JSON body with orjson before FastAPI asks for it.
+
+    FastAPI reads a JSON body with ``request.json()``, the standard library's parser: about
+    1.4 ms for the 150 kB of a 10,000-point batch, against 0.3 ms for orjson (profiled).
+    The parsed body is left where ``request.json()`` keeps it, so FastAPI takes it from
+    there. Whatever orjson refuses (``NaN`` literals, lone surrogates, UTF-16, a malformed
+    body) is left to the standard parser, and so is a body with a run of 19 digits or more
+    (orjson reads an integer beyond 64 bits as a float, the standard parser as an int):
+    the values read and the errors answered are the ones FastAPI gives on its own.
+    """
+    body = await request.body()
+    if not body or _LONG_DIGIT_RUN in body.translate(_DIGITS_AS_ZERO):
+        return
+    try:
+        parsed = orjson.loads(body)
+    except orjson.JSONDecodeError:
+        return
+    request._json = parsed  # Starlette's cache of request.json()
 
 
 def begin_checked_request(request: Request, declared: frozenset[str], *, takes_body: bool) -> None:
