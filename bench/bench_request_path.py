@@ -1,16 +1,24 @@
 """Server CPU per request along the request path, against a bare framework and a raw floor.
 
-Run ``python bench/bench_request_path.py`` (``--profile`` adds a sorted cProfile of the
-in-process request path of the one-point lookup). Starts three servers on loopback, one
-uvicorn worker each: a bare Starlette app, a raw ASGI floor that reads the query, calls the
-core's saturation lookup and writes orjson (``floor_servers.py``), and tripoint itself
-(``python -m service``). One keep-alive connection sends the requests one after another;
-the figure is the server process's CPU time (user + system, from /proc) per request, best of
-three runs, so the client's own cost does not count. Scenarios: the bare route, the floor
-lookup, tripoint's ``/health``, a one-point saturation lookup (GET), a 1,000-point lookup
-(POST JSON) and a flash-freeze balance (POST). Beside them, in this process: the core's
-10,000-point saturation lookup plus orjson of its arrays, against tripoint's 10,000-point
-POST (asked uncompressed, and once more with gzip).
+Run ``python bench/bench_request_path.py`` from the checkout (it imports that checkout's
+``service``): it prints the table and the three ratios against their goals. Three servers
+on loopback, one uvicorn worker each: a bare Starlette app, a raw ASGI floor that reads the
+query, calls the core's saturation lookup and writes orjson (``floor_servers.py``), and
+tripoint itself (``python -m service``). One keep-alive connection sends the requests one
+after another; the figure is the server process's CPU time (user + system, from /proc) per
+request, best of three runs, so the client's own cost does not count. Scenarios: the bare
+route, the floor lookup, tripoint's ``/health``, a one-point saturation lookup (GET), a
+1,000-point lookup (POST JSON) and a flash-freeze balance (POST). Beside them, in this
+process: the core's 10,000-point saturation lookup plus orjson of its arrays, against
+tripoint's 10,000-point POST (asked uncompressed, and once more with gzip).
+
+Other modes, instead of the table:
+
+- ``--profile``: a cProfile of the one-point lookup through the whole app in process,
+  sorted by cumulative time (``TRIPOINT_BENCH_SORT=tottime``: by own time);
+- ``--workers``: requests per second of one-point lookups from 16 connections with
+  ``--workers 1`` and ``--workers 2`` (``TRIPOINT_BENCH_SECONDS`` each, default 15; wrk
+  when installed, else an httpx client on the same cores).
 
 Goals (issue: request path at the floor): ``/health`` <= 2 x the bare Starlette route; a
 one-point lookup <= 1.5 x the raw ASGI floor; a 10,000-point JSON batch <= 1.3 x the
@@ -41,12 +49,13 @@ os.environ["PYTHONPATH"] = os.pathsep.join(
 import httpx  # noqa: E402
 import numpy as np  # noqa: E402
 import orjson  # noqa: E402
-from loopback import running_server  # noqa: E402
+from loopback import Request, drive, running_server  # noqa: E402
 
 _FLOOR = [sys.executable, str(_FOLDER / "floor_servers.py")]
 _RUNS = 3
 _TICKS = os.sysconf("SC_CLK_TCK")
 _REQUESTS = int(os.environ.get("TRIPOINT_BENCH_REQUESTS", "3000"))
+_WORKERS_SECONDS = float(os.environ.get("TRIPOINT_BENCH_SECONDS", "15"))
 
 HEALTH_GOAL = 2.0
 LOOKUP_GOAL = 1.5
@@ -175,10 +184,33 @@ def _profile() -> None:
     asyncio.run(main())
 
 
+def _workers_throughput(seconds: float = _WORKERS_SECONDS) -> None:
+    """Requests per second of one-point lookups from 16 keep-alive connections, for
+    ``--workers 1`` and ``--workers 2`` (``loopback.drive``: wrk when installed)."""
+    shapes = [Request(method, path, body) for method, path, body in _lookups()]
+    rates: dict[int, float] = {}
+    for workers in (1, 2):
+        command = [sys.executable, "-m", "service", "--workers", str(workers)]
+        with running_server(command) as server:
+            drive(server.base_url, shapes, concurrency=16, seconds=2)  # every worker warm
+            result = drive(server.base_url, shapes, concurrency=16, seconds=seconds)
+        rates[workers] = result.per_second
+        print(
+            f"  --workers {workers}: {result.per_second:8.0f} requests/s, median "
+            f"{result.median * 1e3:.1f} ms, p99 {result.p99 * 1e3:.1f} ms, "
+            f"{result.errors} errors ({result.generator})"
+        )
+    print(f"--workers 2 / --workers 1 throughput: {rates[2] / rates[1]:.2f}")
+    print(f"(on {os.cpu_count()} cores shared with the load generator)")
+
+
 def main() -> int:
     """Measure every scenario, print the table and the three goals."""
     if "--profile" in sys.argv:
         _profile()
+        return 0
+    if "--workers" in sys.argv:
+        _workers_throughput()
         return 0
     rows: dict[str, float] = {}
     scenarios: list[tuple[str, Callable[[], Any], list[Call], int]] = [
