@@ -285,14 +285,18 @@ def _incoming_request_id(scope: Scope) -> str | None:
 
 
 def _set_request_id(start: Message, value: bytes) -> None:
-    """Put ``X-Request-ID`` on an answer's start message, replacing one already there."""
-    headers = start.setdefault("headers", [])
-    if not isinstance(headers, list):
-        headers = start["headers"] = list(headers)
-    kept = [(name, field) for name, field in headers if name.lower() != _REQUEST_ID_HEADER]
-    if len(kept) != len(headers):
-        headers[:] = kept
-    headers.append((_REQUEST_ID_HEADER, value))
+    """Put ``X-Request-ID`` on an answer's start message as ``MutableHeaders`` would: in
+    place of the first one already there (others dropped), else at the end."""
+    headers = start.get("headers")
+    headers = [] if headers is None else list(headers)
+    start["headers"] = headers
+    found = [index for index, (name, _) in enumerate(headers) if name == _REQUEST_ID_HEADER]
+    if not found:
+        headers.append((_REQUEST_ID_HEADER, value))
+        return
+    for index in reversed(found[1:]):
+        del headers[index]
+    headers[found[0]] = (_REQUEST_ID_HEADER, value)
 
 
 class RequestObservation:
