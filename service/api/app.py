@@ -5,12 +5,13 @@ from __future__ import annotations
 import asyncio
 import contextlib
 import logging
-from collections.abc import AsyncIterator, Sequence
+from collections.abc import AsyncIterator, Collection, Sequence
 from typing import Any
 
 import anyio.to_thread
 from fastapi import FastAPI
 from fastapi.openapi.utils import get_openapi
+from fastapi.telemetry import TelemetryConfig
 from starlette.middleware.cors import CORSMiddleware
 
 from service import __version__
@@ -23,6 +24,7 @@ from service.api.http.caching import Validators, document_caching
 from service.api.http.compression import Compression
 from service.api.http.contract import document_contract
 from service.api.http.csv_io import CsvAdapter, CsvRoute, document_csv
+from service.api.http.direct_routes import DirectRoutes
 from service.api.http.docs_assets import install_offline_docs
 from service.api.http.examples import (
     add_examples_to_openapi,
@@ -48,7 +50,7 @@ from service.core.properties.lookups import saturation_point_lookup
 from service.records import RecordStore, StoreUnavailableError
 from service.settings import Settings, get_settings
 
-__all__ = ["CSV_ROUTES", "EXPOSED_HEADERS", "create_app"]
+__all__ = ["CSV_ROUTES", "DIRECT_ROUTES", "EXPOSED_HEADERS", "create_app"]
 
 _log = logging.getLogger("tripoint.app")
 
@@ -59,6 +61,17 @@ CSV_ROUTES = (
     CsvRoute("/v1/design-spaces/", one_call_per_row=True, answer_part="cells"),
 )
 """Routes that take ``text/csv`` bodies and give ``text/csv`` answers (see csv_io)."""
+
+DIRECT_ROUTES = (
+    "/health",
+    "/v1/properties/saturation",
+    "/v1/properties/sublimation",
+    "/v1/properties/melting",
+    "/v1/properties/state",
+    "/v1/properties/constants",
+)
+"""GET routes served past the router (see direct_routes): the liveness check and the
+one-point lookups, whose computation costs less than FastAPI's routing around it."""
 
 COMPRESSION_MINIMUM_BYTES = 1024
 """Answers this long or longer are gzip-coded for clients that accept gzip."""
@@ -73,6 +86,8 @@ def _is_lookup(path: str) -> bool:
 
 EXPOSED_HEADERS = ["X-Request-ID", "X-Calculation-ID", "ETag"]
 """Answer headers a browser script may read under CORS (a plot's record id among them)."""
+
+_NO_TELEMETRY: TelemetryConfig = {"tracing": False, "metrics": False, "logs": False}
 
 _DESCRIPTION = """
 Water, ice and vapor phase-change energy calculations for vacuum cooling,
@@ -147,6 +162,7 @@ def create_app(
     *,
     store: RecordStore | None = None,
     csv_routes: Sequence[CsvRoute] = CSV_ROUTES,
+    direct_routes: Collection[str] = DIRECT_ROUTES,
 ) -> FastAPI:
     """Build the ASGI application.
 
@@ -158,6 +174,8 @@ def create_app(
         Calculation-record store; ``None`` opens ``settings.database_url``.
     csv_routes
         Routes that speak CSV (tests add their own).
+    direct_routes
+        GET routes served past the router (tests compare the two paths with none).
     """
     settings = settings or get_settings()
     app = FastAPI(
@@ -168,6 +186,9 @@ def create_app(
         docs_url=None,
         redoc_url=None,
         lifespan=_lifespan,
+        # The service observes itself (observability.py: Prometheus metrics, JSON logs);
+        # FastAPI's own OpenTelemetry hooks would only look for providers on every request.
+        telemetry=_NO_TELEMETRY,
     )
     metrics = Metrics()
     app.state.settings = settings
@@ -193,6 +214,12 @@ def create_app(
     app.include_router(sources.router)
 
     # Added inner to outer: the last one added sees the request first.
+    app.add_middleware(
+        DirectRoutes,
+        routes=lambda: app.routes,
+        paths=direct_routes,
+        exception_handlers=lambda: app.exception_handlers,
+    )
     app.add_middleware(
         CsvAdapter,
         routes=csv_routes,

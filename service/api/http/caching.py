@@ -25,6 +25,7 @@ from typing import Any
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.negotiation import CHOSEN_MEDIA_TYPE
+from service.api.http.request_head import request_head
 
 __all__ = [
     "MAX_AGE_SECONDS",
@@ -89,13 +90,9 @@ class Validators:
         ):
             await self.app(scope, receive, send)
             return
-        accept: bytes = b""
-        condition: str | None = None
-        for name, value in scope.get("headers", []):
-            if name == b"accept":
-                accept = bytes(value)
-            elif name == b"if-none-match":
-                condition = bytes(value).decode("latin-1")
+        head = request_head(scope)
+        accept = head.last_accept
+        condition = head.if_none_match
         media_type = scope.get("state", {}).get(CHOSEN_MEDIA_TYPE) or accept.decode("latin-1")
         tag = entity_tag(self.version, scope["path"], scope.get("query_string", b""), media_type)
         fields = [(b"etag", tag.encode()), (b"cache-control", self._cache_control)]

@@ -15,6 +15,7 @@ a large answer never holds the event loop (and ``/health``) for its duration.
 
 from __future__ import annotations
 
+import functools
 import gzip
 import zlib
 from typing import Final
@@ -22,6 +23,8 @@ from typing import Final
 import anyio.to_thread
 from starlette.datastructures import Headers, MutableHeaders
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
+
+from service.api.http.request_head import request_head
 
 __all__ = ["Compression", "accepts_gzip"]
 
@@ -49,8 +52,12 @@ def _compressible(content_type: str) -> bool:
     return (media.startswith("text/") and media != "text/event-stream") or media in _COMPRESSIBLE
 
 
+@functools.lru_cache(maxsize=256)
 def accepts_gzip(accept_encoding: str | None) -> bool:
-    """Whether an ``Accept-Encoding`` value accepts gzip (by name or ``*``) with q > 0."""
+    """Whether an ``Accept-Encoding`` value accepts gzip (by name or ``*``) with q > 0.
+
+    Answers are cached per value: clients repeat their headers.
+    """
     if not accept_encoding:
         return False
     named: float | None = None
@@ -92,7 +99,7 @@ class Compression:
         self.level = level
 
     async def __call__(self, scope: Scope, receive: Receive, send: Send) -> None:
-        if scope["type"] != "http" or not accepts_gzip(_header(scope, b"accept-encoding")):
+        if scope["type"] != "http" or not accepts_gzip(request_head(scope).accept_encoding):
             await self.app(scope, receive, send)
             return
         start: Message | None = None
@@ -157,10 +164,3 @@ class Compression:
             await send({"type": "http.response.body", "body": chunk, "more_body": more})
 
         await self.app(scope, receive, compress)
-
-
-def _header(scope: Scope, wanted: bytes) -> str | None:
-    for name, value in scope.get("headers", []):
-        if name == wanted:
-            return bytes(value).decode("latin-1")
-    return None

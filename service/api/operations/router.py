@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+import functools
 import logging
 
 import anyio
 import anyio.to_thread
+import orjson
 from fastapi import APIRouter, Request
 from starlette.responses import Response
 
@@ -22,10 +24,17 @@ _READY_TIMEOUT_SECONDS = 5.0
 _log = logging.getLogger("tripoint.ready")
 
 
+@functools.cache
+def _health_body() -> bytes:
+    """The liveness answer, rendered once: it never changes while the process runs."""
+    answer = HealthPublic(status="ok", service_version=__version__)
+    return orjson.dumps(answer.model_dump(mode="json", by_alias=True))
+
+
 @router.get("/health", operation_id="get_health", response_model=HealthPublic)
-async def get_health() -> HealthPublic:
+async def get_health() -> Response:
     """Liveness: the process is up and answering. Never needs a key."""
-    return HealthPublic(status="ok", service_version=__version__)
+    return Response(content=_health_body(), media_type="application/json")
 
 
 def _check(keeper: RecordKeeper) -> int:

@@ -13,12 +13,12 @@ import uuid
 from typing import Any
 
 import pytest
+from csv_support import read_csv_answer
 from fastapi.testclient import TestClient
 from pydantic import TypeAdapter
 
 from service.api.calculations.schemas import STORED_MODELS, CalculationPublic, RecordKind
 from service.api.http.examples import RequestExample, default_examples_folder, load_examples
-from csv_support import read_csv_answer
 
 _SUCCESSES = [
     example
