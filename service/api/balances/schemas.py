@@ -114,7 +114,8 @@ class SoluteInput(ApiModel):
         None,
         description="A named solute: `sodium chloride` (Pitzer model, to the eutectic "
         "w = 0.233), `sucrose` (Norrish, to 0.5), `glucose`, `fructose` (Norrish, to 0.3), "
-        "`glycerol` (Norrish, to 0.4), `propylene glycol` (Norrish, to 0.3) or `seawater` "
+        "`glycerol` (Norrish, to 0.4), `propylene glycol` (Norrish, to 0.3), `ethanol` "
+        "(Melinder's freezing line, to 0.5; its own vapor not counted) or `seawater` "
         "(IAPWS R13-08 water activity; `mass_fraction` is the absolute salinity, to 0.12, "
         'e.g. `"35 g/kg"`): molar mass, specific heat and activity model from the table. '
         "Omit to give `molar_mass`.",

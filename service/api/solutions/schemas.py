@@ -22,7 +22,8 @@ __all__ = [
 _NAMES = (
     "`sodium chloride` (Pitzer, to the eutectic w = 0.233), `sucrose` (Norrish, to 0.5), "
     "`glucose`, `fructose` (Norrish, to 0.3), `glycerol` (Norrish, to 0.4), "
-    "`propylene glycol` (Norrish, to 0.3)"
+    "`propylene glycol` (Norrish, to 0.3), `ethanol` (Melinder's freezing line, to 0.5; "
+    "water vapor only, ethanol's own vapor not counted)"
 )
 _TEMPERATURE = (
     "Temperature: a number in K or with a unit (`-5 degC`); a batch "

@@ -82,6 +82,7 @@ from service.core.properties.sources import (
     PropertySource,
 )
 from service.core.solutions.aqueous import SolutionModel
+from service.core.solutions.ethanol import ETHANOL_CAUTION
 from service.core.solutions.glass import FREEZE_CONCENTRATION_DATA, GLASS_SOURCE
 from service.core.solutions.lookups import solution_source
 
@@ -1056,6 +1057,8 @@ def _assumptions(case: FlashFreezeCase) -> tuple[str, ...]:
             "unfrozen solution (no eutectic crystallization, none in the ice) and adds only "
             "m_s c_s dT. Vapor pressure over the solution from equal chemical potentials."
         )
+        if case.solute.name == "ethanol":
+            items.append(ETHANOL_CAUTION)
     if case.nucleation_temperature is not None:
         items.append(
             "Supercooling: the liquid stays liquid down to the nucleation temperature; "

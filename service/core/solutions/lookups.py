@@ -22,6 +22,7 @@ from service.core.properties.phase import FloatArray
 from service.core.properties.phase_lines import sublimation_pressure
 from service.core.properties.sources import PropertySource
 from service.core.solutions.aqueous import ActivityModelName, SolutionModel, solution_model
+from service.core.solutions.ethanol import ETHANOL_CAUTION
 from service.core.solutions.foods import FOOD_MODEL_REFERENCE, food_freezing
 from service.core.solutions.freezing import solution_freezing
 from service.core.solutions.glass import (
@@ -75,6 +76,21 @@ _NORRISH_SOURCE: Final = PropertySource(
     scope="Water activity of aqueous sugars and polyols.",
 )
 
+_MELINDER_SOURCE: Final = PropertySource(
+    formulation="Melinder ethyl alcohol freezing line",
+    release="Melinder (2010)",
+    year=2010,
+    title=(
+        "Properties of Secondary Working Fluids for Indirect Systems, 2nd ed. (International "
+        "Institute of Refrigeration): ethyl alcohol, freezing point; water activity from it "
+        "after Ferro Fontan and Chirife (1981, J. Food Technol. 16, 21)"
+    ),
+    scope=(
+        "Freezing point and water activity of aqueous ethanol to w = 0.5 (activity taken "
+        "independent of temperature)."
+    ),
+)
+
 _IDEAL_SOURCE: Final = PropertySource(
     formulation="Ideal (Raoult) solution",
     release="Raoult's law",
@@ -123,6 +139,7 @@ def solution_source(model: SolutionModel) -> PropertySource:
         "pitzer": _PITZER_SOURCE,
         "norrish": _NORRISH_SOURCE,
         "seawater": SEAWATER_SOURCE,
+        "melinder": _MELINDER_SOURCE,
     }.get(model.model, _IDEAL_SOURCE)
 
 
@@ -344,6 +361,8 @@ def ice_fraction_lookup(
         used = (solution_source(chosen), sources.IAPWS_95, sources.ICE_IH)
         used = (*used, sources.MELTING_AND_SUBLIMATION)
         assumptions = _ASSUMPTIONS
+        if chosen.name == "ethanol":
+            assumptions = (*_ASSUMPTIONS, ETHANOL_CAUTION)
         uncertainties = [
             ReportedUncertainty(
                 quantity="freezing_point",
@@ -355,13 +374,20 @@ def ice_fraction_lookup(
                     "secondary coolants; values from memory): sodium chloride within 0.05 K "
                     "to 5 %, 0.15 K to 15 %, 0.6 K at the eutectic; sucrose 0.2 K to 50 %; "
                     "glucose and fructose 0.05 K to 10 %, 0.5 K at 30 %; glycerol 0.05 K "
-                    "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %."
+                    "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %. Ethanol "
+                    "(Melinder's line): within 0.8 K of the Engineering ToolBox table (whole "
+                    "degC) and 0.45 K of the CRC rows (from memory) to 40 %; 3.5 % shallower "
+                    "than the cryoscopic law at 1 %."
                     if chosen.model != "ideal"
                     else "The ideal solution has no activity coefficient: for sodium chloride "
                     "its onset is about 0.18 K too deep at 3.5 %, and the error grows with "
                     "concentration."
                 ),
-                source="tests/reference/test_aqueous_freezing_points.py",
+                source=(
+                    "tests/reference/test_ethanol_freezing_points.py"
+                    if chosen.name == "ethanol"
+                    else "tests/reference/test_aqueous_freezing_points.py"
+                ),
                 basis="comparison",
             )
         ]

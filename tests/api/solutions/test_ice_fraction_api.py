@@ -268,3 +268,22 @@ def test_food_bad_input_names_the_field(
     assert response.status_code == 422, response.text
     assert response.headers["content-type"].startswith("application/problem+json")
     assert field in response.json()["detail"]
+
+
+def test_ethanol_names_its_model_and_the_flammable_vapor(client: TestClient) -> None:
+    response = _post(
+        client, {"temperature": "-10 degC", "solute": {"name": "ethanol", "mass_fraction": 0.1}}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    # Melinder's line: -4.33 degC at 10 %; the Engineering ToolBox and CRC tables are
+    # checked in tests/reference/test_ethanol_freezing_points.py
+    assert answer["freezing_point"]["value"] - 273.15 == pytest.approx(-4.33, abs=0.02)
+    assert answer["ice_fraction"]["value"] > 0.4
+    assert any(source["release"] == "Melinder (2010)" for source in answer["property_sources"])
+    assert any("flammable" in text for text in answer["assumptions"])
+    too_strong = _post(
+        client, {"temperature": "-10 degC", "solute": {"name": "ethanol", "mass_fraction": 0.6}}
+    )
+    assert too_strong.status_code == 422
+    assert "solute.mass_fraction" in too_strong.text
