@@ -421,6 +421,11 @@ def read_evaporative_cooling(
     final = reader.read(body.final_temperature, "final_temperature", Dimension.TEMPERATURE)
     specific_heat = reader.optional(body.specific_heat, "specific_heat", Dimension.SPECIFIC_ENTROPY)
     composition: dict[str, str] | None = None
+    if body.composition is not None and body.composition.dissolved_solutes:
+        raise InvalidInputError(
+            "composition.dissolved_solutes",
+            "not taken by evaporative cooling yet: give `freezing_point` or `dissolved_solids`",
+        )
     if body.composition is not None:
         composition = {
             name: reader.read(

@@ -371,6 +371,19 @@ class CompositionInput(ApiModel):
     )
     fiber: QuantityInput = Field(0.0, description=_described("Fiber, 0 to 1 (unit 1)."))
     ash: QuantityInput = Field(0.0, description=_described("Ash, 0 to 1 (unit 1)."))
+    dissolved_solutes: dict[str, QuantityInput] | None = Field(
+        None,
+        max_length=4,
+        description=(
+            "Solutes dissolved in the food's water, kg per kg of FOOD (part of the fractions "
+            "above, adding no mass: `sucrose`, `glucose`, `fructose` of the `carbohydrate`, "
+            '`sodium chloride` of the `ash`), e.g. `{"fructose": 0.059, "glucose": 0.024}`. '
+            "Default none. Without a given `freezing_point`, the food's initial freezing "
+            "point is estimated from them (Ross's rule over each solute's published model, "
+            "in the water not bound by protein); with none named, from the composition alone "
+            '(Pham 1996). Values in unit 1 (`"0.5 %"` works); single values.'
+        ),
+    )
 
 
 class DissolvedSolidsInput(ApiModel):

@@ -23,6 +23,11 @@ from service.core.properties.phase_lines import sublimation_pressure
 from service.core.properties.sources import PropertySource
 from service.core.solutions.aqueous import ActivityModelName, SolutionModel, solution_model
 from service.core.solutions.ethanol import ETHANOL_CAUTION
+from service.core.solutions.food_freezing_point import (
+    FreezingPointBasis,
+    dissolved_fractions,
+    estimate_food_freezing_point,
+)
 from service.core.solutions.foods import FOOD_MODEL_REFERENCE, food_freezing
 from service.core.solutions.freezing import solution_freezing
 from service.core.solutions.glass import (
@@ -193,6 +198,9 @@ class IceFractionStates:
         For a sugar with published constants.
     apparent_specific_heat : ndarray or None
         J/(kg K), dh/dT of a food at constant pressure; None for solutions and seawater.
+    freezing_point_basis : str or None
+        A food's: ``"given"`` or how it was estimated from the composition
+        (:mod:`service.core.solutions.food_freezing_point`); None otherwise.
     """
 
     temperature: FloatArray
@@ -208,6 +216,7 @@ class IceFractionStates:
     model: str
     freeze_concentration: FreezeConcentrationLimit | None = None
     apparent_specific_heat: FloatArray | None = None
+    freezing_point_basis: FreezingPointBasis | None = None
 
 
 def _vapor_pressure(
@@ -253,7 +262,9 @@ def ice_fraction_lookup(
         with the temperature.
     composition, freezing_point
         A food instead: its proximate composition and initial freezing point (K, 253.15 K
-        to 273.16 K) (:func:`service.core.solutions.foods.food_freezing`).
+        to 273.16 K) (:func:`service.core.solutions.foods.food_freezing`); without the
+        freezing point it is estimated from the composition
+        (:func:`service.core.solutions.food_freezing_point.estimate_food_freezing_point`).
 
     Returns
     -------
@@ -262,8 +273,8 @@ def ice_fraction_lookup(
     Raises
     ------
     InvalidInputError
-        Not exactly one of a solute, seawater and a composition; a composition without its
-        freezing point; an unknown solute or model; NaN input.
+        Not exactly one of a solute, seawater and a composition; a bad composition or
+        dissolved-solute list; an unknown solute or model; NaN input.
     OutOfRangeError
         An input outside its range (the variable named).
     """
@@ -276,13 +287,26 @@ def ice_fraction_lookup(
     limit: FreezeConcentrationLimit | None = None
     concentration: FloatArray | None
     apparent: FloatArray | None = None
+    basis: FreezingPointBasis | None = None
     if composition is not None:
         if freezing_point is None:
-            raise InvalidInputError(
-                "freezing_point",
-                "required with a composition: the food's initial freezing point (measured, "
-                "or from a handbook table of foods)",
+            estimate = estimate_food_freezing_point(composition)
+            freezing_point = estimate.temperature
+            basis = estimate.basis
+            food_statements: tuple[str, ...] = (estimate.statement,)
+            advisories.append(
+                Advisory(
+                    code="estimated-freezing-point",
+                    message=(
+                        f"The food's initial freezing point, {estimate.temperature - 273.15:.2f} "
+                        f"degC, is estimated from its composition ({estimate.basis}); a "
+                        "measured value is better where the ice fraction near it matters."
+                    ),
+                )
             )
+        else:
+            dissolved_fractions(composition)  # validated even when not needed
+            basis, food_statements = "given", ()
         food = food_freezing(composition, freezing_point, t, pressure)
         ice, water = food.ice_mass_fraction, food.unfrozen_water_fraction
         concentration, log_activity = None, food.log_water_activity
@@ -295,7 +319,7 @@ def ice_fraction_lookup(
             sources.ICE_IH,
             sources.MELTING_AND_SUBLIMATION,
         )
-        assumptions: tuple[str, ...] = (*_ASSUMPTIONS, *_FOOD_ASSUMPTIONS)
+        assumptions: tuple[str, ...] = (*_ASSUMPTIONS, *_FOOD_ASSUMPTIONS, *food_statements)
         uncertainties = [
             ReportedUncertainty(
                 quantity="ice_fraction",
@@ -311,6 +335,23 @@ def ice_fraction_lookup(
                 basis="comparison",
             )
         ]
+        if basis != "given":
+            uncertainties.append(
+                ReportedUncertainty(
+                    quantity="freezing_point",
+                    relative=None,
+                    coverage="as compared",
+                    statement=(
+                        "Estimated from the composition: against the ASHRAE Handbook - "
+                        "Refrigeration (2006) ch. 9 Table 3 (from memory), fruits within "
+                        "0.45 K with their sugars named (vegetables 0.5 K, carrots 1.0 K), "
+                        "0.65 K by Pham's equation; lean beef and cod 1.0-1.5 K too warm by "
+                        "Pham's equation."
+                    ),
+                    source="tests/reference/test_food_freezing_points.py",
+                    basis="comparison",
+                )
+            )
     elif absolute_salinity is not None:
         sea = seawater_freezing(absolute_salinity, t, pressure)
         ice, water = (
@@ -435,6 +476,7 @@ def ice_fraction_lookup(
         model=description,
         freeze_concentration=limit,
         apparent_specific_heat=apparent,
+        freezing_point_basis=basis,
     )
     return Lookup(
         states=states,

@@ -28,7 +28,7 @@ from service.core.balances import (
 
 EVAPORATIVE = "/v1/balances/evaporative-cooling"
 FLASH = "/v1/balances/flash-freeze"
-COMPOSITION = {
+COMPOSITION: dict[str, Any] = {
     "water": 0.9095,
     "protein": 0.0067,
     "fat": 0.0030,
