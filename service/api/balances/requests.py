@@ -421,17 +421,18 @@ def read_evaporative_cooling(
     final = reader.read(body.final_temperature, "final_temperature", Dimension.TEMPERATURE)
     specific_heat = reader.optional(body.specific_heat, "specific_heat", Dimension.SPECIFIC_ENTROPY)
     composition: dict[str, str] | None = None
-    if body.composition is not None and body.composition.dissolved_solutes:
-        raise InvalidInputError(
-            "composition.dissolved_solutes",
-            "not taken by evaporative cooling yet: give `freezing_point` or `dissolved_solids`",
-        )
     if body.composition is not None:
         composition = {
             name: reader.read(
                 getattr(body.composition, name), f"composition.{name}", Dimension.DIMENSIONLESS
             )
             for name in ("water", "protein", "fat", "carbohydrate", "fiber", "ash")
+        }
+    solutes: dict[str, str] = {}
+    if body.composition is not None and body.composition.dissolved_solutes:
+        solutes = {
+            name: reader.read(raw, f"composition.dissolved_solutes.{name}", Dimension.DIMENSIONLESS)
+            for name, raw in body.composition.dissolved_solutes.items()
         }
     freezing = reader.optional(body.freezing_point, "freezing_point", Dimension.TEMPERATURE)
     trap = reader.optional(body.trap_temperature, "trap_temperature", Dimension.TEMPERATURE)
@@ -447,7 +448,12 @@ def read_evaporative_cooling(
         composition=(
             None
             if composition is None
-            else Composition(**{name: reader.value(path) for name, path in composition.items()})
+            else Composition(
+                **{name: reader.value(path) for name, path in composition.items()},
+                dissolved_solutes=tuple(
+                    (name, reader.value(path)) for name, path in solutes.items()
+                ),
+            )
         ),
         companions=_companions(reader, companions),
         heat_gain=_heat_gain(reader, gain),

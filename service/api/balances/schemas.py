@@ -464,8 +464,9 @@ class EvaporativeCoolingCreate(ApiModel):
         None,
         description=_described(
             "Product's initial freezing point. Default unit K; 235 K to 273.16 K. If "
-            "omitted, it is estimated from `dissolved_solids` (with `composition`); with "
-            "neither, pure water's 273.16 K is used, with a warning."
+            "omitted, it is estimated from `dissolved_solids` (with `composition`) or from "
+            "`composition.dissolved_solutes`; with neither, pure water's 273.16 K is used, "
+            "with a warning (the composition alone is not used for this range check)."
         ),
     )
     dissolved_solids: DissolvedSolidsInput | None = Field(
@@ -544,7 +545,8 @@ class EvaporativeCoolingPublic(Envelope):
     )
     freezing_point_basis: FreezingPointBasis = Field(
         description="Where `freezing_point` came from: `given`, `estimated from dissolved "
-        "solids` (method in the assumptions) or `pure water (no data)` (273.16 K, with a "
+        "solids`, `estimated from composition solutes` (`composition.dissolved_solutes`; "
+        "each method in the assumptions) or `pure water (no data)` (273.16 K, with a "
         "warning)."
     )
     trap_temperature: QuantityOutput | None = Field(None, description="As given; null without.")
