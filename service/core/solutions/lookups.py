@@ -40,6 +40,7 @@ from service.core.solutions.seawater import SEAWATER_MODEL_REFERENCE, seawater_f
 from service.core.validation import finite_array
 
 __all__ = [
+    "FOOD_SOURCE",
     "SEAWATER_SOURCE",
     "FreezeConcentrationLimit",
     "IceFractionStates",
@@ -104,7 +105,7 @@ _IDEAL_SOURCE: Final = PropertySource(
     scope="Water activity of a solution without activity coefficients (comparison model).",
 )
 
-_FOOD_SOURCE: Final = PropertySource(
+FOOD_SOURCE: Final = PropertySource(
     formulation="Schwartzberg food freezing model",
     release="Schwartzberg (1976)",
     year=1976,
@@ -314,7 +315,7 @@ def ice_fraction_lookup(
         apparent = food.apparent_specific_heat
         mixture, description = "food", FOOD_MODEL_REFERENCE
         used: tuple[PropertySource, ...] = (
-            _FOOD_SOURCE,
+            FOOD_SOURCE,
             sources.IAPWS_95,
             sources.ICE_IH,
             sources.MELTING_AND_SUBLIMATION,
