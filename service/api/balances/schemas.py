@@ -210,6 +210,29 @@ class FlashFreezeCreate(ApiModel):
         le=2000,
         description="Points in the trajectory (plus one per recalescence), 50 to 2000.",
     )
+    composition: CompositionInput | None = Field(
+        None,
+        description="A food by its proximate composition instead of water and a solute, by "
+        "the ice-fraction lookup's food model (Schwartzberg: water less 0.4 kg per kg of "
+        "protein evaporates and freezes as an ideal solution of one effective solute sized "
+        "by the initial freezing point; the bound water stays liquid; the other components "
+        "take the Choi and Okos specific heats). Needs `product_mass` and "
+        "`final_ice_temperature`; `water_mass` and `solute` are not taken. The result's "
+        "masses are of the freezable water.",
+    )
+    product_mass: QuantityInput | None = Field(
+        None,
+        description=_described("With `composition`: mass of the food. Default unit kg; > 0."),
+    )
+    freezing_point: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "With `composition`: the food's initial freezing point at 101325 Pa (measured, "
+            "or from a handbook table). Default unit K; 253.15 K to 273.16 K. Omitted: "
+            "estimated from `composition.dissolved_solutes`, else from the composition "
+            "alone (Pham 1996), with a warning."
+        ),
+    )
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
 
 
