@@ -120,7 +120,9 @@ FOOD_SOURCE: Final = PropertySource(
 _FOOD_ASSUMPTIONS: Final = (
     "Food: bound water (0.4 kg per kg of protein) never freezes and counts as liquid water "
     "in the enthalpy; the dissolved solids act as one ideal effective solute sized by the "
-    "given initial freezing point; the non-water components take the Choi and Okos (1986) "
+    "initial freezing point (given, or estimated as stated), so the unfrozen food's water "
+    "activity, and the vapor pressure over it, is that solute's: the ice's at the freezing "
+    "point, nearer 1 above it; the non-water components take the Choi and Okos (1986) "
     "specific heats from 273.16 K, with no heat of solution; one uniform temperature.",
 )
 

@@ -16,7 +16,7 @@ from service.core.balances import Composition
 from service.core.balances.flash_freeze import FlashFreezeCase, flash_freeze
 
 URL = "/v1/balances/flash-freeze"
-SHRIMP = {"water": 0.78, "protein": 0.19, "fat": 0.01, "ash": 0.02}  # invented demo
+SHRIMP: dict[str, Any] = {"water": 0.78, "protein": 0.19, "fat": 0.01, "ash": 0.02}  # demo
 BODY: dict[str, Any] = {
     "initial_temperature": "8 degC",
     "composition": SHRIMP,
