@@ -9,7 +9,7 @@ Fluids for Indirect Systems, 2nd ed., IIR), so it is checked here against OTHER 
   percentages are converted to mass percent with the OIML International Alcoholometric
   Tables (OIML R 22, 1975; conversions FROM MEMORY): 10 vol% = 8.01 wt%, 20 vol% =
   16.21 wt%, 30 vol% = 24.61 wt%, 40 vol% = 33.30 wt%, 50 vol% = 42.43 wt%. Tolerance 1 K:
-  the table is rounded to 1 degC, and its 10 and 20 vol% rows sit 0.6-0.8 K deeper than
+  the table is rounded to 1 degC, and its 10 and 20 vol% rows sit 0.7-0.8 K deeper than
   Melinder's fit.
 - CRC Handbook of Chemistry and Physics (80th-90th editions), table "Concentrative
   Properties of Aqueous Solutions", ethanol column "Delta T" against mass percent; values

@@ -419,7 +419,7 @@ def ice_fraction_lookup(
                     "to 5 %, 0.15 K to 15 %, 0.6 K at the eutectic; sucrose 0.2 K to 50 %; "
                     "glucose and fructose 0.05 K to 10 %, 0.5 K at 30 %; glycerol 0.05 K "
                     "at 10 %, 1.3 K at 40 %; propylene glycol 0.4-0.8 K to 30 %. Ethanol "
-                    "(Melinder's line): within 0.8 K of the Engineering ToolBox table (whole "
+                    "(Melinder's line): within 0.85 K of the Engineering ToolBox table (whole "
                     "degC) and 0.45 K of the CRC rows (from memory) to 40 %; 3.5 % shallower "
                     "than the cryoscopic law at 1 %."
                     if chosen.model != "ideal"
