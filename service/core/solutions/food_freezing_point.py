@@ -267,7 +267,7 @@ def estimate_food_freezing_point(composition: Composition) -> FoodFreezingPoint:
     ...                     fiber=0.027, ash=0.0026, dissolved_solutes=(("fructose", 0.059),
     ...                     ("glucose", 0.0243), ("sucrose", 0.0207)))
     >>> round(estimate_food_freezing_point(apple).temperature - 273.15, 2)
-    -1.23
+    -1.17
     """
     fractions = composition.fractions()
     solutes = dissolved_fractions(composition)
