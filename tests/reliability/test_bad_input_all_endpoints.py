@@ -219,6 +219,21 @@ CASES: list[Case] = [
             "freezing_point": None,
         },
     ),
+    Case(
+        "ice-fraction-food-solute-unknown",
+        "POST",
+        _ICE,
+        422,
+        "composition.dissolved_solutes.lactose",
+        body={
+            "temperature": "-5 degC",
+            "composition": {
+                "water": 0.9,
+                "carbohydrate": 0.1,
+                "dissolved_solutes": {"lactose": 0.05},
+            },
+        },
+    ),
     # state
     Case(
         "state-phase",
@@ -285,6 +300,20 @@ CASES: list[Case] = [
         422,
         "water_mass",
         body=_spoiled("post_flash_freeze", "water_mass", True),
+    ),
+    Case(
+        "flash-food-and-water-mass",
+        "POST",
+        _FLASH,
+        422,
+        "water_mass",
+        body={
+            "initial_temperature": "8 degC",
+            "water_mass": "2 kg",
+            "composition": {"water": 0.78, "protein": 0.19, "fat": 0.01, "ash": 0.02},
+            "product_mass": "25 kg",
+            "final_ice_temperature": "-18 degC",
+        },
     ),
     Case(
         "flash-method",

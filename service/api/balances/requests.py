@@ -19,6 +19,7 @@ from numpy.typing import ArrayLike
 
 from service.api.balances.schemas import (
     CompanionInput,
+    CompositionInput,
     DissolvedSolidsInput,
     EvaporativeCoolingCreate,
     FlashFreezeCreate,
@@ -388,6 +389,18 @@ def read_flash_freeze(body: FlashFreezeCreate) -> BalanceInputs[FlashFreezeCase]
     companions = _read_companions(reader, body.companions)
     gain = _read_heat_gain(reader, body.heat_gain)
     solute = _read_solute(reader, body.solute)
+    food_paths = _read_composition(reader, body.composition)
+    if body.composition is not None:
+        if body.solute is not None:
+            raise InvalidInputError("solute", "give a solute or a composition, not both")
+        if "water_mass" in body.model_fields_set:
+            raise InvalidInputError(
+                "water_mass",
+                "not taken with a composition: give the food's product_mass (its water is "
+                "in the composition)",
+            )
+    product = reader.optional(body.product_mass, "product_mass", Dimension.MASS)
+    onset = reader.optional(body.freezing_point, "freezing_point", Dimension.TEMPERATURE)
     case = FlashFreezeCase(
         initial_temperature=reader.value(initial),
         water_mass=reader.value(water),
@@ -399,8 +412,46 @@ def read_flash_freeze(body: FlashFreezeCreate) -> BalanceInputs[FlashFreezeCase]
         nucleation_temperature=reader.maybe(nucleation),
         trap_temperature=reader.maybe(trap),
         trajectory_points=body.trajectory_points,
+        composition=_composition(reader, food_paths),
+        product_mass=reader.maybe(product),
+        freezing_point=reader.maybe(onset),
     )
     return reader.finish(case, material_assumptions(item.material for item in companions))
+
+
+_COMPONENTS = ("water", "protein", "fat", "carbohydrate", "fiber", "ash")
+
+
+def _read_composition(
+    reader: _Reader, composition: CompositionInput | None
+) -> tuple[dict[str, str], dict[str, str]] | None:
+    """The reader paths of a composition's components and of its dissolved solutes."""
+    if composition is None:
+        return None
+    components = {
+        name: reader.read(
+            getattr(composition, name), f"composition.{name}", Dimension.DIMENSIONLESS
+        )
+        for name in _COMPONENTS
+    }
+    solutes = {
+        name: reader.read(raw, f"composition.dissolved_solutes.{name}", Dimension.DIMENSIONLESS)
+        for name, raw in (composition.dissolved_solutes or {}).items()
+    }
+    return components, solutes
+
+
+def _composition(
+    reader: _Reader, paths: tuple[dict[str, str], dict[str, str]] | None
+) -> Composition | None:
+    """The composition of the current case."""
+    if paths is None:
+        return None
+    components, solutes = paths
+    return Composition(
+        **{name: reader.value(path) for name, path in components.items()},
+        dissolved_solutes=tuple((name, reader.value(path)) for name, path in solutes.items()),
+    )
 
 
 def read_evaporative_cooling(
@@ -420,14 +471,7 @@ def read_evaporative_cooling(
     initial = reader.read(body.initial_temperature, "initial_temperature", Dimension.TEMPERATURE)
     final = reader.read(body.final_temperature, "final_temperature", Dimension.TEMPERATURE)
     specific_heat = reader.optional(body.specific_heat, "specific_heat", Dimension.SPECIFIC_ENTROPY)
-    composition: dict[str, str] | None = None
-    if body.composition is not None:
-        composition = {
-            name: reader.read(
-                getattr(body.composition, name), f"composition.{name}", Dimension.DIMENSIONLESS
-            )
-            for name in ("water", "protein", "fat", "carbohydrate", "fiber", "ash")
-        }
+    food_paths = _read_composition(reader, body.composition)
     freezing = reader.optional(body.freezing_point, "freezing_point", Dimension.TEMPERATURE)
     trap = reader.optional(body.trap_temperature, "trap_temperature", Dimension.TEMPERATURE)
     time = reader.optional(body.cooling_time, "cooling_time", Dimension.TIME)
@@ -439,11 +483,7 @@ def read_evaporative_cooling(
         initial_temperature=reader.value(initial),
         final_temperature=reader.value(final),
         specific_heat=reader.maybe(specific_heat),
-        composition=(
-            None
-            if composition is None
-            else Composition(**{name: reader.value(path) for name, path in composition.items()})
-        ),
+        composition=_composition(reader, food_paths),
         companions=_companions(reader, companions),
         heat_gain=_heat_gain(reader, gain),
         freezing_point=reader.maybe(freezing),

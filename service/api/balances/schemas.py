@@ -115,7 +115,8 @@ class SoluteInput(ApiModel):
         None,
         description="A named solute: `sodium chloride` (Pitzer model, to the eutectic "
         "w = 0.233), `sucrose` (Norrish, to 0.5), `glucose`, `fructose` (Norrish, to 0.3), "
-        "`glycerol` (Norrish, to 0.4), `propylene glycol` (Norrish, to 0.3) or `seawater` "
+        "`glycerol` (Norrish, to 0.4), `propylene glycol` (Norrish, to 0.3), `ethanol` "
+        "(Melinder's freezing line, to 0.5; its own vapor not counted) or `seawater` "
         "(IAPWS R13-08 water activity; `mass_fraction` is the absolute salinity, to 0.12, "
         'e.g. `"35 g/kg"`): molar mass, specific heat and activity model from the table. '
         "Omit to give `molar_mass`.",
@@ -209,6 +210,29 @@ class FlashFreezeCreate(RecordLabels):
         ge=50,
         le=2000,
         description="Points in the trajectory (plus one per recalescence), 50 to 2000.",
+    )
+    composition: CompositionInput | None = Field(
+        None,
+        description="A food by its proximate composition instead of water and a solute, by "
+        "the ice-fraction lookup's food model (Schwartzberg: water less 0.4 kg per kg of "
+        "protein evaporates and freezes as an ideal solution of one effective solute sized "
+        "by the initial freezing point; the bound water stays liquid; the other components "
+        "take the Choi and Okos specific heats). Needs `product_mass` and "
+        "`final_ice_temperature`; `water_mass` and `solute` are not taken. The result's "
+        "masses are of the freezable water.",
+    )
+    product_mass: QuantityInput | None = Field(
+        None,
+        description=_described("With `composition`: mass of the food. Default unit kg; > 0."),
+    )
+    freezing_point: QuantityInput | None = Field(
+        None,
+        description=_described(
+            "With `composition`: the food's initial freezing point at 101325 Pa (measured, "
+            "or from a handbook table). Default unit K; 253.15 K to 273.16 K. Omitted: "
+            "estimated from `composition.dissolved_solutes`, else from the composition "
+            "alone (Pham 1996), with a warning."
+        ),
     )
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
 
@@ -371,6 +395,19 @@ class CompositionInput(ApiModel):
     )
     fiber: QuantityInput = Field(0.0, description=_described("Fiber, 0 to 1 (unit 1)."))
     ash: QuantityInput = Field(0.0, description=_described("Ash, 0 to 1 (unit 1)."))
+    dissolved_solutes: dict[str, QuantityInput] | None = Field(
+        None,
+        max_length=4,
+        description=(
+            "Solutes dissolved in the food's water, kg per kg of FOOD (part of the fractions "
+            "above, adding no mass: `sucrose`, `glucose`, `fructose` of the `carbohydrate`, "
+            '`sodium chloride` of the `ash`), e.g. `{"fructose": 0.059, "glucose": 0.024}`. '
+            "Default none. Without a given `freezing_point`, the food's initial freezing "
+            "point is estimated from them (Ross's rule over each solute's published model, "
+            "in the water not bound by protein); with none named, from the composition alone "
+            '(Pham 1996). Values in unit 1 (`"0.5 %"` works); single values.'
+        ),
+    )
 
 
 class DissolvedSolidsInput(ApiModel):
@@ -451,8 +488,9 @@ class EvaporativeCoolingCreate(RecordLabels):
         None,
         description=_described(
             "Product's initial freezing point. Default unit K; 235 K to 273.16 K. If "
-            "omitted, it is estimated from `dissolved_solids` (with `composition`); with "
-            "neither, pure water's 273.16 K is used, with a warning."
+            "omitted, it is estimated from `dissolved_solids` (with `composition`) or from "
+            "`composition.dissolved_solutes`; with neither, pure water's 273.16 K is used, "
+            "with a warning (the composition alone is not used for this range check)."
         ),
     )
     dissolved_solids: DissolvedSolidsInput | None = Field(
@@ -531,7 +569,8 @@ class EvaporativeCoolingPublic(Envelope):
     )
     freezing_point_basis: FreezingPointBasis = Field(
         description="Where `freezing_point` came from: `given`, `estimated from dissolved "
-        "solids` (method in the assumptions) or `pure water (no data)` (273.16 K, with a "
+        "solids`, `estimated from composition solutes` (`composition.dissolved_solutes`; "
+        "each method in the assumptions) or `pure water (no data)` (273.16 K, with a "
         "warning)."
     )
     trap_temperature: QuantityOutput | None = Field(None, description="As given; null without.")

@@ -87,7 +87,13 @@ def _pump(pump: PumpInput) -> Pump:
 def _composition(composition: CompositionInput | None) -> Composition | None:
     if composition is None:
         return None
-    fractions = {
+    if composition.dissolved_solutes:
+        raise InvalidInputError(
+            "product.composition.dissolved_solutes",
+            "not taken by the chamber simulation yet: give the product's `solute`, or use "
+            "/v1/properties/ice-fraction for the food's freezing point",
+        )
+    fractions: dict[str, Any] = {
         name: _one(
             getattr(composition, name), f"product.composition.{name}", Dimension.DIMENSIONLESS
         )

@@ -55,6 +55,7 @@ def ice_fraction_answer(
         "temperature": output(states.temperature, Dimension.TEMPERATURE),
         "pressure": output(states.pressure, Dimension.PRESSURE),
         "freezing_point": output(states.freezing_point, Dimension.TEMPERATURE),
+        "freezing_point_basis": states.freezing_point_basis,
         "ice_fraction": output(states.ice_mass_fraction, Dimension.DIMENSIONLESS),
         "unfrozen_water": output(states.unfrozen_water_fraction, Dimension.DIMENSIONLESS),
         "unfrozen_concentration": (

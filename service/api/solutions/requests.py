@@ -65,10 +65,12 @@ def read_ice_fraction(
     salinity_field: str = "seawater.absolute_salinity",
     composition: dict[str, Any] | None = None,
     freezing_point: Any = None,
+    dissolved_solutes: dict[str, Any] | None = None,
 ) -> IceFractionInputs:
     """Read and check the inputs (exactly one mixture; equal batch lengths or one value).
 
-    ``composition`` maps component names to their raw mass fractions (one value each)."""
+    ``composition`` maps component names to their raw mass fractions (one value each),
+    ``dissolved_solutes`` solute names to theirs (per kg of food)."""
     if composition is None:
         require_exactly_one((solute_field, solute_name), ("seawater", absolute_salinity))
     elif solute_name is not None or absolute_salinity is not None:
@@ -82,17 +84,19 @@ def read_ice_fraction(
     fraction = salinity = onset = None
     food = None
     if composition is not None:
-        food = Composition(**{name: _one_fraction(raw, name) for name, raw in composition.items()})
-        if freezing_point is None:
-            raise InvalidInputError(
-                "freezing_point",
-                "required with a composition: the food's initial freezing point (measured, "
-                "or from a handbook table of foods)",
-            )
-        onset = read_quantity(
-            freezing_point, field="freezing_point", dimension=Dimension.TEMPERATURE
+        dissolved = tuple(
+            (name, _one_fraction(raw, f"dissolved_solutes.{name}"))
+            for name, raw in (dissolved_solutes or {}).items()
         )
-        parsed["freezing_point"] = onset
+        food = Composition(
+            **{name: _one_fraction(raw, name) for name, raw in composition.items()},
+            dissolved_solutes=dissolved,
+        )
+        if freezing_point is not None:
+            onset = read_quantity(
+                freezing_point, field="freezing_point", dimension=Dimension.TEMPERATURE
+            )
+            parsed["freezing_point"] = onset
     elif absolute_salinity is not None:
         salinity = _read_salinity(absolute_salinity, salinity_field)
         parsed[salinity_field] = salinity

@@ -68,6 +68,7 @@ def post_ice_fraction(request: Request, body: IceFractionCreate) -> Any:
             else {name: getattr(body.composition, name) for name in COMPOSITION_FIELDS}
         ),
         freezing_point=body.freezing_point,
+        dissolved_solutes=None if body.composition is None else body.composition.dissolved_solutes,
     )
     return FastJSONResponse(_answer(inputs, body.output_units))
 

@@ -22,7 +22,8 @@ __all__ = [
 _NAMES = (
     "`sodium chloride` (Pitzer, to the eutectic w = 0.233), `sucrose` (Norrish, to 0.5), "
     "`glucose`, `fructose` (Norrish, to 0.3), `glycerol` (Norrish, to 0.4), "
-    "`propylene glycol` (Norrish, to 0.3)"
+    "`propylene glycol` (Norrish, to 0.3), `ethanol` (Melinder's freezing line, to 0.5; "
+    "water vapor only, ethanol's own vapor not counted)"
 )
 _TEMPERATURE = (
     "Temperature: a number in K or with a unit (`-5 degC`); a batch "
@@ -44,7 +45,9 @@ _SALINITY = (
 _UNITS = "Unit set of the results: `SI`, `engineering` or `US`."
 _FREEZING_POINT = (
     "With `composition`: the food's initial freezing point (measured, or from a handbook "
-    "table of foods), a number in K or with a unit (`-1.7 degC`); 253.15 K to 273.16 K."
+    "table of foods), a number in K or with a unit (`-1.7 degC`); 253.15 K to 273.16 K. "
+    "Omitted: estimated from `composition.dissolved_solutes` if named, else from the "
+    "composition alone (Pham 1996), with a warning."
 )
 
 COMPOSITION_FIELDS = ("water", "protein", "fat", "carbohydrate", "fiber", "ash")
@@ -70,7 +73,8 @@ class SeawaterInput(ApiModel):
 
 class IceFractionCreate(ApiModel):
     """Ice and unfrozen phase at given temperatures: give `temperature` and exactly one of
-    `solute`, `seawater` or `composition` (a food, with its `freezing_point`)."""
+    `solute`, `seawater` or `composition` (a food, with its `freezing_point` or without it:
+    estimated)."""
 
     temperature: QuantityInput = Field(description=_TEMPERATURE)
     solute: SolutionSoluteInput | None = Field(None, description="A named solute in water.")
@@ -78,8 +82,8 @@ class IceFractionCreate(ApiModel):
     composition: CompositionInput | None = Field(
         None,
         description="A food by its proximate composition instead (Schwartzberg's model: "
-        "bound water 0.4 kg per kg of protein, one ideal effective solute); needs "
-        "`freezing_point`.",
+        "bound water 0.4 kg per kg of protein, one ideal effective solute sized by the "
+        "initial freezing point, given in `freezing_point` or estimated).",
     )
     freezing_point: QuantityInput | None = Field(None, description=_FREEZING_POINT)
     pressure: QuantityInput = Field(101325.0, description=_PRESSURE)
@@ -129,6 +133,13 @@ class IceFractionPublic(Envelope):
     temperature: QuantityOutput
     pressure: QuantityOutput
     freezing_point: QuantityOutput = Field(description="Initial freezing point (SI: K).")
+    freezing_point_basis: str | None = Field(
+        None,
+        description="For a food: `given`, `dissolved solutes (Ross)` (estimated from "
+        "`composition.dissolved_solutes`) or `composition (Pham 1996)` (estimated from the "
+        "composition alone); the method and its agreement with handbook tables are in the "
+        "assumptions. Null for solutions and seawater.",
+    )
     ice_fraction: QuantityOutput = Field(description="kg of ice per kg of the whole mixture.")
     unfrozen_water: QuantityOutput = Field(
         description="kg of liquid water per kg of the whole mixture."

@@ -24,7 +24,10 @@ The final temperature must stay at or above the product's initial freezing point
 given; or, for a composition with dissolved solids, estimated as the freezing point of
 an ideal solution of those solids in the product's water
 (:func:`service.core.balances.solution_freezing.solution_freezing_point`, the model the
-flash-freeze balance uses for its solutions); or, with neither, pure water's 273.16 K.
+flash-freeze balance uses for its solutions); or, for a composition naming its dissolved
+solutes, by the food estimate of
+:func:`service.core.solutions.food_freezing_point.estimate_food_freezing_point` (Ross's
+rule, as the ice-fraction lookup); or, with none of these, pure water's 273.16 K.
 """
 
 from __future__ import annotations
@@ -73,6 +76,12 @@ from service.core.properties.sources import (
     MELTING_AND_SUBLIMATION,
     PropertySource,
 )
+from service.core.solutions.aqueous import solution_model
+from service.core.solutions.food_freezing_point import (
+    dissolved_fractions,
+    estimate_food_freezing_point,
+)
+from service.core.solutions.freezing import ice_log_water_activity
 from service.core.solutions.lookups import solution_source
 
 __all__ = [
@@ -84,7 +93,12 @@ __all__ = [
     "evaporative_cooling",
 ]
 
-FreezingPointBasis = Literal["given", "estimated from dissolved solids", "pure water (no data)"]
+FreezingPointBasis = Literal[
+    "given",
+    "estimated from dissolved solids",
+    "estimated from composition solutes",
+    "pure water (no data)",
+]
 """Where the freezing point of the range check came from."""
 
 ESTIMATED_FREEZING_POINT_METHOD: Final = (
@@ -206,8 +220,10 @@ class EvaporativeCoolingResult:
         energy_residual / heat_removed.
     freezing_point : ndarray
         K, the one used for the range check.
-    freezing_point_basis : {"given", "estimated from dissolved solids", "pure water (no data)"}
-        Where ``freezing_point`` came from (one for the whole sweep).
+    freezing_point_basis : str
+        Where ``freezing_point`` came from (one for the whole sweep): ``"given"``,
+        ``"estimated from dissolved solids"``, ``"estimated from composition solutes"`` or
+        ``"pure water (no data)"``.
     assumptions, warnings, property_sources
     """
 
@@ -268,6 +284,8 @@ def _freezing_point_basis(case: EvaporativeCoolingCase) -> FreezingPointBasis:
         return "given"
     if case.dissolved_solids is not None:
         return "estimated from dissolved solids"
+    if case.composition is not None and case.composition.dissolved_solutes:
+        return "estimated from composition solutes"
     return "pure water (no data)"
 
 
@@ -361,11 +379,36 @@ def _estimated_freezing_point(
         ) from error
 
 
+def _composition_solute_sources(
+    case: EvaporativeCoolingCase, basis: FreezingPointBasis
+) -> tuple[PropertySource, ...]:
+    """The activity models behind a freezing point estimated from the composition's solutes."""
+    if basis != "estimated from composition solutes" or case.composition is None:
+        return ()
+    found: list[PropertySource] = []
+    for name in dissolved_fractions(case.composition):
+        source = solution_source(solution_model(name))
+        if source not in found:
+            found.append(source)
+    return tuple(found)
+
+
 def _freezing_point(case: EvaporativeCoolingCase, index: int | None) -> float:
-    """K: given, else estimated from the dissolved solids, else pure water's 273.16 K."""
+    """K: given, else estimated from the dissolved solids or the composition's named
+    solutes, else pure water's 273.16 K."""
     limits = EVAPORATIVE_COOLING_LIMITS
     given = optional_finite_scalar(case.freezing_point, "freezing_point")
     solute = _dissolved_solids(case, index)
+    if case.composition is not None and case.composition.dissolved_solutes:
+        if solute is not None:
+            raise InvalidInputError(
+                "dissolved_solids",
+                "give dissolved_solids or composition.dissolved_solutes, not both",
+            )
+        if given is not None:
+            dissolved_fractions(case.composition)  # checked, not used
+        else:
+            return estimate_food_freezing_point(case.composition).temperature
     if given is not None:
         return require_scalar_within(
             given,
@@ -589,6 +632,20 @@ def _assumptions(case: EvaporativeCoolingCase) -> tuple[str, ...]:
             "they would be lower by the factor a_w (ideal solution); that lowering is not "
             "applied."
         )
+    elif basis == "estimated from composition solutes":
+        assert case.composition is not None
+        onset = estimate_food_freezing_point(case.composition)
+        activity = float(
+            np.exp(ice_log_water_activity(np.array([onset.temperature]), np.array([101325.0])))[0]
+        )
+        items.append(onset.statement)
+        items.append(
+            "The composition's named solutes set only the freezing point: the vapor "
+            "pressures, the start-of-flashing pressure and the set point are pure water's. "
+            f"Over the food's water they would be lower by its water activity, {activity:.4f} "
+            "at the freezing onset by the food model (the activity of ice there) and nearer 1 "
+            "above it; that lowering is not applied."
+        )
     elif basis == "given" and case.dissolved_solids is not None:
         items.append(
             "The given freezing point is used as is; the dissolved solids are checked but not "
@@ -740,5 +797,6 @@ def evaporative_cooling(case: EvaporativeCoolingCase) -> EvaporativeCoolingResul
             ICE_IH,
             MELTING_AND_SUBLIMATION,
             *(() if solids_model is None else (solution_source(solids_model),)),
+            *_composition_solute_sources(case, basis),
         ),
     )

@@ -29,6 +29,8 @@ from service.core.balances.equilibrium_paths import (
     ice_vapor_states,
     liquid_vapor_states,
 )
+from service.core.balances.food_composition import Composition
+from service.core.balances.food_load import FoodLoad, food_load
 from service.core.balances.heat_gain import (
     HEAT_GAIN_ASSUMPTION,
     HeatGain,
@@ -60,6 +62,7 @@ from service.core.balances.solution_freezing import (
 from service.core.balances.stages import (
     DEGREE,
     ZERO_LENGTH,
+    HeatCapacity,
     StageNumbers,
     freezing_at_fixed_temperature,
     freezing_solution_stage,
@@ -67,13 +70,14 @@ from service.core.balances.stages import (
     hand_single_phase_stage,
     interval_of,
     merge_pieces,
+    sensible_heat,
     single_phase_stage,
 )
 from service.core.balances.sweeps import expand_case
 from service.core.deadline import check_deadline
 from service.core.errors import InvalidInputError, NotConvergedError, OutOfRangeError
 from service.core.properties.advisories import Advisory
-from service.core.properties.constants import TRIPLE_POINT_TEMPERATURE
+from service.core.properties.constants import MOLAR_MASS, TRIPLE_POINT_TEMPERATURE
 from service.core.properties.phase import FloatArray, PhaseProperties
 from service.core.properties.sources import (
     IAPWS_95,
@@ -82,8 +86,10 @@ from service.core.properties.sources import (
     PropertySource,
 )
 from service.core.solutions.aqueous import SolutionModel
+from service.core.solutions.ethanol import ETHANOL_CAUTION
+from service.core.solutions.food_freezing_point import estimate_food_freezing_point
 from service.core.solutions.glass import FREEZE_CONCENTRATION_DATA, GLASS_SOURCE
-from service.core.solutions.lookups import solution_source
+from service.core.solutions.lookups import FOOD_SOURCE, solution_source
 
 __all__ = [
     "FLASH_FREEZE_LIMITS",
@@ -122,6 +128,17 @@ _MAX_COUPLING_ITERATIONS: Final = 40
 _KAPPA_UPPER_BOUND: Final = 3.0e6
 """J/kg, above any latent heat on the path; the heat-gain solve bisects below it."""
 
+FOOD_LOAD_ASSUMPTION: Final = (
+    "Food by composition, by the ice-fraction lookup's model (Schwartzberg 1976, as in "
+    "ASHRAE Handbook - Refrigeration; from memory): its freezable water (water less 0.4 kg "
+    "per kg of protein) evaporates and freezes as an ideal solution of one effective solute "
+    "sized by the initial freezing point at 101325 Pa; the bound water stays liquid, neither "
+    "freezing nor evaporating; the other components take the Choi and Okos (1986) specific "
+    "heats. evaporated_mass, ice_mass, liquid_mass and evaporated_fraction_of_water are of "
+    "the freezable water (the bound water is not in liquid_mass). The vapor pressure over "
+    "the unfrozen food is a_w p_liquid with the effective solute's a_w, the food model's."
+)
+
 _PIECE_RATIO: Final = 2.0
 """Ratio of the distances from 273.16 K of the ends of each solution-freezing piece."""
 
@@ -157,6 +174,16 @@ class FlashFreezeCase:
         K, condenser / cold-trap temperature (173.15 K to 273.16 K) for its load.
     trajectory_points : int
         Points in the trajectory, 50 to 2000 (plus one per recalescence).
+    composition : Composition or None
+        A food instead of water and a solute, by the ice-fraction lookup's food model
+        (:mod:`service.core.balances.food_load`): its freezable water evaporates and
+        freezes, its bound water and solids cool with it; ``water_mass`` is then not used
+        and the results' masses are of the freezable water.
+    product_mass : array_like or None
+        kg of food, > 0; required with ``composition``.
+    freezing_point : array_like or None
+        K, the food's initial freezing point at 101325 Pa (253.15 K to 273.16 K); omitted,
+        it is estimated from the composition.
     """
 
     initial_temperature: ArrayLike
@@ -169,6 +196,9 @@ class FlashFreezeCase:
     nucleation_temperature: ArrayLike | None = None
     trap_temperature: ArrayLike | None = None
     trajectory_points: int = 64
+    composition: Composition | None = None
+    product_mass: ArrayLike | None = None
+    freezing_point: ArrayLike | None = None
 
 
 @dataclass(frozen=True)
@@ -270,13 +300,14 @@ class _Load:
     initial_temperature: float
     water_mass: float
     final_ice_temperature: float | None
-    heat_capacity: float
+    heat_capacity: HeatCapacity
     solute: _SoluteLoad | None
     solute_name: str | None
     freezing_onset: float
     nucleation_temperature: float | None
     trap_temperature: float | None
     heat_gain: float
+    food: FoodLoad | None = None
 
 
 @dataclass
@@ -361,9 +392,31 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         index,
         exclusive_minimum=True,
     )
-    capacity = checked_heat_capacity(case.companions, index, specific_heat_max=1e5)
+    companions = checked_heat_capacity(case.companions, index, specific_heat_max=1e5)
+    capacity: HeatCapacity = companions
     solute: _SoluteLoad | None = None
     onset = TRIPLE_POINT_TEMPERATURE
+    food: FoodLoad | None = None
+    if case.composition is not None:
+        if case.solute is not None:
+            raise InvalidInputError("solute", "give a solute or a composition, not both")
+        if case.product_mass is None:
+            raise InvalidInputError(
+                "product_mass", "required with a composition: the mass of the food, kg"
+            )
+        food = food_load(
+            case.composition, case.product_mass, case.freezing_point, companions, index
+        )
+        water = food.freezable_water
+        capacity = food.inert
+        # the effective solute: n_s mol of one ideal particle (mass / molar mass = n_s)
+        solute = _SoluteLoad(food.solute_moles * MOLAR_MASS, MOLAR_MASS, 1.0)
+        onset = _freezing_temperature(float(solute.log_activity(water)), index)
+    elif case.product_mass is not None or case.freezing_point is not None:
+        raise InvalidInputError(
+            "product_mass" if case.product_mass is not None else "freezing_point",
+            "only with a composition (a food); for water and a solute give water_mass",
+        )
     if case.solute is not None:
         fraction = finite_scalar(case.solute.mass_fraction, "solute.mass_fraction")
         molar = finite_scalar(case.solute.molar_mass, "solute.molar_mass")
@@ -390,7 +443,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         if fraction > 0.0:
             solute_mass = fraction / (1.0 - fraction) * water
             solute = _solute_load(case.solute, solute_mass, molar, factor, fraction, index)
-            capacity += solute_mass * specific
+            capacity = companions + solute_mass * specific
             onset = _freezing_temperature(float(solute.log_activity(water)), index)
     require_scalar_within(
         initial,
@@ -466,6 +519,7 @@ def _resolve(case: FlashFreezeCase, index: int | None) -> _Load:
         nucleation_temperature=nucleation,
         trap_temperature=trap,
         heat_gain=gain,
+        food=food,
     )
 
 
@@ -574,8 +628,8 @@ def _liquid_stage(
     if upper - lower < ZERO_LENGTH:
         point = _take_states(states, -2)
         volume = mass / float(point.condensed.density[0])
-        enthalpy = mass * float(point.condensed.specific_enthalpy[0]) + load.heat_capacity * (
-            upper - TRIPLE_POINT_TEMPERATURE
+        enthalpy = mass * float(point.condensed.specific_enthalpy[0]) + sensible_heat(
+            load.heat_capacity, upper
         )
         return _empty_stage(name, upper, float(point.pressure[0]), mass, 0.0, enthalpy, volume)
     if hand:
@@ -643,8 +697,8 @@ def _pure_recalescence(
     temperature = float(supercooled_end.temperature[0])
     pressure_before = float(supercooled_end.pressure[0])
     pressure_after = float(liquid_vapor.pressure[0])
-    h_before = mass * float(supercooled_end.condensed.specific_enthalpy[0]) + load.heat_capacity * (
-        temperature - TRIPLE_POINT_TEMPERATURE
+    h_before = mass * float(supercooled_end.condensed.specific_enthalpy[0]) + sensible_heat(
+        load.heat_capacity, temperature
     )
     v_before = mass / float(supercooled_end.condensed.density[0])
     h_l = float(liquid_vapor.condensed.specific_enthalpy[0])
@@ -795,7 +849,7 @@ def _solution_recalescence(cooling: StageNumbers, load: _Load) -> tuple[StageNum
         enthalpy = (
             liquid * float(states.liquid.specific_enthalpy[0])
             + ice * float(states.ice.specific_enthalpy[0])
-            + load.heat_capacity * (temperature - TRIPLE_POINT_TEMPERATURE)
+            + sensible_heat(load.heat_capacity, temperature)
         )
         volume = liquid / float(states.liquid.density[0]) + ice / float(states.ice.density[0])
         return enthalpy, volume, float(states.pressure[0]), ice, liquid
@@ -1056,6 +1110,12 @@ def _assumptions(case: FlashFreezeCase) -> tuple[str, ...]:
             "unfrozen solution (no eutectic crystallization, none in the ice) and adds only "
             "m_s c_s dT. Vapor pressure over the solution from equal chemical potentials."
         )
+        if case.solute.name == "ethanol":
+            items.append(ETHANOL_CAUTION)
+    if case.composition is not None:
+        items.append(FOOD_LOAD_ASSUMPTION)
+        if case.freezing_point is None:
+            items.append(estimate_food_freezing_point(case.composition).statement)
     if case.nucleation_temperature is not None:
         items.append(
             "Supercooling: the liquid stays liquid down to the nucleation temperature; "
@@ -1121,11 +1181,19 @@ def _warnings(
             and np.exp(o.final_log_activity) < _LOW_ACTIVITY_WARNING
             and load.solute is not None
             and load.solute.model is None
+            and load.food is None
             for load, o in zip(loads, outcomes, strict=True)
         ],
         "solution-concentrated",
         f"The unfrozen solution ends with a water activity below {_LOW_ACTIVITY_WARNING}; the "
         "ideal-solution model is outside its reliable range.",
+    )
+    add(
+        [load.food is not None and load.food.basis != "given" for load in loads],
+        "estimated-freezing-point",
+        "The food's initial freezing point is estimated from its composition (method and "
+        "agreement with handbook tables in the assumptions); a measured freezing_point is "
+        "better where the onset and the ice near it matter.",
     )
     sucrose = FREEZE_CONCENTRATION_DATA["sucrose"]
     add(
@@ -1302,5 +1370,11 @@ def flash_freeze(case: FlashFreezeCase) -> FlashFreezeResult:
         heat_gained=per_case(lambda ld, o, p: sum(s.heat_gained for s in p.stages)),
         assumptions=_assumptions(case),
         warnings=_warnings(loads, outcomes, batch),
-        property_sources=(IAPWS_95, ICE_IH, MELTING_AND_SUBLIMATION, *_solute_sources(case)),
+        property_sources=(
+            IAPWS_95,
+            ICE_IH,
+            MELTING_AND_SUBLIMATION,
+            *_solute_sources(case),
+            *((FOOD_SOURCE,) if case.composition is not None else ()),
+        ),
     )

@@ -76,6 +76,11 @@ class Composition:
 
     Carbohydrate excludes fiber. The fractions should sum to 1; a sum within
     0.02 of 1 is rescaled to 1 (with a warning from the balance).
+
+    ``dissolved_solutes`` names solutes dissolved in the food's water, as (name, kg per kg
+    of food) pairs that are part of the fractions above (sugars of the carbohydrate, salt
+    of the ash); default none. They serve the initial freezing point estimate
+    (:mod:`service.core.solutions.food_freezing_point`) and add no mass of their own.
     """
 
     water: ArrayLike
@@ -84,6 +89,7 @@ class Composition:
     carbohydrate: ArrayLike = 0.0
     fiber: ArrayLike = 0.0
     ash: ArrayLike = 0.0
+    dissolved_solutes: tuple[tuple[str, float], ...] = ()
 
     def fractions(self) -> dict[str, float]:
         """Scalar fractions by name, validated and rescaled to sum to 1."""

@@ -8,10 +8,10 @@ enthalpy:
     dH = (h_vapor - kappa) dm + V dp,    H = sum of m_i h_i + C (T - T_t),
 
 where m is the water (liquid + ice) mass, V the volume of the condensed water,
-p the equilibrium vapor pressure, C the constant heat capacity of companions and
-solute, and kappa the heat gained per kilogram evaporated (see
-:mod:`service.core.balances.heat_gain`). With one condensed phase this is the
-linear equation
+p the equilibrium vapor pressure, C the heat capacity of companions and solute
+(constant) and of a food's solids and bound water (with temperature), and kappa the
+heat gained per kilogram evaporated (see :mod:`service.core.balances.heat_gain`).
+With one condensed phase this is the linear equation
 
     dm/dT = a(T) m + b(T),   a = (dh_c/dT - v_c dp/dT) / (h_v - kappa - h_c),
                              b = C / (h_v - kappa - h_c),
@@ -107,8 +107,51 @@ def interval_of(lower: float, upper: float) -> ChebyshevInterval:
     return ChebyshevInterval(lower, upper, DEGREE)
 
 
-def _sensible(heat_capacity: float, temperature: float) -> float:
+@dataclass(frozen=True)
+class InertHeat:
+    """What cools with the water without evaporating or freezing, with a heat capacity that
+    depends on temperature: a constant part (companions, a solute) plus, for a food, its
+    solids and bound water.
+
+    Attributes
+    ----------
+    constant : float
+        J/K.
+    varying_capacity : callable
+        J/K at an array of temperatures (K).
+    varying_enthalpy : callable
+        J at an array of temperatures, zero at 273.16 K; its temperature derivative is
+        ``varying_capacity``.
+    """
+
+    constant: float
+    varying_capacity: Callable[[FloatArray], FloatArray]
+    varying_enthalpy: Callable[[FloatArray], FloatArray]
+
+
+HeatCapacity = float | InertHeat
+"""J/K of what cools with the water: a constant, or an :class:`InertHeat`."""
+
+
+def heat_capacity_at(heat_capacity: HeatCapacity, temperature: FloatArray) -> FloatArray:
+    """J/K at the given temperatures."""
+    if isinstance(heat_capacity, InertHeat):
+        return np.asarray(
+            heat_capacity.constant + heat_capacity.varying_capacity(temperature),
+            dtype=np.float64,
+        )
+    return np.full(np.shape(temperature), heat_capacity)
+
+
+def sensible_heat(heat_capacity: HeatCapacity, temperature: float) -> float:
+    """J, the enthalpy of what cools with the water, zero at 273.16 K."""
+    if isinstance(heat_capacity, InertHeat):
+        varying = float(heat_capacity.varying_enthalpy(np.array([temperature]))[0])
+        return heat_capacity.constant * (temperature - TRIPLE_POINT_TEMPERATURE) + varying
     return heat_capacity * (temperature - TRIPLE_POINT_TEMPERATURE)
+
+
+_sensible = sensible_heat
 
 
 def _positive_denominator(values: FloatArray, name: str) -> None:
@@ -148,7 +191,7 @@ def single_phase_stage(
     interval: ChebyshevInterval,
     states: LiquidVaporStates,
     start_mass: float,
-    heat_capacity: float,
+    heat_capacity: HeatCapacity,
     kappa: float,
     start_ice: float = 0.0,
 ) -> StageNumbers:
@@ -166,7 +209,7 @@ def single_phase_stage(
     denominator = h_v - kappa - h_c
     _positive_denominator(denominator, name)
     a = (interval.derivative(h_c) - v_c * slope_p) / denominator
-    b = heat_capacity / denominator
+    b = heat_capacity_at(heat_capacity, interval.nodes) / denominator
     mass = solve_linear_mass(interval, a, b, start_mass)
     _check_water_left(mass, name)
     rate = a * mass + b
@@ -215,7 +258,7 @@ def hand_single_phase_stage(
     lower: LiquidVaporStates,
     mean: LiquidVaporStates,
     start_mass: float,
-    heat_capacity: float,
+    heat_capacity: HeatCapacity,
     kappa: float,
     start_ice: float = 0.0,
 ) -> StageNumbers:
@@ -225,7 +268,11 @@ def hand_single_phase_stage(
     h_vapor = float(mean.vapor.specific_enthalpy[0])
     t_start = float(upper.temperature[0])
     t_end = float(lower.temperature[0])
-    released = start_mass * (h_start - h_end) + heat_capacity * (t_start - t_end)
+    released = start_mass * (h_start - h_end) + (
+        _sensible(heat_capacity, t_start) - _sensible(heat_capacity, t_end)
+        if isinstance(heat_capacity, InertHeat)
+        else heat_capacity * (t_start - t_end)
+    )
     denominator = h_vapor - kappa - h_end
     _positive_denominator(np.array([denominator]), name)
     evaporated = released / denominator
@@ -313,7 +360,7 @@ def freezing_solution_stage(
     states: FreezingSolutionStates,
     liquid_water: FloatArray,
     start_mass: float,
-    heat_capacity: float,
+    heat_capacity: HeatCapacity,
     kappa: float,
 ) -> StageNumbers:
     """Progressive freezing of a solution from ``upper`` down to ``lower``.
@@ -335,7 +382,7 @@ def freezing_solution_stage(
     b = (
         interval.derivative(liquid_water) * (h_l - h_i)
         + liquid_water * (liquid_along - ice_along)
-        + heat_capacity
+        + heat_capacity_at(heat_capacity, interval.nodes)
     ) / denominator
     mass = solve_linear_mass(interval, a, b, start_mass)
     _check_water_left(mass, "freezing")
@@ -434,7 +481,7 @@ def hand_freezing_solution_stage(
     start_liquid_water: float,
     end_liquid_water: float,
     start_mass: float,
-    heat_capacity: float,
+    heat_capacity: HeatCapacity,
     kappa: float,
 ) -> StageNumbers:
     """Hand method for progressive freezing; states are 1-element.

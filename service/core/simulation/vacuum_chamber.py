@@ -79,6 +79,7 @@ from service.core.simulation.results import (
     SimulationSummary,
     VacuumChamberResult,
 )
+from service.core.solutions.ethanol import ETHANOL_CAUTION
 
 __all__ = ["REFERENCES", "simulate_vacuum_chamber"]
 
@@ -749,6 +750,8 @@ def _assumptions(case: VacuumChamberCase) -> tuple[str, ...]:
             "solids' specific heat; no heat of mixing; the simulation stops where the brine "
             "leaves the model's range (sodium chloride: the eutectic)."
         )
+        if case.product.solute.name == "ethanol":
+            items.append(ETHANOL_CAUTION)
     return tuple(items)
 
 

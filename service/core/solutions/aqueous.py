@@ -15,6 +15,8 @@ w (kg of solute per kg of solution) at temperature T:
   derivatives, A_phi interpolated between its 0 degC and 25 degC values;
 - ``"norrish"`` (sugars, polyols): a_w = x_w exp(-K x_s**2) with x the mole fractions and
   K the solute's constant, taken as independent of temperature (Norrish 1966);
+- ``"melinder"`` (ethanol): the activity that holds ice on Melinder's (2010) fitted
+  freezing line, independent of temperature (:mod:`service.core.solutions.ethanol`);
 - ``"ideal"``: a_w = x_w counting i particles per formula unit (Raoult's law), the model
   the balances used before; kept so that answers can be compared.
 
@@ -25,9 +27,11 @@ Silvester, L. F. and Pitzer, K. S. (1977), J. Phys. Chem. 81, 1822-1828 (tempera
 derivatives); Pitzer, K. S. (ed.) (1991), *Activity Coefficients in Electrolyte Solutions*,
 2nd ed., CRC Press, ch. 3 (A_phi). Norrish, R. S. (1966), J. Food Technol. 1, 25-39;
 Chirife, J., Ferro Fontan, C. and Benmergui, E. A. (1980), J. Food Technol. 15, 59-70 (the
-K constants). All parameter values FROM MEMORY (the papers were not read while writing
-this module); the models are held to handbook freezing points in
-``tests/reference/test_aqueous_freezing_points.py``.
+K constants). Melinder, A. (2010), *Properties of Secondary Working Fluids for Indirect
+Systems*, 2nd ed., IIR (ethanol's freezing line). All Pitzer and Norrish values FROM MEMORY
+(the papers were not read while writing this module); the models are held to handbook
+freezing points in ``tests/reference/test_aqueous_freezing_points.py`` and
+``tests/reference/test_ethanol_freezing_points.py``.
 """
 
 from __future__ import annotations
@@ -41,6 +45,11 @@ from numpy.typing import ArrayLike
 from service.core.errors import InvalidInputError
 from service.core.properties.constants import MOLAR_MASS
 from service.core.properties.phase import FloatArray
+from service.core.solutions.ethanol import (
+    ETHANOL_MAXIMUM_MASS_FRACTION,
+    ETHANOL_SOURCE_TEXT,
+    ethanol_log_water_activity,
+)
 
 __all__ = [
     "NAMED_SOLUTION_MODELS",
@@ -98,7 +107,7 @@ class SolutionModel:
     ----------
     name : str
         The solute, e.g. ``"sodium chloride"``.
-    model : {"pitzer", "norrish", "seawater", "ideal"}
+    model : {"pitzer", "norrish", "seawater", "melinder", "ideal"}
         The activity model.
     molar_mass : float
         kg/mol.
@@ -121,7 +130,7 @@ class SolutionModel:
     """
 
     name: str
-    model: Literal["pitzer", "norrish", "seawater", "ideal"]
+    model: Literal["pitzer", "norrish", "seawater", "melinder", "ideal"]
     molar_mass: float
     van_t_hoff_factor: float
     specific_heat: float
@@ -160,6 +169,8 @@ class SolutionModel:
             from service.core.solutions.seawater import seawater_log_water_activity
 
             return seawater_log_water_activity(w, t)
+        if self.model == "melinder":
+            return np.asarray(ethanol_log_water_activity(w) + 0.0 * t, dtype=np.float64)
         water_moles = 1.0 / MOLAR_MASS
         if self.model == "norrish":
             solute_fraction = molality / (molality + water_moles)
@@ -173,14 +184,15 @@ class SolutionModel:
     ) -> FloatArray:
         """The mass fraction w whose ln a_w(w, T) is ``log_activity`` (< 0), dimensionless.
 
-        Bisection over 0 <= w <= 0.999 (seawater: to 0.12; ln a_w falls as w rises in every
-        model here), to the resolution of a float (60 halvings).
+        Bisection over 0 <= w <= 0.999 (seawater: to 0.12, ethanol: to 0.5; ln a_w falls as
+        w rises in every model here), to the resolution of a float (60 halvings).
         """
         target = np.asarray(log_activity, dtype=np.float64)
         t = np.broadcast_to(np.asarray(temperature, dtype=np.float64), target.shape)
         low = np.zeros(target.shape)
-        # Seawater's Gibbs function holds only to its range (120 g/kg).
-        top = self.maximum_mass_fraction if self.model == "seawater" else 0.999
+        # Seawater's Gibbs function and ethanol's freezing line hold only to their ranges.
+        bounded = self.model in ("seawater", "melinder")
+        top = self.maximum_mass_fraction if bounded else 0.999
         high = np.full(target.shape, top)
         for _ in range(_BISECTIONS):
             middle = 0.5 * (low + high)
@@ -266,6 +278,17 @@ NAMED_SOLUTION_MODELS: Final[dict[str, SolutionModel]] = {
     "fructose": _norrish("fructose", 0.180156, 2.25, 1265.0, 0.3),
     "glycerol": _norrish("glycerol", 0.092094, 1.16, 2430.0, 0.4),
     "propylene glycol": _norrish("propylene glycol", 0.076095, 4.0, 2500.0, 0.3),
+    # Liquid ethanol near 25 degC, 2440 J/(kg K) (CRC Handbook of Chemistry and Physics;
+    # from memory).
+    "ethanol": SolutionModel(
+        name="ethanol",
+        model="melinder",
+        molar_mass=0.046069,
+        van_t_hoff_factor=1.0,
+        specific_heat=2440.0,
+        maximum_mass_fraction=ETHANOL_MAXIMUM_MASS_FRACTION,
+        source=ETHANOL_SOURCE_TEXT,
+    ),
     "seawater": SolutionModel(
         name="seawater",
         model="seawater",

@@ -365,9 +365,9 @@ def solution_freezing(
     Examples
     --------
     >>> from service.core.solutions.aqueous import solution_model
-    >>> result = solution_freezing(solution_model("sodium chloride"), 0.035, 271.15)
+    >>> result = solution_freezing(solution_model("sodium chloride"), 0.035, 270.65)
     >>> round(float(result.ice_mass_fraction), 3)
-    0.045
+    0.15
     """
     fraction = _validated_fraction(model, mass_fraction)
     t = finite_array(temperature, "temperature")

@@ -436,7 +436,7 @@ def brine_salinity(temperature: ArrayLike, pressure: ArrayLike = NORMAL_PRESSURE
     Examples
     --------
     >>> round(float(brine_salinity(271.15)) * 1000, 3)
-    36.565
+    36.583
     """
     _, t, p = _validated(0.0, temperature, pressure, positive_salinity=False)
     shape = t.shape
@@ -598,7 +598,7 @@ def seawater_freezing(
     --------
     >>> result = seawater_freezing(0.035, 271.15)
     >>> round(float(result.ice_mass_fraction), 4)
-    0.0428
+    0.0433
     """
     s, t, p = _validated(absolute_salinity, temperature, pressure, positive_salinity=True)
     require_within(

@@ -28,7 +28,7 @@ from service.core.balances import (
 
 EVAPORATIVE = "/v1/balances/evaporative-cooling"
 FLASH = "/v1/balances/flash-freeze"
-COMPOSITION = {
+COMPOSITION: dict[str, Any] = {
     "water": 0.9095,
     "protein": 0.0067,
     "fat": 0.0030,
@@ -252,5 +252,35 @@ def test_openapi_documents_dissolved_solids(client: TestClient) -> None:
     assert set(response["freezing_point_basis"]["enum"]) == {
         "given",
         "estimated from dissolved solids",
+        "estimated from composition solutes",
         "pure water (no data)",
     }
+
+
+def test_freezing_point_from_the_compositions_named_solutes(client: TestClient) -> None:
+    # The balance's range check takes the ice-fraction lookup's food estimate (Ross's rule
+    # over the named solutes; checked against the ASHRAE food table in
+    # tests/reference/test_food_freezing_points.py): the same value, through both routes.
+    from service.core.solutions.food_freezing_point import estimate_food_freezing_point
+
+    sugars = {"fructose": 0.0244, "glucose": 0.0199, "sucrose": 0.0047}
+    composition = {**COMPOSITION, "dissolved_solutes": sugars}
+    body = {key: value for key, value in STRAWBERRIES.items() if key != "dissolved_solids"}
+    answer = _post(client, {**body, "composition": composition})
+    assert answer["freezing_point_basis"] == "estimated from composition solutes"
+    expected = estimate_food_freezing_point(
+        Composition(**COMPOSITION, dissolved_solutes=tuple(sugars.items()))
+    ).temperature
+    assert answer["freezing_point"]["value"] == pytest.approx(expected, abs=1e-9)
+    assert any("Ross" in text for text in answer["assumptions"])
+    assert any(s["release"].startswith("Norrish") for s in answer["property_sources"])
+    lookup = client.post(
+        "/v1/properties/ice-fraction", json={"temperature": 275.0, "composition": composition}
+    ).json()
+    assert lookup["freezing_point"]["value"] == pytest.approx(expected, abs=1e-9)
+    both = client.post(
+        "/v1/balances/evaporative-cooling",
+        json={**STRAWBERRIES, "composition": composition},
+    )
+    assert both.status_code == 422
+    assert "dissolved_solids" in both.text

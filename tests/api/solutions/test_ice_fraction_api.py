@@ -232,12 +232,76 @@ def test_food_by_composition(client: TestClient) -> None:
     )
     assert answer["unfrozen_concentration"] is None
     assert any(s["release"] == "Schwartzberg (1976)" for s in answer["property_sources"])
+    assert answer["freezing_point_basis"] == "given"
+
+
+_DICED_CARROTS = {  # invented demo: a carrot-like composition with its sugars named
+    "water": 0.878,
+    "protein": 0.010,
+    "fat": 0.002,
+    "carbohydrate": 0.071,
+    "fiber": 0.030,
+    "ash": 0.009,
+    "dissolved_solutes": {"sucrose": "3.6 %", "glucose": 0.006, "fructose": 0.0055},
+}
+
+
+def test_food_freezing_point_estimated_from_named_solutes(client: TestClient) -> None:
+    # Wiring against the core estimate (its check against the ASHRAE food table is in
+    # tests/reference/test_food_freezing_points.py) and the warning that it is estimated.
+    from service.core.balances.food_composition import Composition
+    from service.core.solutions.food_freezing_point import estimate_food_freezing_point
+
+    response = _post(client, {"temperature": "-5 degC", "composition": _DICED_CARROTS})
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    core = estimate_food_freezing_point(
+        Composition(
+            water=0.878,
+            protein=0.010,
+            fat=0.002,
+            carbohydrate=0.071,
+            fiber=0.030,
+            ash=0.009,
+            dissolved_solutes=(("sucrose", 0.036), ("glucose", 0.006), ("fructose", 0.0055)),
+        )
+    )
+    assert answer["freezing_point"]["value"] == pytest.approx(core.temperature, abs=1e-9)
+    assert answer["freezing_point_basis"] == "dissolved solutes (Ross)"
+    assert any(w["code"] == "estimated-freezing-point" for w in answer["warnings"])
+    assert any("Ross" in text for text in answer["assumptions"])
+    assert answer["ice_fraction"]["value"] > 0.5
+
+
+def test_food_freezing_point_from_composition_alone(client: TestClient) -> None:
+    # Pham (1996): t_F = -4.66 x_o/x_w - 46.4 x_a/x_w degC (x_o = carbohydrate + fiber), as
+    # quoted in a secondary source; the lean demo food has no carbohydrate.
+    response = _post(client, {"temperature": "-5 degC", "composition": _LEAN_FOOD})
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    water = 0.74 / 1.0  # the demo food's fractions sum to 1
+    expected = 273.15 - 46.4 * 0.01 / water
+    assert answer["freezing_point"]["value"] == pytest.approx(expected, abs=1e-9)
+    assert answer["freezing_point_basis"] == "composition (Pham 1996)"
 
 
 @pytest.mark.parametrize(
     ("body", "field"),
     [
-        ({"temperature": "-5 degC", "composition": _LEAN_FOOD}, "freezing_point"),
+        (
+            {
+                "temperature": "-5 degC",
+                "composition": {**_LEAN_FOOD, "dissolved_solutes": {"lactose": 0.01}},
+            },
+            "composition.dissolved_solutes.lactose",
+        ),
+        (
+            {
+                "temperature": "-5 degC",
+                "composition": {**_LEAN_FOOD, "dissolved_solutes": {"sucrose": 0.01}},
+            },
+            "composition.dissolved_solutes.sucrose",
+        ),
         (
             {
                 "temperature": "-5 degC",
@@ -264,7 +328,13 @@ def test_food_by_composition(client: TestClient) -> None:
             "composition",
         ),
     ],
-    ids=["no-freezing-point", "batch-fraction", "onset-above-melting", "two-mixtures"],
+    ids=[
+        "unknown-food-solute",
+        "sugar-beyond-carbohydrate",
+        "batch-fraction",
+        "onset-above-melting",
+        "two-mixtures",
+    ],
 )
 def test_food_bad_input_names_the_field(
     client: TestClient, body: dict[str, Any], field: str
@@ -273,3 +343,22 @@ def test_food_bad_input_names_the_field(
     assert response.status_code == 422, response.text
     assert response.headers["content-type"].startswith("application/problem+json")
     assert field in response.json()["detail"]
+
+
+def test_ethanol_names_its_model_and_the_flammable_vapor(client: TestClient) -> None:
+    response = _post(
+        client, {"temperature": "-10 degC", "solute": {"name": "ethanol", "mass_fraction": 0.1}}
+    )
+    assert response.status_code == 200, response.text
+    answer = response.json()
+    # Melinder's line: -4.33 degC at 10 %; the Engineering ToolBox and CRC tables are
+    # checked in tests/reference/test_ethanol_freezing_points.py
+    assert answer["freezing_point"]["value"] - 273.15 == pytest.approx(-4.33, abs=0.02)
+    assert answer["ice_fraction"]["value"] > 0.4
+    assert any(source["release"] == "Melinder (2010)" for source in answer["property_sources"])
+    assert any("flammable" in text for text in answer["assumptions"])
+    too_strong = _post(
+        client, {"temperature": "-10 degC", "solute": {"name": "ethanol", "mass_fraction": 0.6}}
+    )
+    assert too_strong.status_code == 422
+    assert "solute.mass_fraction" in too_strong.text

@@ -25,7 +25,17 @@ GET_REQUESTS: dict[str, list[dict[str, str]]] = {
     "get_melting": [{"pressure": "101325"}],
     "get_state": [{"temperature": "300", "pressure": "101325"}],
     "get_constants": [{}],
-    "get_ice_fraction": [{"temperature": "-2 degC", "absolute_salinity": "35"}],
+    "get_ice_fraction": [
+        {"temperature": "-2 degC", "absolute_salinity": "35"},
+        {"temperature": "-10 degC", "solute": "ethanol", "mass_fraction": "0.2"},
+        {"temperature": "-5 degC", "solute": "sodium chloride", "mass_fraction": "0.035"},
+        {
+            "temperature": "-5 degC",
+            "solute": "sodium chloride",
+            "mass_fraction": "0.035",
+            "model": "ideal",
+        },
+    ],
 }
 """Representative GET requests (a state outside a statement's range among them: 640 K)."""
 
@@ -100,6 +110,19 @@ def test_every_cited_id_resolves_in_the_sources_document(client: TestClient) -> 
         one = client.get(f"/v1/sources/{statement_id}")
         assert one.status_code == 200, statement_id
         assert one.json() == served[statement_id]
+
+
+def test_every_ice_fraction_example_cites_resolvable_ids(client: TestClient) -> None:
+    # The solution models cite statements of their own (foods with an estimated onset,
+    # seawater, sugars): every such example's ids resolve, not only the first example's.
+    served = {entry["id"] for entry in client.get("/v1/sources").json()["statements"]}
+    examples = [item for item in EXAMPLES if item.operation_id == "post_ice_fraction"]
+    assert len(examples) >= 3
+    for example in examples:
+        response = client.post("/v1/properties/ice-fraction", json=example.request)
+        assert response.status_code == 200, (example.name, response.text)
+        cited = set(_cited(response.json()))
+        assert cited and not cited - served, (example.name, cited - served)
 
 
 def test_full_detail_cites_the_same_ids_with_the_registry_texts(client: TestClient) -> None:

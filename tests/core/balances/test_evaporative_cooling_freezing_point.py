@@ -225,3 +225,28 @@ def test_unknown_named_solute_is_refused() -> None:
     with pytest.raises(InvalidInputError) as caught:
         named_dissolved_solids("honey", 0.05)
     assert caught.value.variable == "dissolved_solids.name"
+
+
+def test_composition_naming_its_sugars_takes_the_food_estimate() -> None:
+    # USDA strawberry sugars (fructose 2.44, glucose 1.99, sucrose 0.47 g/100 g; from
+    # memory) named in the composition: the balance's range check takes the ice-fraction
+    # lookup's food estimate (Ross's rule; against ASHRAE Table 3 in
+    # tests/reference/test_food_freezing_points.py), and the energy still closes.
+    from service.core.solutions.food_freezing_point import estimate_food_freezing_point
+
+    named = replace(
+        STRAWBERRIES,
+        dissolved_solutes=(("fructose", 0.0244), ("glucose", 0.0199), ("sucrose", 0.0047)),
+    )
+    result = evaporative_cooling(_strawberries(composition=named, dissolved_solids=None))
+    assert result.freezing_point_basis == "estimated from composition solutes"
+    expected = estimate_food_freezing_point(named).temperature
+    assert float(result.freezing_point) == pytest.approx(expected, abs=1e-12)
+    assert abs(float(result.relative_energy_residual)) < 1e-9
+    with pytest.raises(UnsupportedStateError):
+        evaporative_cooling(
+            _strawberries(composition=named, dissolved_solids=None, final_temperature=272.0)
+        )
+    with pytest.raises(InvalidInputError) as caught:
+        evaporative_cooling(_strawberries(composition=named))
+    assert caught.value.variable == "dissolved_solids"

@@ -115,7 +115,7 @@ def test_energy_balance_closes_for_a_freezing_solution(
 
 @settings(max_examples=10, deadline=None)
 @given(
-    st.sampled_from(["sodium chloride", "sucrose", "glycerol"]),
+    st.sampled_from(["sodium chloride", "sucrose", "glycerol", "ethanol"]),
     st.floats(min_value=274.0, max_value=330.0),
     st.floats(min_value=0.01, max_value=0.05),
     st.floats(min_value=0.0, max_value=1.0),

@@ -1,6 +1,6 @@
 """Named solutes in the chamber simulation take their non-ideal activity models (Pitzer for
-sodium chloride, Norrish for sucrose, IAPWS R13-08 for seawater), as the balances and the
-ice-fraction lookup do.
+sodium chloride, Norrish for sucrose, IAPWS R13-08 for seawater, Melinder for ethanol), as the
+balances and the ice-fraction lookup do.
 
 Reference: the solution freezing functions of service.core.solutions.freezing (the
 ice-fraction lookup's, checked against handbook freezing-point tables and, for seawater,
@@ -21,7 +21,12 @@ from service.core.simulation.vacuum_chamber import simulate_vacuum_chamber
 from service.core.solutions.aqueous import solution_model
 from service.core.solutions.freezing import solute_freezing_point, solution_freezing
 
-CASES = [("sodium chloride", 0.035), ("seawater", 0.03516504), ("sucrose", 0.10)]
+CASES = [
+    ("sodium chloride", 0.035),
+    ("seawater", 0.03516504),
+    ("sucrose", 0.10),
+    ("ethanol", 0.10),
+]
 
 
 def _case(name: str, fraction: float, model: str = "non-ideal") -> VacuumChamberCase:
