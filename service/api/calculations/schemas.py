@@ -47,7 +47,9 @@ class CalculationPublic(CalculationSummaryPublic):
 class CalculationListPublic(ApiModel):
     """One page of calculations, newest first."""
 
-    items: list[CalculationSummaryPublic]
+    items: list[CalculationSummaryPublic] = Field(
+        description="The calculations on this page, newest first."
+    )
     next_cursor: str | None = Field(
         description="Pass as `cursor` for the next page; null on the last page."
     )

@@ -112,7 +112,7 @@ class WarningOut(ApiModel):
     """Something the caller should know about the result."""
 
     code: str = Field(description="Stable code, e.g. `metastable`, `near-critical-point`.")
-    message: str
+    message: str = Field(description="What the caller should know, in words.")
     indices: list[int] | None = Field(None, description="Batch positions concerned, if not all.")
 
 

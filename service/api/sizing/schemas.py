@@ -98,16 +98,21 @@ class DesignPointOut(ApiModel):
         description="Null when the product does not reach the target temperature in the "
         "simulated time (twice the target time, or the case's end time if longer)."
     )
-    meets_target: bool
+    meets_target: bool = Field(
+        description="Whether the product reaches the target temperature by the target time at "
+        "this value."
+    )
 
 
 class MarginOut(ApiModel):
     """What 90 % of the answer gives."""
 
     factor: float = Field(description="0.9.")
-    value: QuantityOutput
-    time_to_target: QuantityOutput | None
-    meets_target: bool
+    value: QuantityOutput = Field(description="90 % of the answer, in the unit of `solution`.")
+    time_to_target: QuantityOutput | None = Field(
+        description="Time to the target temperature at that value (SI: s); null when not reached."
+    )
+    meets_target: bool = Field(description="Whether the target is still met at that value.")
 
 
 class SizingToleranceOut(ApiModel):
@@ -126,19 +131,25 @@ class SizingToleranceOut(ApiModel):
 class ForwardSimulationOut(ApiModel):
     """The chamber simulation at the answer (as `/v1/simulations/vacuum-chamber` answers it)."""
 
-    summary: SimulationSummaryOut
-    events: list[SimulationEventOut]
-    series: ChamberStatesOut
-    schedule: list[ScheduleCheckOut]
-    balance: MassEnergyBalanceOut
-    checks: EquipmentChecksOut
-    model_references: list[str]
+    summary: SimulationSummaryOut = Field(description="Headline numbers of the run.")
+    events: list[SimulationEventOut] = Field(
+        description="What happened during the run, in time order."
+    )
+    series: ChamberStatesOut = Field(description="The chamber and product over time.")
+    schedule: list[ScheduleCheckOut] = Field(
+        description="Each schedule limit and whether it was met; empty without a schedule."
+    )
+    balance: MassEnergyBalanceOut = Field(
+        description="Water mass and product energy books, with their residuals."
+    )
+    checks: EquipmentChecksOut = Field(description="Equipment checks of the run.")
+    model_references: list[str] = Field(description="Published basis of the model.")
 
 
 class VacuumChamberSizingPublic(Envelope):
     """The value that meets the target, how it was found, and the simulation at it."""
 
-    find: str
+    find: str = Field(description="Dotted path of the field solved for, as asked.")
     meaning: str = Field(description="What the field is.")
     direction: Literal["smallest", "largest"] = Field(
         description="`smallest` for a field where more helps (pump speed), `largest` where "
@@ -148,15 +159,17 @@ class VacuumChamberSizingPublic(Envelope):
         description="The answer, in the unit the case gave the field in (SI otherwise)."
     )
     time_to_target: QuantityOutput | None = Field(description="At the answer.")
-    tolerance: SizingToleranceOut
+    tolerance: SizingToleranceOut = Field(
+        description="The tolerance asked for and the one reached."
+    )
     bracket: list[QuantityOutput] = Field(description="Lower and upper value searched.")
     at_bracket_end: bool = Field(
         description="The bracket's unfavourable end already meets the target: the boundary "
         "may lie beyond it."
     )
-    margin: MarginOut
+    margin: MarginOut = Field(description="The target checked at 90 % of the answer.")
     design_curve: list[DesignPointOut] = Field(
         description="Time to target against the unknown at every simulated value."
     )
     simulations: int = Field(description="Forward simulations run.")
-    simulation: ForwardSimulationOut
+    simulation: ForwardSimulationOut = Field(description="The chamber simulation at the answer.")

@@ -117,8 +117,13 @@ class FreezeConcentrationOut(ApiModel):
     glass_transition_of_unfrozen_phase: QuantityOutput = Field(
         description="Gordon-Taylor glass transition of the unfrozen solution (SI: K)."
     )
-    maximally_freeze_concentrated: FreezeConcentratedOut
-    source: str
+    maximally_freeze_concentrated: FreezeConcentratedOut = Field(
+        description="The maximally freeze-concentrated solution: glass transition, onset of ice "
+        "melting, solute fraction."
+    )
+    source: str = Field(
+        description="Published source of the glass-transition and freeze-concentration data."
+    )
 
 
 class IceFractionPublic(Envelope):
@@ -126,8 +131,10 @@ class IceFractionPublic(Envelope):
 
     mixture: str = Field(description="`seawater`, `food` or the solute's name.")
     model: str = Field(description="The activity model with its source and valid range.")
-    temperature: QuantityOutput
-    pressure: QuantityOutput
+    temperature: QuantityOutput = Field(description="Temperature of the mixture, as asked (SI: K).")
+    pressure: QuantityOutput = Field(
+        description="Total pressure on the mixture, as given or the default 101325 Pa (SI: Pa)."
+    )
     freezing_point: QuantityOutput = Field(description="Initial freezing point (SI: K).")
     ice_fraction: QuantityOutput = Field(description="kg of ice per kg of the whole mixture.")
     unfrozen_water: QuantityOutput = Field(
