@@ -11,8 +11,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.units import UnitSet
 from service.core.balances import FreezingPointBasis
@@ -64,6 +65,10 @@ def _described(text: str) -> str:
 class CompanionInput(ApiModel):
     """A mass that cools with the load without evaporating (vessel, tray, rack, inert
     solids): give `specific_heat` or a named `material`, not both."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("specific_heat", "material"))
+    )
 
     mass: QuantityInput = Field(description=_described("Mass. Default unit kg; >= 0."))
     specific_heat: QuantityInput | None = Field(
@@ -444,6 +449,10 @@ class DissolvedSolidsInput(ApiModel):
 class EvaporativeCoolingCreate(ApiModel):
     """A moist product cooled under vacuum from one temperature to another by its own
     evaporation. Give `specific_heat` or `composition`, not both."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("specific_heat", "composition"))
+    )
 
     product_mass: QuantityInput = Field(
         description=_described("Initial product mass. Default unit kg; > 0.")

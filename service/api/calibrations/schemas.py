@@ -10,8 +10,9 @@ from __future__ import annotations
 
 from typing import Annotated, Any, Literal
 
-from pydantic import Field, Strict
+from pydantic import ConfigDict, Field, Strict
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes
 from service.api.http.models import (
     ApiModel,
     Envelope,
@@ -88,6 +89,10 @@ class EstimateInput(ApiModel):
 
 class VacuumChamberCalibrationCreate(ApiModel):
     """A chamber case, a measured run of it and the fields to estimate."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("measured", "measured_csv"))
+    )
 
     case: VacuumChamberSimulationCreate = Field(
         description="The chamber case as for the simulation route; its `output_units` set "

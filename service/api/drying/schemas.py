@@ -10,8 +10,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes, requires
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.units import UnitSet
 
@@ -55,6 +56,13 @@ def _one(text: str) -> str:
 
 class DryingLoadInput(ApiModel):
     """The containers on the shelves and their frozen fill."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            exactly_one_of("fill_volume", "fill_mass"),
+            requires("", "inner_area", when={"container": {"const": "vial"}}),
+        )
+    )
 
     container: Literal["vial", "tray"] = Field(
         "vial", description="`vial` or `tray` (a tray: give its bottom area as `outer_area`)."

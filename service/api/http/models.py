@@ -4,9 +4,9 @@ from __future__ import annotations
 
 from typing import Annotated
 
-from pydantic import BaseModel, ConfigDict, Field, Strict
+from pydantic import BaseModel, ConfigDict, Field, Strict, WithJsonSchema
 
-from service.api.http.units import UnitSet
+from service.api.http.units import MAX_QUANTITY_TEXT_LENGTH, QUANTITY_TEXT_PATTERN, UnitSet
 
 __all__ = [
     "ApiModel",
@@ -15,6 +15,7 @@ __all__ = [
     "Meta",
     "QuantityInput",
     "QuantityOutput",
+    "QuantityText",
     "QuantityValue",
     "QuantityValues",
     "SourceOut",
@@ -63,7 +64,20 @@ class QuantityValues(ApiModel):
     )
 
 
-QuantityInput = FiniteFloat | str | QuantityValue | QuantityValues | list[FiniteFloat]
+QuantityText = Annotated[
+    str,
+    WithJsonSchema(
+        {
+            "type": "string",
+            "pattern": QUANTITY_TEXT_PATTERN,
+            "maxLength": MAX_QUANTITY_TEXT_LENGTH,
+        }
+    ),
+]
+"""A quantity as text, `"25 degC"`: the pattern is documented, the parser
+(``http.units.parse_quantity_text``) does the refusing, with its own messages."""
+
+QuantityInput = FiniteFloat | QuantityText | QuantityValue | QuantityValues | list[FiniteFloat]
 """A number in the default unit, `"25 degC"` (an ASCII number and one unit, at most 96
 characters; refused with a 422 naming the field before any parsing), `{"value", "unit"}`,
 `{"values", "unit"}`, or a list."""

@@ -4,9 +4,16 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
-from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.alternatives import exactly_one_of, refused_shapes
+from service.api.http.models import (
+    ApiModel,
+    Envelope,
+    QuantityInput,
+    QuantityOutput,
+    QuantityText,
+)
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -50,6 +57,10 @@ _OUTPUT_UNITS = (
 
 
 class _LineCreate(ApiModel):
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("temperature", "pressure"))
+    )
+
     temperature: QuantityInput | None = Field(None, description=_TEMPERATURE)
     pressure: QuantityInput | None = Field(None, description=_PRESSURE)
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
@@ -102,8 +113,8 @@ class ConstantsQuery(ApiModel):
 
 
 class _LineQuery(ApiModel):
-    temperature: str | None = Field(None, description=_TEMPERATURE_QUERY)
-    pressure: str | None = Field(None, description=_PRESSURE_QUERY)
+    temperature: QuantityText | None = Field(None, description=_TEMPERATURE_QUERY)
+    pressure: QuantityText | None = Field(None, description=_PRESSURE_QUERY)
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS_QUERY)
 
 
@@ -124,8 +135,8 @@ class SaturationQuery(_LineQuery):
 class StateQuery(ApiModel):
     """Query string of GET /v1/properties/state: temperature and pressure."""
 
-    temperature: str = Field(description=_TEMPERATURE_QUERY)
-    pressure: str = Field(description=_PRESSURE_QUERY)
+    temperature: QuantityText = Field(description=_TEMPERATURE_QUERY)
+    pressure: QuantityText = Field(description=_PRESSURE_QUERY)
     phase: RequestedPhase | None = Field(
         None,
         description="Omit for the stable phase; `liquid`/`vapor`/`ice` for a metastable one.",

@@ -4,10 +4,17 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
 from service.api.balances.schemas import CompositionInput
-from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.alternatives import exactly_one_of, refused_shapes, requires
+from service.api.http.models import (
+    ApiModel,
+    Envelope,
+    QuantityInput,
+    QuantityOutput,
+    QuantityText,
+)
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -72,6 +79,13 @@ class IceFractionCreate(ApiModel):
     """Ice and unfrozen phase at given temperatures: give `temperature` and exactly one of
     `solute`, `seawater` or `composition` (a food, with its `freezing_point`)."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            exactly_one_of("solute", "seawater", "composition"),
+            requires("composition", "freezing_point"),
+        )
+    )
+
     temperature: QuantityInput = Field(description=_TEMPERATURE)
     solute: SolutionSoluteInput | None = Field(None, description="A named solute in water.")
     seawater: SeawaterInput | None = Field(None, description="Seawater instead of a solute.")
@@ -90,14 +104,14 @@ class IceFractionQuery(ApiModel):
     """Query string of GET /v1/properties/ice-fraction: one state; `solute` with
     `mass_fraction`, or `absolute_salinity`."""
 
-    temperature: str = Field(description="Temperature: a number in K, or with a unit.")
+    temperature: QuantityText = Field(description="Temperature: a number in K, or with a unit.")
     solute: str | None = Field(None, description=f"A named solute: {_NAMES}.")
-    mass_fraction: str | None = Field(
+    mass_fraction: QuantityText | None = Field(
         None, description="The solute's mass fraction of the whole (unit 1, or `3.5 %`)."
     )
     model: Literal["non-ideal", "ideal"] = Field("non-ideal", description=_MODEL)
-    absolute_salinity: str | None = Field(None, description=_SALINITY)
-    pressure: str = Field("101325", description=_PRESSURE)
+    absolute_salinity: QuantityText | None = Field(None, description=_SALINITY)
+    pressure: QuantityText = Field("101325", description=_PRESSURE)
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
 
 
