@@ -9,7 +9,6 @@ from __future__ import annotations
 
 import importlib
 import os
-from types import ModuleType
 from typing import Any
 
 import pytest
@@ -19,14 +18,14 @@ from service.api.app import create_app
 from service.settings import Settings
 
 
-def _linter() -> ModuleType:
+def _linter() -> Any:
     if os.environ.get("CI") == "true":
         return importlib.import_module("openapi_spec_validator")
     return pytest.importorskip("openapi_spec_validator")
 
 
 def _errors(document: dict[str, Any]) -> list[str]:
-    linter: Any = _linter()
+    linter = _linter()
     validator = linter.OpenAPIV31SpecValidator(document)
     return [
         f"{'/'.join(map(str, error.path))}: {error.message}" for error in validator.iter_errors()
