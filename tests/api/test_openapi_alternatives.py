@@ -97,6 +97,13 @@ CASES: list[tuple[str, str, str, dict[str, Any], bool]] = [
         False,
     ),
     (
+        "ice-fraction-freezing-point-with-a-solute",
+        "post",
+        "/v1/properties/ice-fraction",
+        {"temperature": "-5 degC", "solute": _SUGAR, "freezing_point": "-1 degC"},
+        False,
+    ),
+    (
         "evaporative-neither-heat-nor-composition",
         "post",
         "/v1/balances/evaporative-cooling",
@@ -148,6 +155,30 @@ CASES: list[tuple[str, str, str, dict[str, Any], bool]] = [
         _body(
             "calibration-produce-cooler-logger", measured_csv="time[s],chamber_pressure[Pa]\n0,1\n"
         ),
+        False,
+    ),
+    (
+        "calibration-field-not-estimable",
+        "post",
+        "/v1/calibrations/vacuum-chamber",
+        _body(
+            "calibration-produce-cooler-logger",
+            estimate=[{"parameter": "end_time", "lower": "1 min", "upper": "2 min"}],
+        ),
+        False,
+    ),
+    (
+        "sizing-schedule-target-without-schedule",
+        "post",
+        "/v1/sizing/vacuum-chamber",
+        _body("sizing-bakery-pump-for-five-minutes", target="schedule"),
+        False,
+    ),
+    (
+        "sizing-field-not-sizable",
+        "post",
+        "/v1/sizing/vacuum-chamber",
+        _body("sizing-bakery-pump-for-five-minutes", find="product.initial_temperature"),
         False,
     ),
 ]

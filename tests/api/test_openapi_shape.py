@@ -12,6 +12,7 @@ from collections import Counter
 from collections.abc import Iterator
 from typing import Any
 
+import pytest
 from fastapi.testclient import TestClient
 
 # Envelope fields whose models (Envelope, SourceOut, Meta) are being reshaped on another
@@ -113,3 +114,49 @@ def test_every_schema_property_and_parameter_is_described(client: TestClient) ->
             missing.append(where)
     assert missing == []
     assert exempted == _DESCRIBED_ELSEWHERE, "an exemption is stale: remove it"
+
+
+_TEXT_MEDIA = {"application/json", "text/csv", "image/svg+xml"}
+
+
+def test_every_negotiated_answer_lists_its_media_types_and_how_to_choose(
+    client: TestClient,
+) -> None:
+    spec = client.get("/openapi.json").json()
+    negotiated = 0
+    for path, methods in spec["paths"].items():
+        for method, operation in methods.items():
+            answer = operation["responses"].get("200", {})
+            content = answer.get("content", {})
+            if len(content) < 2:
+                continue
+            negotiated += 1
+            where = f"{method.upper()} {path}"
+            assert "`Accept`" in answer["description"], where
+            assert "406" in operation["responses"], where
+            assert set(content) <= _TEXT_MEDIA | {"image/png"}, where
+            if "image/png" in content:
+                assert content["image/png"]["schema"] == {"type": "string", "format": "binary"}
+            for media in ("text/csv", "image/svg+xml"):
+                if media in content:
+                    assert content[media]["schema"]["type"] == "string", (where, media)
+    assert negotiated >= 15
+
+
+@pytest.mark.parametrize(
+    ("path", "media"),
+    [
+        ("/v1/properties/saturation?temperature=300", "text/csv"),
+        ("/v1/properties/constants", "text/csv"),
+        ("/v1/properties/state?temperature=300&pressure=101325", "application/json"),
+    ],
+)
+def test_a_listed_media_type_is_served_for_its_accept(
+    client: TestClient, path: str, media: str
+) -> None:
+    documented = client.get("/openapi.json").json()["paths"][path.split("?")[0]]["get"]
+    assert media in documented["responses"]["200"]["content"]
+    response = client.get(path, headers={"Accept": media})
+    assert response.status_code == 200
+    assert response.headers["content-type"].startswith(media)
+    assert client.get(path, headers={"Accept": "text/html"}).status_code == 406

@@ -21,6 +21,8 @@ from service.api.http.models import (
     QuantityOutput,
 )
 from service.api.simulations.schemas import VacuumChamberSimulationCreate
+from service.core.calibration import NOT_ESTIMABLE
+from service.core.simulation.case_fields import CASE_FIELDS
 
 __all__ = [
     "CorrelationOut",
@@ -71,6 +73,8 @@ class EstimateInput(ApiModel):
         "`product.solids_specific_heat`, `product.exposed_area`, "
         "`product.evaporation_coefficient`, `condenser.vapor_conductance`...",
         max_length=100,
+        title="CaseFieldPath",
+        json_schema_extra={"enum": [path for path in CASE_FIELDS if path not in NOT_ESTIMABLE]},
     )
     lower: QuantityInput = Field(
         description="Lowest value searched, in the field's default unit or with a unit "

@@ -9,8 +9,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import refused_shapes
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.simulations.schemas import (
     ChamberStatesOut,
@@ -21,6 +22,7 @@ from service.api.simulations.schemas import (
     SimulationSummaryOut,
     VacuumChamberSimulationCreate,
 )
+from service.core.sizing import SIZABLE_FIELDS
 
 __all__ = [
     "CoolingTargetInput",
@@ -60,6 +62,21 @@ class SizingBracketInput(ApiModel):
 class VacuumChamberSizingCreate(ApiModel):
     """Solve one field of a chamber simulation for a cooling target."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            # `"schedule"` needs a case with a schedule (an absent one is empty)
+            [
+                {
+                    "required": ["target"],
+                    "properties": {
+                        "target": {"const": "schedule"},
+                        "case": {"properties": {"schedule": {"maxItems": 0}}},
+                    },
+                }
+            ]
+        )
+    )
+
     case: VacuumChamberSimulationCreate = Field(
         description="A request of `/v1/simulations/vacuum-chamber`; `find` is varied in it."
     )
@@ -71,6 +88,8 @@ class VacuumChamberSizingCreate(ApiModel):
         "`condenser.refrigeration_capacity`, `condenser.surface_temperature`, "
         "`chamber.free_volume`, `chamber.leak_rate`, `product.mass` or `heat_gain.power` "
         "(fields in which the time to the target is monotone; others are refused).",
+        title="SizableFieldPath",
+        json_schema_extra={"enum": list(SIZABLE_FIELDS)},
     )
     target: CoolingTargetInput | Literal["schedule"] = Field(
         description='Temperature and time, or `"schedule"`: every limit of the case\'s '

@@ -50,7 +50,7 @@ _SALINITY = (
 )
 _UNITS = "Unit set of the results: `SI`, `engineering` or `US`."
 _FREEZING_POINT = (
-    "With `composition`: the food's initial freezing point (measured, or from a handbook "
+    "With `composition` only: the food's initial freezing point (measured, or from a handbook "
     "table of foods), a number in K or with a unit (`-1.7 degC`); 253.15 K to 273.16 K."
 )
 
@@ -83,6 +83,7 @@ class IceFractionCreate(ApiModel):
         json_schema_extra=refused_shapes(
             exactly_one_of("solute", "seawater", "composition"),
             requires("composition", "freezing_point"),
+            requires("freezing_point", "composition"),
         )
     )
 
