@@ -158,6 +158,16 @@ CASES: list[tuple[str, str, str, dict[str, Any], bool]] = [
         False,
     ),
     (
+        "calibration-csv-uncertainty-without-csv",
+        "post",
+        "/v1/calibrations/vacuum-chamber",
+        _body(
+            "calibration-produce-cooler-logger",
+            csv_uncertainty={"total_pressure": {"relative": 0.02}},
+        ),
+        False,
+    ),
+    (
         "calibration-field-not-estimable",
         "post",
         "/v1/calibrations/vacuum-chamber",

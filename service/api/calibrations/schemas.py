@@ -22,6 +22,7 @@ from service.api.http.models import (
 )
 from service.api.simulations.schemas import VacuumChamberSimulationCreate
 from service.core.calibration import NOT_ESTIMABLE
+from service.core.calibration.measured_run import MEASURABLE_SERIES
 from service.core.simulation.case_fields import CASE_FIELDS
 
 __all__ = [
@@ -95,7 +96,19 @@ class VacuumChamberCalibrationCreate(ApiModel):
     """A chamber case, a measured run of it and the fields to estimate."""
 
     model_config = ConfigDict(
-        json_schema_extra=refused_shapes(exactly_one_of("measured", "measured_csv"))
+        json_schema_extra=refused_shapes(
+            exactly_one_of("measured", "measured_csv"),
+            # stated CSV uncertainties (a non-empty object) need the CSV run
+            [
+                {
+                    "required": ["csv_uncertainty"],
+                    "properties": {
+                        "csv_uncertainty": {"type": "object", "minProperties": 1},
+                        "measured_csv": {"type": "null"},
+                    },
+                }
+            ],
+        )
     )
 
     case: VacuumChamberSimulationCreate = Field(
@@ -106,6 +119,11 @@ class VacuumChamberCalibrationCreate(ApiModel):
     measured: dict[str, MeasuredSeriesInput] | None = Field(
         None,
         max_length=12,
+        json_schema_extra={
+            "propertyNames": {
+                "pattern": "^(?:" + "|".join(["time", *MEASURABLE_SERIES]) + r")(?:\.[\s\S]*)?$"
+            }
+        },
         description="The measured run as arrays of equal length: `time` (from the logger's "
         "clock) and series named as the simulation names them: `total_pressure`, "
         "`product_temperature`, optionally `evaporated_mass`, `condenser_ice`, "
