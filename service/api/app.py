@@ -39,6 +39,7 @@ from service.api.http.recording import RecordKeeper
 from service.api.http.responses import FastJSONResponse
 from service.api.http.security import ApiKeyGuard, document_security
 from service.api.http.semantics import HttpSemantics, RouteTable, document_negotiation
+from service.api.http.shared_enums import share_enums
 from service.api.http.units import Dimension
 from service.api.operations import router as operations
 from service.api.properties import router as properties
@@ -271,15 +272,16 @@ def create_app(
                 routes=app.routes,
             )
             document_contract(schema)
-            add_examples_to_openapi(schema, examples)
             document_csv(schema, csv_routes)
             document_negotiation(schema)
             document_body_problems(schema)
             document_caching(schema, _is_lookup)
             document_validation_problems(schema)
+            add_examples_to_openapi(schema, examples)  # after: refusals go into the 422s
             document_time_limit(schema, settings.max_request_seconds)
             if settings.api_keys:
                 document_security(schema)
+            share_enums(schema)
             app.openapi_schema = schema
         return app.openapi_schema
 

@@ -82,7 +82,9 @@ def test_every_get_query_parameter_is_documented(client: TestClient) -> None:
     # `detail` is documented on every route that answers the envelope, GET and POST alike.
     posted = schema["paths"]["/v1/balances/flash-freeze"]["post"]["parameters"]
     assert [item["name"] for item in posted] == ["detail"]
-    assert posted[0]["schema"]["enum"] == ["compact", "full"]
+    # one shared enumeration, referenced (service.api.http.shared_enums)
+    assert posted[0]["schema"]["$ref"] == "#/components/schemas/Detail"
+    assert schema["components"]["schemas"]["Detail"]["enum"] == ["compact", "full"]
     state = schema["paths"]["/v1/properties/state"]["get"]["parameters"]
     assert {item["name"] for item in state if item["required"]} == {"temperature", "pressure"}
     for path, methods in schema["paths"].items():

@@ -11,8 +11,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.record_labels import RecordLabels
 from service.api.http.units import UnitSet
@@ -65,6 +66,10 @@ def _described(text: str) -> str:
 class CompanionInput(ApiModel):
     """A mass that cools with the load without evaporating (vessel, tray, rack, inert
     solids): give `specific_heat` or a named `material`, not both."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("specific_heat", "material"))
+    )
 
     mass: QuantityInput = Field(description=_described("Mass. Default unit kg; >= 0."))
     specific_heat: QuantityInput | None = Field(
@@ -243,8 +248,12 @@ class StageOut(ApiModel):
     name: str = Field(
         description="`cooling`, `supercooled cooling`, `recalescence`, `freezing` or `ice cooling`."
     )
-    start_temperature: QuantityOutput
-    end_temperature: QuantityOutput
+    start_temperature: QuantityOutput = Field(
+        description="Temperature at the start of the stage (SI: K)."
+    )
+    end_temperature: QuantityOutput = Field(
+        description="Temperature at the end of the stage (SI: K)."
+    )
     start_pressure: QuantityOutput = Field(
         description="Equilibrium vapor pressure at the stage's start (SI: Pa)."
     )
@@ -271,7 +280,9 @@ class StageOut(ApiModel):
 class TrajectoryOut(ApiModel):
     """The path of one case (integrated method), point by point."""
 
-    temperature: QuantityOutput
+    temperature: QuantityOutput = Field(
+        description="Temperature of the load at each point (SI: K)."
+    )
     pressure: QuantityOutput = Field(description="Equilibrium vapor pressure (SI: Pa).")
     evaporated_fraction_of_water: QuantityOutput = Field(
         description="Mass evaporated so far / initial water mass (unit 1)."
@@ -286,8 +297,12 @@ class TrajectoryOut(ApiModel):
 class EvaporativeComparisonOut(ApiModel):
     """The integrated and hand (mean vapor enthalpy) answers side by side."""
 
-    integrated_evaporated_mass: QuantityOutput
-    mean_vapor_enthalpy_evaporated_mass: QuantityOutput
+    integrated_evaporated_mass: QuantityOutput = Field(
+        description="Evaporated mass of the balance integrated along the path (SI: kg)."
+    )
+    mean_vapor_enthalpy_evaporated_mass: QuantityOutput = Field(
+        description="Evaporated mass of the hand method: heat over one mean latent heat (SI: kg)."
+    )
     evaporated_mass_difference: QuantityOutput = Field(
         description="Hand minus integrated evaporated mass."
     )
@@ -299,8 +314,12 @@ class EvaporativeComparisonOut(ApiModel):
 class FlashFreezeComparisonOut(EvaporativeComparisonOut):
     """The integrated and hand (mean vapor enthalpy) answers side by side, ice included."""
 
-    integrated_ice_mass: QuantityOutput
-    mean_vapor_enthalpy_ice_mass: QuantityOutput
+    integrated_ice_mass: QuantityOutput = Field(
+        description="Ice at the end, integrated method (SI: kg)."
+    )
+    mean_vapor_enthalpy_ice_mass: QuantityOutput = Field(
+        description="Ice at the end, hand method (SI: kg)."
+    )
 
 
 class FlashFreezeEnergyBalanceOut(ApiModel):
@@ -311,9 +330,14 @@ class FlashFreezeEnergyBalanceOut(ApiModel):
         description="Internal energy of water, ice, solute and companions at the start "
         "(IAPWS reference; companions and solute as c (T - 273.16 K))."
     )
-    final_energy: QuantityOutput
-    vapor_enthalpy: QuantityOutput
-    heat_gained: QuantityOutput
+    final_energy: QuantityOutput = Field(
+        description="Internal energy of the condensed contents at the end, same reference as "
+        "`initial_energy` (SI: J)."
+    )
+    vapor_enthalpy: QuantityOutput = Field(
+        description="Enthalpy carried off by the removed vapor, integral of h_vapor dm (SI: J)."
+    )
+    heat_gained: QuantityOutput = Field(description="Heat gained from the surroundings (SI: J).")
     boundary_work: QuantityOutput = Field(description="Integral of p dV against the vapor.")
     residual: QuantityOutput = Field(description="What is left: the integration error.")
     relative_residual: QuantityOutput = Field(description="residual / vapor_enthalpy (unit 1).")
@@ -335,10 +359,16 @@ class FlashFreezeUncertaintyOut(ApiModel):
     """Standard uncertainty (k = 1) of the main results propagated from the inputs'."""
 
     method: str = Field(description="How the input uncertainties were propagated.")
-    inputs: list[UncertainInputOut]
-    evaporated_mass: QuantityOutput
-    evaporated_fraction_of_water: QuantityOutput
-    ice_mass: QuantityOutput
+    inputs: list[UncertainInputOut] = Field(
+        description="Each input given with an uncertainty, and what it contributes."
+    )
+    evaporated_mass: QuantityOutput = Field(
+        description="Standard uncertainty of the evaporated mass (SI: kg)."
+    )
+    evaporated_fraction_of_water: QuantityOutput = Field(
+        description="Standard uncertainty of the evaporated fraction of the water (unit 1)."
+    )
+    ice_mass: QuantityOutput = Field(description="Standard uncertainty of the ice mass (SI: kg).")
     final_temperature: QuantityOutput = Field(description="A temperature difference.")
 
 
@@ -357,7 +387,9 @@ class FlashFreezePublic(Envelope):
         description="Liquid water left at the end: unfrozen water of a solution, 0 for pure "
         "water (SI: kg)."
     )
-    final_temperature: QuantityOutput
+    final_temperature: QuantityOutput = Field(
+        description="Temperature of the load at the end (SI: K)."
+    )
     final_pressure: QuantityOutput = Field(
         description="Equilibrium vapor pressure at the end (SI: Pa)."
     )
@@ -373,8 +405,12 @@ class FlashFreezePublic(Envelope):
     trajectory: list[TrajectoryOut] = Field(
         description="One per case in input order (a single case: a list of one); integrated method."
     )
-    comparison: FlashFreezeComparisonOut
-    energy_balance: FlashFreezeEnergyBalanceOut
+    comparison: FlashFreezeComparisonOut = Field(
+        description="The integrated and the hand answer side by side, ice included."
+    )
+    energy_balance: FlashFreezeEnergyBalanceOut = Field(
+        description="The energy books of the condensed contents, with their residual."
+    )
     input_uncertainty: FlashFreezeUncertaintyOut | None = Field(
         None, description="Null when no input carries an `uncertainty`."
     )
@@ -452,6 +488,10 @@ class EvaporativeCoolingCreate(RecordLabels):
     """A moist product cooled under vacuum from one temperature to another by its own
     evaporation. Give `specific_heat` or `composition`, not both."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("specific_heat", "composition"))
+    )
+
     product_mass: QuantityInput = Field(
         description=_described("Initial product mass. Default unit kg; > 0.")
     )
@@ -521,7 +561,9 @@ class EvaporativeEnergyBalanceOut(ApiModel):
     sensible_heat_released: QuantityOutput = Field(
         description="Sensible heat given up by product and companions."
     )
-    heat_gained: QuantityOutput
+    heat_gained: QuantityOutput = Field(
+        description="Heat gained from the surroundings during the cooling (SI: J)."
+    )
     heat_removed: QuantityOutput = Field(description="Latent heat carried off by the vapor.")
     vapor_enthalpy: QuantityOutput = Field(
         description="Enthalpy of the removed vapor, integral of h_vapor dm, IAPWS reference."
@@ -534,11 +576,21 @@ class EvaporativeUncertaintyOut(ApiModel):
     """Standard uncertainty (k = 1) of the main results propagated from the inputs'."""
 
     method: str = Field(description="How the input uncertainties were propagated.")
-    inputs: list[UncertainInputOut]
-    evaporated_mass: QuantityOutput
-    evaporated_fraction_of_product: QuantityOutput
-    heat_removed: QuantityOutput
-    final_pressure: QuantityOutput
+    inputs: list[UncertainInputOut] = Field(
+        description="Each input given with an uncertainty, and what it contributes."
+    )
+    evaporated_mass: QuantityOutput = Field(
+        description="Standard uncertainty of the evaporated mass (SI: kg)."
+    )
+    evaporated_fraction_of_product: QuantityOutput = Field(
+        description="Standard uncertainty of the evaporated fraction of the product (unit 1)."
+    )
+    heat_removed: QuantityOutput = Field(
+        description="Standard uncertainty of the heat removed (SI: J)."
+    )
+    final_pressure: QuantityOutput = Field(
+        description="Standard uncertainty of the final pressure (SI: Pa)."
+    )
 
 
 class EvaporativeCoolingPublic(Envelope):
@@ -594,8 +646,12 @@ class EvaporativeCoolingPublic(Envelope):
         "temperature (SI: m3/s): the volume flow the vapor takes at the end, which the pump "
         "and trap must handle there; null without `cooling_time`.",
     )
-    comparison: EvaporativeComparisonOut
-    energy_balance: EvaporativeEnergyBalanceOut
+    comparison: EvaporativeComparisonOut = Field(
+        description="The integrated and the hand answer side by side."
+    )
+    energy_balance: EvaporativeEnergyBalanceOut = Field(
+        description="The energy books of the balance, with their residual."
+    )
     input_uncertainty: EvaporativeUncertaintyOut | None = Field(
         None, description="Null when no input carries an `uncertainty`."
     )

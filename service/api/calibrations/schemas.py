@@ -10,8 +10,9 @@ from __future__ import annotations
 
 from typing import Annotated, Any, Literal
 
-from pydantic import Field, Strict
+from pydantic import ConfigDict, Field, Strict
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes
 from service.api.http.models import (
     ApiModel,
     Envelope,
@@ -21,6 +22,9 @@ from service.api.http.models import (
 )
 from service.api.http.record_labels import RecordLabels
 from service.api.simulations.schemas import VacuumChamberSimulationCreate
+from service.core.calibration import NOT_ESTIMABLE
+from service.core.calibration.measured_run import MEASURABLE_SERIES
+from service.core.simulation.case_fields import CASE_FIELDS
 
 __all__ = [
     "CorrelationOut",
@@ -71,6 +75,8 @@ class EstimateInput(ApiModel):
         "`product.solids_specific_heat`, `product.exposed_area`, "
         "`product.evaporation_coefficient`, `condenser.vapor_conductance`...",
         max_length=100,
+        title="CaseFieldPath",
+        json_schema_extra={"enum": [path for path in CASE_FIELDS if path not in NOT_ESTIMABLE]},
     )
     lower: QuantityInput = Field(
         description="Lowest value searched, in the field's default unit or with a unit "
@@ -90,6 +96,22 @@ class EstimateInput(ApiModel):
 class VacuumChamberCalibrationCreate(RecordLabels):
     """A chamber case, a measured run of it and the fields to estimate."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            exactly_one_of("measured", "measured_csv"),
+            # stated CSV uncertainties (a non-empty object) need the CSV run
+            [
+                {
+                    "required": ["csv_uncertainty"],
+                    "properties": {
+                        "csv_uncertainty": {"type": "object", "minProperties": 1},
+                        "measured_csv": {"type": "null"},
+                    },
+                }
+            ],
+        )
+    )
+
     case: VacuumChamberSimulationCreate = Field(
         description="The chamber case as for the simulation route; its `output_units` set "
         "the answer's units. Its end time, target and schedule are not used by the fit "
@@ -98,6 +120,11 @@ class VacuumChamberCalibrationCreate(RecordLabels):
     measured: dict[str, MeasuredSeriesInput] | None = Field(
         None,
         max_length=12,
+        json_schema_extra={
+            "propertyNames": {
+                "pattern": "^(?:" + "|".join(["time", *MEASURABLE_SERIES]) + r")(?:\.[\s\S]*)?$"
+            }
+        },
         description="The measured run as arrays of equal length: `time` (from the logger's "
         "clock) and series named as the simulation names them: `total_pressure`, "
         "`product_temperature`, optionally `evaporated_mass`, `condenser_ice`, "
@@ -141,43 +168,54 @@ class VacuumChamberCalibrationCreate(RecordLabels):
 class IntervalOut(ApiModel):
     """A confidence interval."""
 
-    lower: QuantityOutput
-    upper: QuantityOutput
+    lower: QuantityOutput = Field(description="Lower end.")
+    upper: QuantityOutput = Field(description="Upper end.")
 
 
 class EstimateOut(ApiModel):
     """One estimated field."""
 
-    parameter: str
-    meaning: str
-    value: QuantityOutput
+    parameter: str = Field(
+        description="Path of the estimated case field, e.g. `pump.nominal_speed`."
+    )
+    meaning: str = Field(description="What the field is, in words.")
+    value: QuantityOutput = Field(
+        description="The estimate, in the unit the case gave the field in (SI otherwise)."
+    )
     standard_uncertainty: QuantityOutput | None = Field(
         description="k=1, linearized; null when the data do not determine the field."
     )
     interval: IntervalOut | None = Field(
         description="Confidence interval at `fit.confidence`; null when not determined."
     )
-    bounds: IntervalOut
-    initial: QuantityOutput
+    bounds: IntervalOut = Field(description="The search bounds.")
+    initial: QuantityOutput = Field(description="Where the search started.")
     scale: Literal["log", "linear"] = Field(
         description="`log`: searched and its interval formed in ln value (positive lower "
         "bound); `linear`: between the bounds."
     )
-    at_bound: bool
+    at_bound: bool = Field(
+        description="True when the estimate sits at a bound: its interval is then not reliable."
+    )
 
 
 class CorrelationOut(ApiModel):
     """Correlation matrix of the estimates, rows and columns in `parameters` order."""
 
-    parameters: list[str]
-    matrix: list[list[float]]
+    parameters: list[str] = Field(
+        description="Paths of the estimated fields, the order of the matrix rows and columns."
+    )
+    matrix: list[list[float]] = Field(
+        description="Correlation coefficients (unit 1, -1 to 1); rows of undetermined fields are "
+        "0 off the diagonal."
+    )
 
 
 class SeriesFitOut(ApiModel):
     """One measured series against the fitted model."""
 
-    name: str
-    points: int
+    name: str = Field(description="The measured series, as named in the log.")
+    points: int = Field(description="Readings in the series after cleaning.")
     rms: QuantityOutput = Field(description="Root mean square of fitted - measured.")
     relative_rms: float | None = Field(
         description="RMS of ln(fitted/measured) for pressures (about the relative misfit)."
@@ -185,27 +223,35 @@ class SeriesFitOut(ApiModel):
     standard_uncertainty: QuantityOutput = Field(
         description="Reading uncertainty the fit weighted with (a fraction, unit 1, for pressures)."
     )
-    uncertainty_basis: Literal["stated", "estimated"]
+    uncertainty_basis: Literal["stated", "estimated"] = Field(
+        description="`stated` by the client, or `estimated` from the residual scatter."
+    )
     outlier_rows: list[int] = Field(
         description="Rows of the log (from 0, as sent) more than 4 standard uncertainties "
         "from the fit."
     )
     time: QuantityOutput = Field(description="Times from the pump start.")
-    measured: QuantityOutput
-    fitted: QuantityOutput
+    measured: QuantityOutput = Field(description="The readings, at `time`.")
+    fitted: QuantityOutput = Field(description="The fitted model's values at `time`.")
 
 
 class FitOut(ApiModel):
     """How the fit went."""
 
-    points: int
-    degrees_of_freedom: int
-    confidence: float
+    points: int = Field(description="Readings the fit used.")
+    degrees_of_freedom: int = Field(description="Readings minus estimated fields.")
+    confidence: float = Field(description="Level of the confidence intervals (unit 1).")
     quantile: float = Field(description="Multiplier of the standard uncertainties.")
-    quantile_basis: Literal["normal", "student-t"]
-    reduced_chi_square: float
-    loss: str
-    converged: bool
+    quantile_basis: Literal["normal", "student-t"] = Field(
+        description="`normal` when every series' reading uncertainty was stated, `student-t` "
+        "(with `degrees_of_freedom`) when one was estimated from the scatter."
+    )
+    reduced_chi_square: float = Field(
+        description="Sum of squared weighted residuals over the degrees of freedom (about 1 for a"
+        " model that fits within the stated reading uncertainties)."
+    )
+    loss: str = Field(description="The loss the fit minimized, as asked.")
+    converged: bool = Field(description="Whether the least-squares search met its tolerance.")
     simulations: int = Field(description="Model runs the fit took.")
     log_notes: list[str] = Field(description="What cleaning the log did.")
 
@@ -213,12 +259,14 @@ class FitOut(ApiModel):
 class VacuumChamberCalibrationPublic(Envelope):
     """Estimates with intervals, their correlation, residuals and the fitted case."""
 
-    estimates: list[EstimateOut]
-    correlation: CorrelationOut
-    series: list[SeriesFitOut]
-    fit: FitOut
+    estimates: list[EstimateOut] = Field(description="One per field asked for, in the order asked.")
+    correlation: CorrelationOut = Field(description="Correlation of the estimates.")
+    series: list[SeriesFitOut] = Field(description="Each measured series against the fitted model.")
+    fit: FitOut = Field(description="How the fit went: points, degrees of freedom, convergence.")
     fitted_case: dict[str, Any] = Field(
         description="The case with the estimates written in at their paths (SI units), "
         "ready to send to `POST /v1/simulations/vacuum-chamber`."
     )
-    model_references: list[str]
+    model_references: list[str] = Field(
+        description="Published sources of the chamber model's equations."
+    )

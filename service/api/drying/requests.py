@@ -42,7 +42,9 @@ def _single(raw: Any, path: str, dimension: Dimension) -> float:
 def _positive(raw: Any, path: str, dimension: Dimension, unit: str) -> float:
     value = _single(raw, path, dimension)
     if not value > 0.0:
-        raise OutOfRangeError(path, value, 0.0, None, unit, "must be positive (no ice left)")
+        raise OutOfRangeError(
+            path, value, 0.0, None, unit, "must be positive (no ice left)", exclusive_minimum=True
+        )
     return value
 
 

@@ -10,8 +10,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import exactly_one_of, refused_shapes, requires
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.record_labels import RecordLabels
 from service.api.http.units import UnitSet
@@ -56,6 +57,13 @@ def _one(text: str) -> str:
 
 class DryingLoadInput(ApiModel):
     """The containers on the shelves and their frozen fill."""
+
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            exactly_one_of("fill_volume", "fill_mass"),
+            requires("", "inner_area", when={"container": {"const": "vial"}}),
+        )
+    )
 
     container: Literal["vial", "tray"] = Field(
         "vial", description="`vial` or `tray` (a tray: give its bottom area as `outer_area`)."
@@ -252,20 +260,30 @@ class PrimaryDryingDesignSpaceCreate(_DryingInputs):
 class DryingStatesOut(ApiModel):
     """The batch over time (`values`) or at an event (`value`); per container unless batch."""
 
-    time: QuantityOutput
-    shelf_temperature: QuantityOutput
-    chamber_pressure: QuantityOutput
+    time: QuantityOutput = Field(description="Time from the start of primary drying (SI: s).")
+    shelf_temperature: QuantityOutput = Field(
+        description="Shelf temperature, from the recipe (SI: K)."
+    )
+    chamber_pressure: QuantityOutput = Field(
+        description="Chamber pressure, from the recipe (SI: Pa)."
+    )
     front_temperature: QuantityOutput = Field(description="Ice at the sublimation front.")
     bottom_temperature: QuantityOutput = Field(description="Product at the container bottom.")
-    dried_layer_thickness: QuantityOutput
-    frozen_layer_thickness: QuantityOutput
+    dried_layer_thickness: QuantityOutput = Field(
+        description="Thickness of the dried layer above the front (SI: m)."
+    )
+    frozen_layer_thickness: QuantityOutput = Field(
+        description="Thickness of the frozen layer below the front (SI: m)."
+    )
     ice_mass: QuantityOutput = Field(description="Ice left per container.")
     sublimation_rate: QuantityOutput = Field(description="Per container.")
     batch_sublimation_rate: QuantityOutput = Field(
         description="The batch: the vapor load on the condenser."
     )
     heat_flow: QuantityOutput = Field(description="From the shelf into one container.")
-    batch_heat_flow: QuantityOutput
+    batch_heat_flow: QuantityOutput = Field(
+        description="Heat flow from the shelves into the whole batch (SI: W)."
+    )
     heat_transfer_coefficient: QuantityOutput = Field(description="K_v at the chamber pressure.")
     dried_layer_resistance: QuantityOutput = Field(description="R_p at the dried thickness.")
     latent_heat: QuantityOutput = Field(description="Enthalpy of sublimation at the front.")
@@ -282,9 +300,11 @@ class DryingEventOut(ApiModel):
         "`equipment-limit-exceeded`, `back-within-equipment-limit`, "
         "`condenser-capacity-reached` or `front-reaches-triple-point`."
     )
-    time: QuantityOutput
-    detail: str
-    state: DryingStatesOut
+    time: QuantityOutput = Field(
+        description="When it happened, from the start of primary drying (SI: s)."
+    )
+    detail: str = Field(description="What happened, in words.")
+    state: DryingStatesOut = Field(description="The batch at that moment.")
 
 
 class DryingSummaryOut(ApiModel):
@@ -292,88 +312,141 @@ class DryingSummaryOut(ApiModel):
 
     end_reason: str = Field(description="`dry` or `maximum-duration`.")
     drying_time: QuantityOutput | None = Field(description="Null when ice is left.")
-    end_time: QuantityOutput
-    maximum_front_temperature: QuantityOutput
-    maximum_bottom_temperature: QuantityOutput
-    critical_temperature_first_exceeded: QuantityOutput | None
+    end_time: QuantityOutput = Field(description="When the run ended (SI: s).")
+    maximum_front_temperature: QuantityOutput = Field(
+        description="Highest ice temperature at the front over the run (SI: K)."
+    )
+    maximum_bottom_temperature: QuantityOutput = Field(
+        description="Highest product temperature at the container bottom over the run (SI: K)."
+    )
+    critical_temperature_first_exceeded: QuantityOutput | None = Field(
+        description="When the front first rose above the critical temperature (SI: s); null if "
+        "never."
+    )
     time_above_critical_temperature: QuantityOutput = Field(
         description="On a 4001-point grid of the run."
     )
-    peak_batch_sublimation_rate: QuantityOutput
-    equipment_limit_first_exceeded: QuantityOutput | None
-    condenser_capacity_reached: QuantityOutput | None
-    solver_steps: int
+    peak_batch_sublimation_rate: QuantityOutput = Field(
+        description="Highest sublimation rate of the batch over the run (SI: kg/s)."
+    )
+    equipment_limit_first_exceeded: QuantityOutput | None = Field(
+        description="When the batch rate first exceeded the dryer's limit (SI: s); null if never "
+        "or without a limit."
+    )
+    condenser_capacity_reached: QuantityOutput | None = Field(
+        description="When the condenser's ice capacity was reached (SI: s); null if never or "
+        "without a capacity."
+    )
+    solver_steps: int = Field(description="Steps the time integration took.")
 
 
 class IceBalanceOut(ApiModel):
     """Initial ice = remaining + sublimed, the sublimed ice integrated from the rate."""
 
-    initial_ice: QuantityOutput
-    remaining_ice: QuantityOutput
-    sublimed_ice: QuantityOutput
-    residual: QuantityOutput
-    relative_residual: QuantityOutput
+    initial_ice: QuantityOutput = Field(description="Ice in the batch at the start (SI: kg).")
+    remaining_ice: QuantityOutput = Field(description="Ice left at the end (SI: kg).")
+    sublimed_ice: QuantityOutput = Field(
+        description="Ice sublimed, integrated from the sublimation rate (SI: kg)."
+    )
+    residual: QuantityOutput = Field(
+        description="initial_ice - remaining_ice - sublimed_ice: the integration error (SI: kg)."
+    )
+    relative_residual: QuantityOutput = Field(description="residual / initial_ice (unit 1).")
 
 
 class PrimaryDryingSimulationPublic(Envelope):
     """Summary, events, time series and ice balance of one run."""
 
-    summary: DryingSummaryOut
-    events: list[DryingEventOut]
-    series: DryingStatesOut
+    summary: DryingSummaryOut = Field(description="Headline numbers of the run.")
+    events: list[DryingEventOut] = Field(description="What happened during the run, in time order.")
+    series: DryingStatesOut = Field(description="The batch over time.")
     equipment_rate_limit: QuantityOutput | None = Field(
         description="The dryer's limit along the series; null without one."
     )
-    ice_balance: IceBalanceOut
+    ice_balance: IceBalanceOut = Field(description="Ice books of the run, with their residual.")
     model_references: list[str] = Field(description="Published basis of the model.")
 
 
 class GridOut(ApiModel):
     """Rows by shelf temperature, columns by chamber pressure; null where not sublimating."""
 
-    values: list[list[float | None]]
-    unit: str
+    values: list[list[float | None]] = Field(
+        description="Rows by shelf temperature, columns by chamber pressure; null where not "
+        "sublimating."
+    )
+    unit: str = Field(description="Unit of the values.")
 
 
 class DesignSpaceFastestOut(ApiModel):
     """The safe setting with the shortest drying time (at a stated thickness: the highest
     sublimation rate)."""
 
-    shelf_temperature: QuantityOutput
-    chamber_pressure: QuantityOutput
-    front_temperature: QuantityOutput
-    batch_sublimation_rate: QuantityOutput
-    drying_time: QuantityOutput | None
-    shelf_index: int
-    pressure_index: int
+    shelf_temperature: QuantityOutput = Field(
+        description="Shelf temperature of the setting (SI: K)."
+    )
+    chamber_pressure: QuantityOutput = Field(
+        description="Chamber pressure of the setting (SI: Pa)."
+    )
+    front_temperature: QuantityOutput = Field(
+        description="Ice temperature at the sublimation front (SI: K)."
+    )
+    batch_sublimation_rate: QuantityOutput = Field(
+        description="Sublimation rate of the whole batch (SI: kg/s)."
+    )
+    drying_time: QuantityOutput | None = Field(
+        description="Primary drying time (SI: s); null when the grid is at a stated thickness."
+    )
+    shelf_index: int = Field(description="Row of the setting in the grid (from 0).")
+    pressure_index: int = Field(description="Column of the setting in the grid (from 0).")
 
 
 class DesignSpaceCellsOut(ApiModel):
     """The grid as one row per setting (what the CSV answer holds)."""
 
-    shelf_temperature: QuantityOutput
-    chamber_pressure: QuantityOutput
-    front_temperature: QuantityOutput
-    bottom_temperature: QuantityOutput
-    batch_sublimation_rate: QuantityOutput
-    drying_time: QuantityOutput | None
-    status: list[str]
-    safe: list[bool]
+    shelf_temperature: QuantityOutput = Field(description="Shelf temperature of each cell (SI: K).")
+    chamber_pressure: QuantityOutput = Field(description="Chamber pressure of each cell (SI: Pa).")
+    front_temperature: QuantityOutput = Field(
+        description="Ice temperature at the sublimation front of each cell (SI: K)."
+    )
+    bottom_temperature: QuantityOutput = Field(
+        description="Product temperature at the container bottom of each cell (SI: K)."
+    )
+    batch_sublimation_rate: QuantityOutput = Field(
+        description="Sublimation rate of the whole batch in each cell (SI: kg/s)."
+    )
+    drying_time: QuantityOutput | None = Field(
+        description="Primary drying time of each cell (SI: s); null when the grid is at a stated "
+        "thickness."
+    )
+    status: list[str] = Field(
+        description="`sublimating`, `no-sublimation` or `front-melts`, per cell."
+    )
+    safe: list[bool] = Field(description="Whether each cell is in the safe region.")
 
 
 class PrimaryDryingDesignSpacePublic(Envelope):
     """The grid, the safe region and the fastest setting in it."""
 
-    shelf_temperatures: QuantityOutput
-    chamber_pressures: QuantityOutput
+    shelf_temperatures: QuantityOutput = Field(
+        description="Shelf temperatures of the grid rows (SI: K)."
+    )
+    chamber_pressures: QuantityOutput = Field(
+        description="Chamber pressures of the grid columns (SI: Pa)."
+    )
     dried_layer_thickness: QuantityOutput | None = Field(description="Null: over the whole run.")
-    critical_temperature: QuantityOutput
+    critical_temperature: QuantityOutput = Field(
+        description="The product's critical (collapse) temperature, as given (SI: K)."
+    )
     front_temperature: GridOut = Field(
         description="At the stated thickness, or the highest over the run."
     )
-    bottom_temperature: GridOut
+    bottom_temperature: GridOut = Field(
+        description="Product temperature at the container bottom (SI: K)."
+    )
     sublimation_rate: GridOut = Field(description="Per container (over the run: the highest).")
-    batch_sublimation_rate: GridOut
+    batch_sublimation_rate: GridOut = Field(
+        description="Sublimation rate of the whole batch (SI: kg/s; over the run: the highest)."
+    )
     drying_time: GridOut | None = Field(description="Over the whole run only.")
     equipment_rate_limit: QuantityOutput | None = Field(
         description="The dryer's limit at each chamber pressure; null without one."
@@ -387,5 +460,5 @@ class PrimaryDryingDesignSpacePublic(Envelope):
         "within the equipment limit."
     )
     fastest: DesignSpaceFastestOut | None = Field(description="Null when no setting is safe.")
-    cells: DesignSpaceCellsOut
-    model_references: list[str]
+    cells: DesignSpaceCellsOut = Field(description="The same grid, one row per setting.")
+    model_references: list[str] = Field(description="Published basis of the model.")

@@ -5,8 +5,12 @@ Each file is one JSON object::
     {"operation_id": "...", "summary": "...", "description": "...",
      "request": {...}, "expected_status": 200}
 
-Tests send every file to its operation and check the status, so the examples in
-the documentation are known to work.
+A refused example (``expected_status`` 4xx) also holds the problem document it answers,
+``"response": {...}``; it is shown among that status's response examples, not as a request
+example of the success path, with the request it answers quoted in its description.
+
+Tests send every file to its operation and check the status (and a refused example's
+problem document), so the examples in the documentation are known to work.
 """
 
 from __future__ import annotations
@@ -30,6 +34,13 @@ class RequestExample:
     description: str
     request: dict[str, Any]
     expected_status: int
+    response: dict[str, Any] | None = None
+    """The problem document a refused example answers (None for a success example)."""
+
+    @property
+    def refused(self) -> bool:
+        """Whether the example shows a refusal (a 4xx answer)."""
+        return self.expected_status >= 400
 
 
 def default_examples_folder() -> Path:
@@ -50,13 +61,15 @@ def load_examples(folder: Path) -> list[RequestExample]:
                 description=data.get("description", ""),
                 request=data["request"],
                 expected_status=int(data.get("expected_status", 200)),
+                response=data.get("response"),
             )
         )
     return examples
 
 
 def add_examples_to_openapi(schema: dict[str, Any], examples: list[RequestExample]) -> None:
-    """Attach each example to its operation's JSON request body in ``schema``."""
+    """Attach each success example to its operation's JSON request body in ``schema``, and
+    each refused one to the operation's response of its status."""
     operations: dict[str, dict[str, Any]] = {}
     for methods in schema.get("paths", {}).values():
         for operation in methods.values():
@@ -66,9 +79,25 @@ def add_examples_to_openapi(schema: dict[str, Any], examples: list[RequestExampl
         operation = operations.get(example.operation_id)
         if operation is None or "requestBody" not in operation:
             continue
+        if example.refused:
+            _add_refused(operation, example)
+            continue
         content = operation["requestBody"]["content"].setdefault("application/json", {})
         content.setdefault("examples", {})[example.name] = {
             "summary": example.summary,
             "description": example.description,
             "value": example.request,
         }
+
+
+def _add_refused(operation: dict[str, Any], example: RequestExample) -> None:
+    response = operation.setdefault("responses", {}).setdefault(
+        str(example.expected_status), {"description": "Refused."}
+    )
+    content = response.setdefault("content", {}).setdefault("application/problem+json", {})
+    request = orjson.dumps(example.request).decode()
+    content.setdefault("examples", {})[example.name] = {
+        "summary": example.summary,
+        "description": f"{example.description}\n\nRequest body: `{request}`",
+        "value": example.response,
+    }

@@ -4,10 +4,10 @@ from __future__ import annotations
 
 from typing import Annotated
 
-from pydantic import BaseModel, ConfigDict, Field, Strict
+from pydantic import BaseModel, ConfigDict, Field, Strict, WithJsonSchema
 
 from service.api.http.detail import Detail
-from service.api.http.units import UnitSet
+from service.api.http.units import MAX_QUANTITY_TEXT_LENGTH, QUANTITY_TEXT_PATTERN, UnitSet
 
 __all__ = [
     "ApiModel",
@@ -16,6 +16,7 @@ __all__ = [
     "Meta",
     "QuantityInput",
     "QuantityOutput",
+    "QuantityText",
     "QuantityValue",
     "QuantityValues",
     "SourceOut",
@@ -64,7 +65,20 @@ class QuantityValues(ApiModel):
     )
 
 
-QuantityInput = FiniteFloat | str | QuantityValue | QuantityValues | list[FiniteFloat]
+QuantityText = Annotated[
+    str,
+    WithJsonSchema(
+        {
+            "type": "string",
+            "pattern": QUANTITY_TEXT_PATTERN,
+            "maxLength": MAX_QUANTITY_TEXT_LENGTH,
+        }
+    ),
+]
+"""A quantity as text, `"25 degC"`: the pattern is documented, the parser
+(``http.units.parse_quantity_text``) does the refusing, with its own messages."""
+
+QuantityInput = FiniteFloat | QuantityText | QuantityValue | QuantityValues | list[FiniteFloat]
 """A number in the default unit, `"25 degC"` (an ASCII number and one unit, at most 96
 characters; refused with a 422 naming the field before any parsing), `{"value", "unit"}`,
 `{"values", "unit"}`, or a list."""
@@ -148,7 +162,7 @@ class WarningOut(ApiModel):
     """Something the caller should know about the result."""
 
     code: str = Field(description="Stable code, e.g. `metastable`, `near-critical-point`.")
-    message: str
+    message: str = Field(description="What the caller should know, in words.")
     indices: list[int] | None = Field(None, description="Batch positions concerned, if not all.")
 
 
@@ -200,4 +214,7 @@ class Envelope(ApiModel):
     warnings: list[WarningOut] = Field(
         description="Things the caller should know about the result."
     )
-    meta: Meta = Field(description="Where and when the answer was made.")
+    meta: Meta = Field(
+        description="The answer's service version, request (and stored calculation) id, "
+        "time, unit set and detail level."
+    )

@@ -262,12 +262,32 @@ def _add_vary_accept(start: Message) -> None:
     start["headers"] = headers
 
 
+_BINARY_MEDIA = ("image/png",)
+
+
 def document_negotiation(schema: dict[str, Any]) -> None:
     """Declare the 406 answer on every operation whose 200 answer has more than one media
-    type (run after the CSV content types are added)."""
+    type, and say in its 200 answer how to choose one (run after the CSV content types are
+    added).
+
+    The choice is the ``Accept`` request header (OpenAPI 3.1 Sec. 4.8.12: a header
+    parameter named ``Accept`` is ignored, so the media types are listed as the response's
+    content, and the description names the header). Binary answers are declared as
+    ``type: string, format: binary``, which client generators read as a file.
+    """
     for operations in schema.get("paths", {}).values():
         for operation in operations.values():
             responses = operation.get("responses", {})
-            content = responses.get("200", {}).get("content", {})
+            answer = responses.get("200", {})
+            content = answer.get("content", {})
             if len(content) > 1:
                 responses.setdefault("406", problem_answer(status_description(406)))
+                for media in _BINARY_MEDIA:
+                    if media in content:
+                        content[media]["schema"] = {"type": "string", "format": "binary"}
+                listed = ", ".join(f"`{media}`" for media in content)
+                answer["description"] = (
+                    f"{answer.get('description', '').rstrip('.')}. Media type chosen by the "
+                    f"`Accept` request header: {listed} (the first is the default); an `Accept` "
+                    "admitting none of them answers 406."
+                ).removeprefix("Successful Response. ")

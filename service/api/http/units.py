@@ -30,6 +30,7 @@ from service.core.properties.phase import FloatArray
 __all__ = [
     "MAX_QUANTITY_TEXT_LENGTH",
     "MAX_UNIT_LENGTH",
+    "QUANTITY_TEXT_PATTERN",
     "Dimension",
     "UnitSet",
     "convert_from_si",
@@ -187,11 +188,12 @@ _ABSOLUTE_TEMPERATURE_ALIASES = {
 
 _NUMBER_WITH_UNIT = re.compile(
     r"^ *(?P<number>[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]{1,3})?) *"
-    r"(?P<unit>.*?) *$"
+    r"(?P<unit>.*?) *\Z"
 )
 """A quantity text: an ASCII decimal number (exponent of at most three digits), then
 the unit; nothing else."""
-_UNIT_TEXT = re.compile(r"^[A-Za-z0-9µμ°º℃℉% *./^()_-]*$")
+_UNIT_CHARACTERS = "A-Za-z0-9µμ°º℃℉% *./^()_-"
+_UNIT_TEXT = re.compile(rf"^[{_UNIT_CHARACTERS}]*\Z")
 """The characters a unit may hold (letters, digits, the degree and micro signs, percent,
 and the operators ``* / ^ ( ) . _ -``). Refusing the rest (``#`` starts a comment for
 pint, control and non-ASCII digit characters) keeps one text to one meaning."""
@@ -199,6 +201,14 @@ MAX_UNIT_LENGTH = 64
 """Longest unit text read (longer ones are refused before any parsing)."""
 MAX_QUANTITY_TEXT_LENGTH = 96
 """Longest quantity text (number and unit) read."""
+QUANTITY_TEXT_PATTERN = (
+    r"^ *[-+]?(?:[0-9]+(?:\.[0-9]*)?|\.[0-9]+)(?:[eE][-+]?[0-9]{1,3})? *"
+    rf"(?:[{_UNIT_CHARACTERS.replace(' ', '')}][{_UNIT_CHARACTERS}]{{0,{MAX_UNIT_LENGTH - 1}}})?"
+    r" *$"
+)
+"""The quantity texts read, as a pattern (ECMA 262 and Python alike) for the OpenAPI
+document: a number, then at most one unit of the allowed characters. Whether the unit is
+known, and of the field's dimension, only the parser says."""
 _OFFSET_IN_COMPOUND = re.compile(r"(°C|°F|\bdegC\b|\bdegF\b|\bcelsius\b|\bfahrenheit\b)")
 _BTU = re.compile(r"\b(?:Btu|BTU|btu)\b")
 """The International Table Btu (1055.05585 J), the one steam tables use."""
@@ -458,7 +468,7 @@ def parse_quantity_text(text: str, *, field: str) -> tuple[float, str | None]:
             text,
         )
     number = float(match.group("number"))
-    if not math.isfinite(number):  # pragma: no cover - regex admits finite literals only
+    if not math.isfinite(number):  # e.g. 1e999, which the pattern admits
         raise InvalidInputError(field, "value must be finite", text)
     unit = match.group("unit") or None
     return number, unit

@@ -4,9 +4,16 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
-from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.alternatives import exactly_one_of, refused_shapes
+from service.api.http.models import (
+    ApiModel,
+    Envelope,
+    QuantityInput,
+    QuantityOutput,
+    QuantityText,
+)
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -50,6 +57,10 @@ _OUTPUT_UNITS = (
 
 
 class _LineCreate(ApiModel):
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(exactly_one_of("temperature", "pressure"))
+    )
+
     temperature: QuantityInput | None = Field(None, description=_TEMPERATURE)
     pressure: QuantityInput | None = Field(None, description=_PRESSURE)
     output_units: UnitSet = Field(UnitSet.SI, description=_OUTPUT_UNITS)
@@ -102,8 +113,8 @@ class ConstantsQuery(ApiModel):
 
 
 class _LineQuery(ApiModel):
-    temperature: str | None = Field(None, description=_TEMPERATURE_QUERY)
-    pressure: str | None = Field(None, description=_PRESSURE_QUERY)
+    temperature: QuantityText | None = Field(None, description=_TEMPERATURE_QUERY)
+    pressure: QuantityText | None = Field(None, description=_PRESSURE_QUERY)
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS_QUERY)
 
 
@@ -124,8 +135,8 @@ class SaturationQuery(_LineQuery):
 class StateQuery(ApiModel):
     """Query string of GET /v1/properties/state: temperature and pressure."""
 
-    temperature: str = Field(description=_TEMPERATURE_QUERY)
-    pressure: str = Field(description=_PRESSURE_QUERY)
+    temperature: QuantityText = Field(description=_TEMPERATURE_QUERY)
+    pressure: QuantityText = Field(description=_PRESSURE_QUERY)
     phase: RequestedPhase | None = Field(
         None,
         description="Omit for the stable phase; `liquid`/`vapor`/`ice` for a metastable one.",
@@ -151,10 +162,12 @@ class PhaseOut(ApiModel):
 class SaturationPublic(Envelope):
     """Saturated liquid and vapor in equilibrium."""
 
-    temperature: QuantityOutput
-    pressure: QuantityOutput
-    liquid: PhaseOut
-    vapor: PhaseOut
+    temperature: QuantityOutput = Field(
+        description="Saturation temperature, one value or a batch (SI: K)."
+    )
+    pressure: QuantityOutput = Field(description="Saturation pressure (SI: Pa).")
+    liquid: PhaseOut = Field(description="Properties of the saturated liquid.")
+    vapor: PhaseOut = Field(description="Properties of the saturated vapor.")
     latent_heat_of_vaporization: QuantityOutput = Field(
         description="Specific enthalpy of vapor minus liquid (SI: J/kg)."
     )
@@ -163,10 +176,10 @@ class SaturationPublic(Envelope):
 class SublimationPublic(Envelope):
     """Ice Ih and vapor in equilibrium."""
 
-    temperature: QuantityOutput
-    pressure: QuantityOutput
-    ice: PhaseOut
-    vapor: PhaseOut
+    temperature: QuantityOutput = Field(description="Temperature on the sublimation line (SI: K).")
+    pressure: QuantityOutput = Field(description="Sublimation pressure (SI: Pa).")
+    ice: PhaseOut = Field(description="Properties of ice Ih in equilibrium with the vapor.")
+    vapor: PhaseOut = Field(description="Properties of the vapor in equilibrium with ice Ih.")
     latent_heat_of_sublimation: QuantityOutput = Field(
         description="Specific enthalpy of vapor minus ice (SI: J/kg)."
     )
@@ -175,10 +188,10 @@ class SublimationPublic(Envelope):
 class MeltingPublic(Envelope):
     """Ice Ih and liquid in equilibrium."""
 
-    temperature: QuantityOutput
-    pressure: QuantityOutput
-    ice: PhaseOut
-    liquid: PhaseOut
+    temperature: QuantityOutput = Field(description="Temperature on the melting line (SI: K).")
+    pressure: QuantityOutput = Field(description="Melting pressure (SI: Pa).")
+    ice: PhaseOut = Field(description="Properties of ice Ih in equilibrium with the liquid.")
+    liquid: PhaseOut = Field(description="Properties of the liquid in equilibrium with ice Ih.")
     latent_heat_of_fusion: QuantityOutput = Field(
         description="Specific enthalpy of liquid minus ice (SI: J/kg)."
     )
@@ -187,29 +200,47 @@ class MeltingPublic(Envelope):
 class StatePublic(Envelope):
     """One phase at the given temperature and pressure."""
 
-    temperature: QuantityOutput
-    pressure: QuantityOutput
+    temperature: QuantityOutput = Field(description="Temperature of the state, as asked (SI: K).")
+    pressure: QuantityOutput = Field(
+        description="Absolute pressure of the state, as asked (SI: Pa)."
+    )
     phase: str | list[str] = Field(
         description="`liquid`, `vapor`, `ice` (ice Ih) or `supercritical`; a list for a batch."
     )
-    properties: PhaseOut
+    properties: PhaseOut = Field(
+        description="Properties of the phase at that temperature and pressure."
+    )
 
 
 class PointOut(ApiModel):
     """A fixed point."""
 
-    temperature: QuantityOutput
-    pressure: QuantityOutput
-    density: QuantityOutput | None = None
+    temperature: QuantityOutput = Field(description="Temperature of the point (SI: K).")
+    pressure: QuantityOutput = Field(description="Pressure of the point (SI: Pa).")
+    density: QuantityOutput | None = Field(
+        None,
+        description="Density at the point (SI: kg/m3); null where the point has no single density"
+        " (the triple point's three phases).",
+    )
 
 
 class ConstantsPublic(Envelope):
     """Fixed points and constants of ordinary water substance."""
 
-    triple_point: PointOut
-    critical_point: PointOut
-    specific_gas_constant: QuantityOutput
-    molar_mass: QuantityOutput
-    latent_heat_of_vaporization_at_triple_point: QuantityOutput
-    latent_heat_of_sublimation_at_triple_point: QuantityOutput
-    latent_heat_of_fusion_at_triple_point: QuantityOutput
+    triple_point: PointOut = Field(
+        description="The triple point of water (solid, liquid and vapor in equilibrium)."
+    )
+    critical_point: PointOut = Field(description="The liquid-vapor critical point.")
+    specific_gas_constant: QuantityOutput = Field(
+        description="Specific gas constant of water vapor (SI: J/(kg*K))."
+    )
+    molar_mass: QuantityOutput = Field(description="Molar mass of water (SI: kg/mol).")
+    latent_heat_of_vaporization_at_triple_point: QuantityOutput = Field(
+        description="Enthalpy of vapor minus liquid at the triple point (SI: J/kg)."
+    )
+    latent_heat_of_sublimation_at_triple_point: QuantityOutput = Field(
+        description="Enthalpy of vapor minus ice Ih at the triple point (SI: J/kg)."
+    )
+    latent_heat_of_fusion_at_triple_point: QuantityOutput = Field(
+        description="Enthalpy of liquid minus ice Ih at the triple point (SI: J/kg)."
+    )

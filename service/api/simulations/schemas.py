@@ -436,15 +436,17 @@ class SimulationEventOut(ApiModel):
         "`schedule-limit-missed`, `model-range-left` or `water-exhausted`."
     )
     time: QuantityOutput = Field(description="(SI: s).")
-    detail: str
-    state: ChamberStatesOut
+    detail: str = Field(description="What happened, in words.")
+    state: ChamberStatesOut = Field(description="The chamber and product at that moment.")
 
 
 class ScheduleCheckOut(ApiModel):
     """One schedule limit and whether the product met it."""
 
-    time: QuantityOutput
-    temperature_limit: QuantityOutput
+    time: QuantityOutput = Field(description="Time of the limit, from the pump start (SI: s).")
+    temperature_limit: QuantityOutput = Field(
+        description="Highest product temperature the schedule allows at `time` (SI: K)."
+    )
     product_temperature: QuantityOutput | None = Field(
         description="At `time`, where `applies_to` says; null when the simulation ended "
         "before (not evaluated)."
@@ -463,30 +465,47 @@ class SimulationSummaryOut(ApiModel):
     end_reason: str = Field(
         description="`end-time`, `target-reached`, `model-range-left` or `water-exhausted`."
     )
-    end_time: QuantityOutput
+    end_time: QuantityOutput = Field(
+        description="When the simulation ended, from the pump start (SI: s)."
+    )
     flash_time: QuantityOutput | None = Field(description="Null when not reached.")
-    freezing_start_time: QuantityOutput | None
-    fully_frozen_time: QuantityOutput | None
-    target_time: QuantityOutput | None
+    freezing_start_time: QuantityOutput | None = Field(
+        description="When freezing started (SI: s); null when not reached."
+    )
+    fully_frozen_time: QuantityOutput | None = Field(
+        description="When the product was fully frozen (SI: s); null when not reached."
+    )
+    target_time: QuantityOutput | None = Field(
+        description="When the cooling target was reached (SI: s); null without a target or when "
+        "not reached."
+    )
     final_temperature: QuantityOutput = Field(
-        description="The product's one temperature, or its volume mean with "
+        description="The product's one temperature at the end, or its volume mean with "
         "`product.interior` (SI: K)."
     )
-    final_pressure: QuantityOutput
-    evaporated_mass: QuantityOutput
+    final_pressure: QuantityOutput = Field(description="Chamber pressure at the end (SI: Pa).")
+    evaporated_mass: QuantityOutput = Field(
+        description="Water evaporated from the product (SI: kg)."
+    )
     evaporated_fraction_of_water: QuantityOutput = Field(
         description="Of the initial water (unit 1)."
     )
-    ice_mass: QuantityOutput
-    vapor_to_pump: QuantityOutput
-    vapor_to_condenser: QuantityOutput
-    condenser_energy: QuantityOutput
+    ice_mass: QuantityOutput = Field(description="Ice in the product at the end (SI: kg).")
+    vapor_to_pump: QuantityOutput = Field(description="Water vapor taken by the pump (SI: kg).")
+    vapor_to_condenser: QuantityOutput = Field(
+        description="Water vapor captured by the condenser (SI: kg)."
+    )
+    condenser_energy: QuantityOutput = Field(
+        description="Heat the condenser removed over the run (SI: J)."
+    )
     peak_condenser_load: QuantityOutput = Field(description="Over the series points.")
     peak_vapor_mass_flow_to_pump: QuantityOutput = Field(description="Over the series points.")
     peak_evaporation_rate: QuantityOutput = Field(description="Over the series points.")
     schedule_met: bool | None = Field(description="Null without a schedule.")
-    solver_steps: int
-    right_hand_side_evaluations: int
+    solver_steps: int = Field(description="Steps the time integration took.")
+    right_hand_side_evaluations: int = Field(
+        description="Evaluations of the model's rate equations."
+    )
     final_core_temperature: QuantityOutput | None = Field(
         None, description="At the centre, with `product.interior`; null without (SI: K)."
     )
@@ -503,22 +522,48 @@ class SimulationSummaryOut(ApiModel):
 class MassEnergyBalanceOut(ApiModel):
     """Closure of water mass and product energy (the integration's bookkeeping)."""
 
-    initial_water: QuantityOutput
-    final_water: QuantityOutput
-    initial_chamber_vapor: QuantityOutput
-    final_chamber_vapor: QuantityOutput
-    vapor_to_pump: QuantityOutput
-    vapor_to_condenser: QuantityOutput
-    mass_residual: QuantityOutput
-    relative_mass_residual: QuantityOutput
-    initial_energy: QuantityOutput
-    final_energy: QuantityOutput
+    initial_water: QuantityOutput = Field(
+        description="Water (liquid and ice) in the product at the start (SI: kg)."
+    )
+    final_water: QuantityOutput = Field(
+        description="Water (liquid and ice) in the product at the end (SI: kg)."
+    )
+    initial_chamber_vapor: QuantityOutput = Field(
+        description="Water vapor in the chamber at the start (SI: kg)."
+    )
+    final_chamber_vapor: QuantityOutput = Field(
+        description="Water vapor in the chamber at the end (SI: kg)."
+    )
+    vapor_to_pump: QuantityOutput = Field(description="Water vapor taken by the pump (SI: kg).")
+    vapor_to_condenser: QuantityOutput = Field(
+        description="Water vapor captured by the condenser (SI: kg)."
+    )
+    mass_residual: QuantityOutput = Field(
+        description="initial_water + initial_chamber_vapor - final_water - final_chamber_vapor - "
+        "vapor_to_pump - vapor_to_condenser: the integration error (SI: kg)."
+    )
+    relative_mass_residual: QuantityOutput = Field(
+        description="mass_residual / initial_water (unit 1)."
+    )
+    initial_energy: QuantityOutput = Field(
+        description="Energy of the product at the start, IAPWS reference (SI: J)."
+    )
+    final_energy: QuantityOutput = Field(
+        description="Energy of the product at the end, same reference (SI: J)."
+    )
     vapor_enthalpy: QuantityOutput = Field(
         description="Enthalpy carried by the vapor leaving the product."
     )
-    heat_gained: QuantityOutput
-    energy_residual: QuantityOutput
-    relative_energy_residual: QuantityOutput
+    heat_gained: QuantityOutput = Field(
+        description="Heat gained by the product from the surroundings (SI: J)."
+    )
+    energy_residual: QuantityOutput = Field(
+        description="initial_energy + heat_gained - final_energy - vapor_enthalpy: the "
+        "integration error (SI: J)."
+    )
+    relative_energy_residual: QuantityOutput = Field(
+        description="energy_residual / vapor_enthalpy (unit 1)."
+    )
 
 
 class EquipmentChecksOut(ApiModel):
@@ -532,7 +577,9 @@ class EquipmentChecksOut(ApiModel):
     end_pump_inlet_volume_flow: QuantityOutput = Field(
         description="The same at the end of the run."
     )
-    end_pump_inlet_pressure: QuantityOutput
+    end_pump_inlet_pressure: QuantityOutput = Field(
+        description="Chamber pressure at the end of the run (SI: Pa)."
+    )
     pump_vapor_mass: QuantityOutput = Field(
         description="Water vapor the pump itself takes, not captured by the trap (SI: kg)."
     )
@@ -543,18 +590,25 @@ class EquipmentChecksOut(ApiModel):
     time_above_water_vapor_tolerance: QuantityOutput | None = Field(
         description="Time the vapor mass flow into the pump exceeds that tolerance (SI: s)."
     )
-    water_vapor_tolerance_exceeded: bool | None
+    water_vapor_tolerance_exceeded: bool | None = Field(
+        description="Whether the vapor mass flow into the pump exceeded "
+        "`pump.water_vapor_tolerance`; null without one."
+    )
     peak_trap_load: QuantityOutput | None = Field(
         description="Largest refrigeration load of the trap (SI: W); null without a trap."
     )
-    peak_trap_load_time: QuantityOutput | None
+    peak_trap_load_time: QuantityOutput | None = Field(
+        description="When the trap's load peaked (SI: s); null without a trap."
+    )
     trap_refrigeration_capacity: QuantityOutput | None = Field(description="As stated.")
     trap_ice: QuantityOutput | None = Field(description="Ice collected on the trap (SI: kg).")
     trap_ice_capacity: QuantityOutput | None = Field(description="As stated.")
     trap_ice_capacity_used: QuantityOutput | None = Field(
         description="trap_ice / trap_ice_capacity (unit 1)."
     )
-    trap_ice_capacity_exceeded: bool | None
+    trap_ice_capacity_exceeded: bool | None = Field(
+        description="Whether the ice on the trap exceeded its stated capacity; null without one."
+    )
     trap_limited_time: QuantityOutput | None = Field(
         description="Time the trap's capture ran at its refrigeration capacity, so that the "
         "trap, not the pump, limited the vapor removal (SI: s); 0 without a stated capacity, "
@@ -565,11 +619,17 @@ class EquipmentChecksOut(ApiModel):
 class VacuumChamberSimulationPublic(Envelope):
     """Events, time series, summary and balances of one simulation."""
 
-    summary: SimulationSummaryOut
-    events: list[SimulationEventOut]
-    series: ChamberStatesOut
-    schedule: list[ScheduleCheckOut]
-    balance: MassEnergyBalanceOut
+    summary: SimulationSummaryOut = Field(description="Headline numbers of the run.")
+    events: list[SimulationEventOut] = Field(
+        description="What happened during the run, in time order."
+    )
+    series: ChamberStatesOut = Field(description="The chamber and product over time.")
+    schedule: list[ScheduleCheckOut] = Field(
+        description="Each schedule limit and whether it was met; empty without a schedule."
+    )
+    balance: MassEnergyBalanceOut = Field(
+        description="Water mass and product energy books, with their residuals."
+    )
     checks: EquipmentChecksOut = Field(description="Equipment checks of the run.")
     model_references: list[str] = Field(description="Published basis of the model.")
 
@@ -591,4 +651,4 @@ class VacuumChamberSweepPublic(Envelope):
     checks: dict[str, QuantityOutput | list[Any]] = Field(
         description="Each equipment check as `{values, unit}`, or a list of true/false/null."
     )
-    model_references: list[str]
+    model_references: list[str] = Field(description="Published basis of the model.")

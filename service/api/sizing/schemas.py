@@ -9,8 +9,9 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
+from service.api.http.alternatives import refused_shapes
 from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
 from service.api.http.record_labels import RecordLabels
 from service.api.simulations.schemas import (
@@ -22,6 +23,7 @@ from service.api.simulations.schemas import (
     SimulationSummaryOut,
     VacuumChamberSimulationCreate,
 )
+from service.core.sizing import SIZABLE_FIELDS
 
 __all__ = [
     "CoolingTargetInput",
@@ -61,6 +63,21 @@ class SizingBracketInput(ApiModel):
 class VacuumChamberSizingCreate(RecordLabels):
     """Solve one field of a chamber simulation for a cooling target."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            # `"schedule"` needs a case with a schedule (an absent one is empty)
+            [
+                {
+                    "required": ["target"],
+                    "properties": {
+                        "target": {"const": "schedule"},
+                        "case": {"properties": {"schedule": {"maxItems": 0}}},
+                    },
+                }
+            ]
+        )
+    )
+
     case: VacuumChamberSimulationCreate = Field(
         description="A request of `/v1/simulations/vacuum-chamber`; `find` is varied in it."
     )
@@ -72,6 +89,8 @@ class VacuumChamberSizingCreate(RecordLabels):
         "`condenser.refrigeration_capacity`, `condenser.surface_temperature`, "
         "`chamber.free_volume`, `chamber.leak_rate`, `product.mass` or `heat_gain.power` "
         "(fields in which the time to the target is monotone; others are refused).",
+        title="SizableFieldPath",
+        json_schema_extra={"enum": list(SIZABLE_FIELDS)},
     )
     target: CoolingTargetInput | Literal["schedule"] = Field(
         description='Temperature and time, or `"schedule"`: every limit of the case\'s '
@@ -99,16 +118,21 @@ class DesignPointOut(ApiModel):
         description="Null when the product does not reach the target temperature in the "
         "simulated time (twice the target time, or the case's end time if longer)."
     )
-    meets_target: bool
+    meets_target: bool = Field(
+        description="Whether the product reaches the target temperature by the target time at "
+        "this value."
+    )
 
 
 class MarginOut(ApiModel):
     """What 90 % of the answer gives."""
 
     factor: float = Field(description="0.9.")
-    value: QuantityOutput
-    time_to_target: QuantityOutput | None
-    meets_target: bool
+    value: QuantityOutput = Field(description="90 % of the answer, in the unit of `solution`.")
+    time_to_target: QuantityOutput | None = Field(
+        description="Time to the target temperature at that value (SI: s); null when not reached."
+    )
+    meets_target: bool = Field(description="Whether the target is still met at that value.")
 
 
 class SizingToleranceOut(ApiModel):
@@ -127,19 +151,25 @@ class SizingToleranceOut(ApiModel):
 class ForwardSimulationOut(ApiModel):
     """The chamber simulation at the answer (as `/v1/simulations/vacuum-chamber` answers it)."""
 
-    summary: SimulationSummaryOut
-    events: list[SimulationEventOut]
-    series: ChamberStatesOut
-    schedule: list[ScheduleCheckOut]
-    balance: MassEnergyBalanceOut
-    checks: EquipmentChecksOut
-    model_references: list[str]
+    summary: SimulationSummaryOut = Field(description="Headline numbers of the run.")
+    events: list[SimulationEventOut] = Field(
+        description="What happened during the run, in time order."
+    )
+    series: ChamberStatesOut = Field(description="The chamber and product over time.")
+    schedule: list[ScheduleCheckOut] = Field(
+        description="Each schedule limit and whether it was met; empty without a schedule."
+    )
+    balance: MassEnergyBalanceOut = Field(
+        description="Water mass and product energy books, with their residuals."
+    )
+    checks: EquipmentChecksOut = Field(description="Equipment checks of the run.")
+    model_references: list[str] = Field(description="Published basis of the model.")
 
 
 class VacuumChamberSizingPublic(Envelope):
     """The value that meets the target, how it was found, and the simulation at it."""
 
-    find: str
+    find: str = Field(description="Dotted path of the field solved for, as asked.")
     meaning: str = Field(description="What the field is.")
     direction: Literal["smallest", "largest"] = Field(
         description="`smallest` for a field where more helps (pump speed), `largest` where "
@@ -149,15 +179,17 @@ class VacuumChamberSizingPublic(Envelope):
         description="The answer, in the unit the case gave the field in (SI otherwise)."
     )
     time_to_target: QuantityOutput | None = Field(description="At the answer.")
-    tolerance: SizingToleranceOut
+    tolerance: SizingToleranceOut = Field(
+        description="The tolerance asked for and the one reached."
+    )
     bracket: list[QuantityOutput] = Field(description="Lower and upper value searched.")
     at_bracket_end: bool = Field(
         description="The bracket's unfavourable end already meets the target: the boundary "
         "may lie beyond it."
     )
-    margin: MarginOut
+    margin: MarginOut = Field(description="The target checked at 90 % of the answer.")
     design_curve: list[DesignPointOut] = Field(
         description="Time to target against the unknown at every simulated value."
     )
     simulations: int = Field(description="Forward simulations run.")
-    simulation: ForwardSimulationOut
+    simulation: ForwardSimulationOut = Field(description="The chamber simulation at the answer.")

@@ -78,6 +78,12 @@ def read_ice_fraction(
             f"{solute_field}, seawater, composition",
             "give exactly one of solute, seawater or composition",
         )
+    if composition is None and freezing_point is not None:
+        raise InvalidInputError(
+            "freezing_point",
+            "taken with a composition only: a solute's or seawater's freezing point comes "
+            "from its own model",
+        )
     t = read_quantity(temperature, field="temperature", dimension=Dimension.TEMPERATURE)
     p = read_quantity(pressure, field="pressure", dimension=Dimension.PRESSURE)
     parsed = {"temperature": t, "pressure": p}

@@ -4,10 +4,17 @@ from __future__ import annotations
 
 from typing import Literal
 
-from pydantic import Field
+from pydantic import ConfigDict, Field
 
 from service.api.balances.schemas import CompositionInput
-from service.api.http.models import ApiModel, Envelope, QuantityInput, QuantityOutput
+from service.api.http.alternatives import exactly_one_of, refused_shapes, requires
+from service.api.http.models import (
+    ApiModel,
+    Envelope,
+    QuantityInput,
+    QuantityOutput,
+    QuantityText,
+)
 from service.api.http.units import UnitSet
 
 __all__ = [
@@ -44,7 +51,7 @@ _SALINITY = (
 )
 _UNITS = "Unit set of the results: `SI`, `engineering` or `US`."
 _FREEZING_POINT = (
-    "With `composition`: the food's initial freezing point (measured, or from a handbook "
+    "With `composition` only: the food's initial freezing point (measured, or from a handbook "
     "table of foods), a number in K or with a unit (`-1.7 degC`); 253.15 K to 273.16 K. "
     "Omitted: estimated from `composition.dissolved_solutes` if named, else from the "
     "composition alone (Pham 1996), with a warning."
@@ -76,6 +83,13 @@ class IceFractionCreate(ApiModel):
     `solute`, `seawater` or `composition` (a food, with its `freezing_point` or without it:
     estimated)."""
 
+    model_config = ConfigDict(
+        json_schema_extra=refused_shapes(
+            exactly_one_of("solute", "seawater", "composition"),
+            requires("freezing_point", "composition"),
+        )
+    )
+
     temperature: QuantityInput = Field(description=_TEMPERATURE)
     solute: SolutionSoluteInput | None = Field(None, description="A named solute in water.")
     seawater: SeawaterInput | None = Field(None, description="Seawater instead of a solute.")
@@ -94,14 +108,14 @@ class IceFractionQuery(ApiModel):
     """Query string of GET /v1/properties/ice-fraction: one state; `solute` with
     `mass_fraction`, or `absolute_salinity`."""
 
-    temperature: str = Field(description="Temperature: a number in K, or with a unit.")
+    temperature: QuantityText = Field(description="Temperature: a number in K, or with a unit.")
     solute: str | None = Field(None, description=f"A named solute: {_NAMES}.")
-    mass_fraction: str | None = Field(
+    mass_fraction: QuantityText | None = Field(
         None, description="The solute's mass fraction of the whole (unit 1, or `3.5 %`)."
     )
     model: Literal["non-ideal", "ideal"] = Field("non-ideal", description=_MODEL)
-    absolute_salinity: str | None = Field(None, description=_SALINITY)
-    pressure: str = Field("101325", description=_PRESSURE)
+    absolute_salinity: QuantityText | None = Field(None, description=_SALINITY)
+    pressure: QuantityText = Field("101325", description=_PRESSURE)
     output_units: UnitSet = Field(UnitSet.SI, description=_UNITS)
 
 
@@ -121,8 +135,13 @@ class FreezeConcentrationOut(ApiModel):
     glass_transition_of_unfrozen_phase: QuantityOutput = Field(
         description="Gordon-Taylor glass transition of the unfrozen solution (SI: K)."
     )
-    maximally_freeze_concentrated: FreezeConcentratedOut
-    source: str
+    maximally_freeze_concentrated: FreezeConcentratedOut = Field(
+        description="The maximally freeze-concentrated solution: glass transition, onset of ice "
+        "melting, solute fraction."
+    )
+    source: str = Field(
+        description="Published source of the glass-transition and freeze-concentration data."
+    )
 
 
 class IceFractionPublic(Envelope):
@@ -130,8 +149,10 @@ class IceFractionPublic(Envelope):
 
     mixture: str = Field(description="`seawater`, `food` or the solute's name.")
     model: str = Field(description="The activity model with its source and valid range.")
-    temperature: QuantityOutput
-    pressure: QuantityOutput
+    temperature: QuantityOutput = Field(description="Temperature of the mixture, as asked (SI: K).")
+    pressure: QuantityOutput = Field(
+        description="Total pressure on the mixture, as given or the default 101325 Pa (SI: Pa)."
+    )
     freezing_point: QuantityOutput = Field(description="Initial freezing point (SI: K).")
     freezing_point_basis: str | None = Field(
         None,
