@@ -22,9 +22,9 @@ other refusal of schema-valid data fails the test.
 Phases: the documented examples are each sent, and their answers checked, by
 tests/api/test_openapi_examples.py, so schemathesis' example phase is off. Its coverage
 phase (boundary and near-valid variants of every field, not bounded by ``max_examples``)
-runs on the lookups and operations routes; on the balance and simulation routes, where
-each valid case is a full calculation (seconds for some solute cases), only the bounded
-fuzzing phase runs.
+runs on the lookups and operations routes; on the balance, simulation, calibration, sizing and
+design-space routes, where each valid case is a full calculation (seconds for some solute
+cases, a whole fit or sizing search for the others), only the bounded fuzzing phase runs.
 """
 
 from __future__ import annotations
@@ -49,7 +49,7 @@ from service.api.http.units import QUANTITY_TEXT_PATTERN
 from service.settings import Settings
 
 MAX_EXAMPLES = int(os.environ.get("TRIPOINT_SCHEMATHESIS_EXAMPLES", "25"))
-_HEAVY = r"^/v1/(balances|simulations)/"
+_HEAVY = r"^/v1/(balances|simulations|calibrations|sizing|design-spaces)/"
 
 _RECORDS = Path(tempfile.mkdtemp(prefix="tripoint-schemathesis-"))
 APP = create_app(
