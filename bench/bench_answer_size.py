@@ -16,11 +16,16 @@ file. Not a test; run alone with ``.venv/bin/python bench/bench_answer_size.py``
 
 from __future__ import annotations
 
+import sys
 import tempfile
 from pathlib import Path
 from typing import Any
 
 from fastapi.testclient import TestClient
+
+# This checkout's service package, whatever else the environment has installed (an editable
+# install may point at another checkout), as in bench_request_path.
+sys.path.insert(0, str(Path(__file__).resolve().parent.parent))
 
 from service.api.app import create_app
 from service.settings import Settings
