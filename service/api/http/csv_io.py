@@ -55,6 +55,7 @@ import orjson
 from starlette.types import ASGIApp, Message, Receive, Scope, Send
 
 from service.api.http.limits import TimeLimitExceededError, run_within_limit
+from service.api.http.members import MISSING, member_at
 from service.api.http.negotiation import CHOSEN_MEDIA_TYPE, choose_media_type
 from service.api.http.problem_asgi import send_problem
 from service.api.http.problems import PROBLEM_MEDIA_TYPE, FieldError, problem_answer
@@ -485,9 +486,9 @@ def split_statements(
             candidates.append((key,))
     stated: list[tuple[str, Any]] = []
     for path in candidates:
-        values = [_member(answer, path) for answer in answered]
+        values = [member_at(answer, path) for answer in answered]
         first = orjson.dumps(values[0])
-        if values[0] is _MISSING or any(orjson.dumps(item) != first for item in values[1:]):
+        if values[0] is MISSING or any(orjson.dumps(item) != first for item in values[1:]):
             continue
         stated.append((".".join(path), values[0]))
     taken = {name for name, _ in stated}
@@ -502,22 +503,6 @@ def split_statements(
                 del kept["meta"]
         remaining.append(kept)
     return stated, remaining
-
-
-class _Missing:
-    pass
-
-
-_MISSING: Any = _Missing()
-
-
-def _member(answer: dict[str, Any], path: tuple[str, ...]) -> Any:
-    node: Any = answer
-    for part in path:
-        if not isinstance(node, dict) or part not in node:
-            return _MISSING
-        node = node[part]
-    return node
 
 
 def _table_bytes(answers: list[dict[str, Any]]) -> bytes:

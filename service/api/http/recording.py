@@ -23,6 +23,7 @@ from fastapi import Request
 from pydantic import BaseModel
 
 from service import __version__
+from service.api.http.members import MISSING, member_at
 from service.api.http.observability import Metrics
 from service.api.http.problems import FieldError, ProblemError
 from service.api.http.record_labels import labels_of
@@ -79,22 +80,13 @@ def headline(answer: Mapping[str, Any], paths: Mapping[str, str]) -> dict[str, A
     """
     picked: dict[str, Any] = {}
     for name, path in paths.items():
-        node: Any = answer
-        for part in path.split("."):
-            node = node.get(part) if isinstance(node, Mapping) else None
+        node = member_at(answer, path.split("."))
+        if node is MISSING:
+            continue
         kept, value = _headline_entry(node)
-        if kept and (node is not None or _has_path(answer, path)):
+        if kept:
             picked[name] = value
     return picked
-
-
-def _has_path(answer: Mapping[str, Any], path: str) -> bool:
-    node: Any = answer
-    for part in path.split("."):
-        if not isinstance(node, Mapping) or part not in node:
-            return False
-        node = node[part]
-    return True
 
 
 def _created_at(meta: Mapping[str, Any]) -> datetime:
